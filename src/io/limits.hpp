@@ -1,0 +1,30 @@
+#pragma once
+// Hard bounds that loaders enforce. Hop chemistry bounds are the "reject outside" values of
+// METHODS.md ("Hop chemistry for data validation"; ranges from memory and general literature).
+// Brewing bounds are common practice, wide enough for any real brewhouse.
+#include "io/json_fields.hpp"
+
+namespace bine::limits {
+
+inline constexpr double kHuge = 1e308;
+
+inline constexpr Bounds alpha_acid{0.5, 22.0, "alpha acid"};
+inline constexpr Bounds beta_acid{0.5, 12.0, "beta acid"};
+inline constexpr Bounds cohumulone{10.0, 55.0, "cohumulone (% of alpha)"};
+inline constexpr Bounds total_oil{0.1, 5.0, "total oil"};
+inline constexpr Bounds oil_fraction{0.0, 100.0, "an oil compound (% of total oil)"};
+inline constexpr Bounds stability{1.0, 100.0, "storage stability (% of alpha left after 6 months at 20 C)"};
+inline constexpr Bounds aroma_intensity{0.0, 5.0, "an aroma intensity"};
+inline constexpr Bounds hsi{0.15, 2.0, "Hop Storage Index"};
+
+inline constexpr Bounds hop_mass{0.0, 1e7, "a hop amount", true};          // up to 10 t
+inline constexpr Bounds stock_mass{0.0, 1e8, "an amount on hand"};
+inline constexpr Bounds batch_volume{0.0, 1e6, "batch volume", true};      // up to 10,000 hL
+inline constexpr Bounds gravity{1.0, 1.2, "original gravity"};
+inline constexpr Bounds boil_time{0.0, 600.0, "boil time"};
+inline constexpr Bounds addition_time{0.0, 60.0 * 24.0 * 60.0, "an addition time"};  // up to 60 days
+inline constexpr Bounds whirlpool_temperature{20.0, 100.0, "a whirlpool temperature"};
+inline constexpr Bounds storage_temperature{-40.0, 40.0, "a storage temperature"};
+inline constexpr Bounds target_ibu{0.0, 200.0, "target IBU"};
+
+}  // namespace bine::limits

@@ -1,0 +1,418 @@
+#include "io/loaders.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+#include <map>
+#include <set>
+
+#include "io/file_io.hpp"
+#include "io/json_fields.hpp"
+#include "model/errors.hpp"
+#include "io/limits.hpp"
+#include "model/names.hpp"
+
+namespace bine {
+namespace {
+
+using nlohmann::json;
+
+json parse_or_throw(std::string_view text, Diagnostics& diagnostics) {
+  auto document = parse_json_text(text, diagnostics);
+  diagnostics.throw_if_any();
+  return *document;
+}
+
+// Reads an array at `key`, calling `each(element, pointer)`.
+template <typename Each>
+void for_each_in_array(FieldReader& reader, std::string_view key, bool required, Each each) {
+  const json* value = reader.raw(key);
+  if (value == nullptr || value->is_null()) {
+    if (required && reader.ok()) reader.diagnostics().add(reader.at(key), "is missing (required)");
+    return;
+  }
+  if (!value->is_array()) {
+    reader.diagnostics().add(reader.at(key), fmt::format("{} is not an array (expected [ ... ])", brief(*value)));
+    return;
+  }
+  for (std::size_t i = 0; i < value->size(); ++i) each((*value)[i], reader.at(key) + "/" + std::to_string(i));
+}
+
+template <typename Enum, typename From>
+std::optional<Enum> read_enum(FieldReader& reader, std::string_view key, bool required, From from,
+                              std::string_view choices) {
+  auto value = reader.text(key, required);
+  if (!value) return std::nullopt;
+  auto parsed = from(*value);
+  if (!parsed) reader.diagnostics().add(reader.at(key), fmt::format("\"{}\" is not one of {}", *value, choices));
+  return parsed;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Lexicon
+
+Lexicon lexicon_from(const json& document, Diagnostics& diagnostics) {
+  FieldReader top(document, "", diagnostics);
+  top.allow_only({"lexicon", "axes", "compounds"});
+  std::vector<AromaAxis> axes;
+  std::set<std::string> seen_axes;
+  std::set<std::string> seen_tags;
+  for_each_in_array(top, "axes", true, [&](const json& element, const std::string& pointer) {
+    FieldReader reader(element, pointer, diagnostics);
+    reader.allow_only({"name", "description", "tags"});
+    AromaAxis axis;
+    axis.name = reader.text("name", true).value_or("");
+    axis.description = reader.text("description", false).value_or("");
+    if (!axis.name.empty() && !seen_axes.insert(fold_name(axis.name)).second)
+      diagnostics.add(reader.at("name"), fmt::format("axis \"{}\" appears twice", axis.name));
+    for_each_in_array(reader, "tags", false, [&](const json& tag, const std::string& tag_pointer) {
+      if (!tag.is_string()) {
+        diagnostics.add(tag_pointer, fmt::format("{} is not a string (expected a tag)", brief(tag)));
+        return;
+      }
+      const auto text = tag.get<std::string>();
+      if (!seen_tags.insert(fold_name(text)).second)
+        diagnostics.add(tag_pointer, fmt::format("tag \"{}\" maps onto more than one axis", text));
+      axis.tags.push_back(text);
+    });
+    axes.push_back(std::move(axis));
+  });
+  std::vector<CompoundAssociation> compounds;
+  for_each_in_array(top, "compounds", false, [&](const json& element, const std::string& pointer) {
+    FieldReader reader(element, pointer, diagnostics);
+    reader.allow_only({"name", "axes", "source", "note"});
+    CompoundAssociation compound;
+    compound.compound = reader.text("name", true).value_or("");
+    compound.source = reader.text("source", true).value_or("");
+    if (const json* weights = reader.raw("axes"); weights != nullptr) {
+      FieldReader weights_reader(*weights, reader.at("axes"), diagnostics);
+      if (weights_reader.ok()) {
+        for (const auto& [axis, weight] : weights->items()) {
+          if (!seen_axes.count(fold_name(axis))) {
+            diagnostics.add(weights_reader.at(axis), fmt::format("\"{}\" is not an axis of this lexicon", axis));
+            continue;
+          }
+          if (auto w = read_quantity(weight, Dimension::percent, Bounds{0.0, 1.0, "a compound weight"},
+                                     weights_reader.at(axis), diagnostics))
+            compound.axes[axis] = *w;
+        }
+      }
+    }
+    compounds.push_back(std::move(compound));
+  });
+  if (axes.empty() && diagnostics.empty()) diagnostics.add("/axes", "is empty (expected at least one aroma axis)");
+  return Lexicon(std::move(axes), std::move(compounds));
+}
+
+// ---------------------------------------------------------------------------------------------
+// Catalog
+
+Variety variety_from(const json& element, const std::string& pointer, const Lexicon& lexicon,
+                     Diagnostics& diagnostics) {
+  FieldReader reader(element, pointer, diagnostics);
+  reader.allow_only({"name", "origin", "purpose", "alpha_acid", "beta_acid", "cohumulone", "total_oil", "oils",
+                     "stability", "aroma", "tags", "notes"});
+  Variety variety;
+  variety.name = reader.text("name", true).value_or("");
+  variety.origin = reader.text("origin", false).value_or("");
+  variety.purpose = read_enum<Purpose>(reader, "purpose", false, purpose_from, "aroma, bittering or dual");
+  variety.alpha_acid = reader.range("alpha_acid", Dimension::percent, limits::alpha_acid, false);
+  variety.beta_acid = reader.range("beta_acid", Dimension::percent, limits::beta_acid, false);
+  variety.cohumulone = reader.range("cohumulone", Dimension::percent, limits::cohumulone, false);
+  variety.total_oil = reader.range("total_oil", Dimension::oil_content, limits::total_oil, false);
+  variety.stability = reader.quantity("stability", Dimension::percent, limits::stability, false);
+  if (const json* oils = reader.raw("oils"); oils != nullptr && !oils->is_null()) {
+    FieldReader oil_reader(*oils, reader.at("oils"), diagnostics);
+    if (oil_reader.ok()) {
+      double sum_of_minimums = 0.0;
+      for (const auto& [compound, value] : oils->items()) {
+        const auto& known = oil_compounds();
+        if (std::find(known.begin(), known.end(), compound) == known.end()) {
+          std::string hint = did_you_mean(compound, known);
+          diagnostics.add(oil_reader.at(compound),
+                          fmt::format("unknown oil compound \"{}\" ({})", compound,
+                                      hint.empty() ? "expected myrcene, humulene, caryophyllene, farnesene, "
+                                                     "linalool or geraniol"
+                                                   : hint));
+          continue;
+        }
+        if (auto range = oil_reader.range(compound, Dimension::percent, limits::oil_fraction, false)) {
+          variety.oils[compound] = *range;
+          sum_of_minimums += range->min;
+        }
+      }
+      if (sum_of_minimums > 100.0 + 1e-9)
+        diagnostics.add(reader.at("oils"), fmt::format("oil fractions sum to {:.1f} % at their minimums "
+                                                       "(expected at most 100 % of total oil)",
+                                                       sum_of_minimums));
+    }
+  }
+  if (const json* aroma = reader.raw("aroma"); aroma != nullptr && !aroma->is_null()) {
+    FieldReader aroma_reader(*aroma, reader.at("aroma"), diagnostics);
+    if (aroma_reader.ok()) {
+      std::map<std::string, double> intensities;
+      for (const auto& [axis, value] : aroma->items()) {
+        const auto index = lexicon.axis_index(axis);
+        if (!index) {
+          std::string hint = did_you_mean(axis, lexicon.axis_names());
+          diagnostics.add(aroma_reader.at(axis),
+                          fmt::format("unknown aroma axis \"{}\" ({})", axis,
+                                      hint.empty() ? "see the axes in lexicon.json" : hint));
+          continue;
+        }
+        if (auto v = read_quantity(value, Dimension::percent, limits::aroma_intensity, aroma_reader.at(axis),
+                                   diagnostics))
+          intensities[lexicon.axes()[*index].name] = *v;
+      }
+      variety.aroma = std::move(intensities);
+    }
+  }
+  for_each_in_array(reader, "tags", false, [&](const json& tag, const std::string& tag_pointer) {
+    if (!tag.is_string()) {
+      diagnostics.add(tag_pointer, fmt::format("{} is not a string (expected a descriptor)", brief(tag)));
+      return;
+    }
+    variety.tags.push_back(tag.get<std::string>());
+  });
+  return variety;
+}
+
+Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon,
+                     Diagnostics& diagnostics) {
+  FieldReader top(document, "", diagnostics);
+  top.allow_only({"catalog", "varieties"});
+  Catalog catalog;
+  std::string name = file;
+  if (const json* meta = top.raw("catalog"); meta != nullptr) {
+    FieldReader meta_reader(*meta, "/catalog", diagnostics);
+    meta_reader.allow_only({"name", "demo", "source"});
+    name = meta_reader.text("name", false).value_or(file);
+    catalog.demo = meta_reader.boolean("demo", false).value_or(false);
+    meta_reader.text("source", false);
+  }
+  catalog.names.push_back(name);
+  std::map<std::string, std::string> seen;  // folded name -> pointer
+  for_each_in_array(top, "varieties", true, [&](const json& element, const std::string& pointer) {
+    Variety variety = variety_from(element, pointer, lexicon, diagnostics);
+    if (variety.name.empty()) return;
+    auto [it, inserted] = seen.emplace(fold_name(variety.name), pointer);
+    if (!inserted) {
+      diagnostics.add(pointer + "/name",
+                      fmt::format("variety \"{}\" is already defined at {}", variety.name, it->second));
+      return;
+    }
+    variety.source_file = file;
+    catalog.varieties.push_back(std::move(variety));
+  });
+  if (catalog.varieties.empty() && diagnostics.empty())
+    diagnostics.add("/varieties", "is empty (expected at least one variety)");
+  return catalog;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Stock
+
+Stock stock_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
+  FieldReader top(document, "", diagnostics);
+  top.allow_only({"stock", "lots"});
+  Stock stock;
+  stock.source_file = file;
+  if (const json* meta = top.raw("stock"); meta != nullptr) {
+    FieldReader meta_reader(*meta, "/stock", diagnostics);
+    meta_reader.allow_only({"name", "demo", "source"});
+    stock.name = meta_reader.text("name", false).value_or("");
+    meta_reader.boolean("demo", false);
+    meta_reader.text("source", false);
+  }
+  std::set<std::string> lot_codes;
+  for_each_in_array(top, "lots", true, [&](const json& element, const std::string& pointer) {
+    FieldReader reader(element, pointer, diagnostics);
+    reader.allow_only({"variety", "lot", "form", "alpha_acid", "beta_acid", "total_oil", "packaged", "storage",
+                       "on_hand", "hsi", "notes"});
+    Lot lot;
+    lot.variety = reader.text("variety", true).value_or("");
+    lot.lot = reader.text("lot", false).value_or("");
+    if (!lot.lot.empty() && !lot_codes.insert(fold_name(lot.lot)).second)
+      diagnostics.add(reader.at("lot"), fmt::format("lot \"{}\" appears twice", lot.lot));
+    lot.form = read_enum<HopForm>(reader, "form", false, form_from, "pellet, whole or powder").value_or(HopForm::pellet);
+    lot.alpha_acid = reader.quantity("alpha_acid", Dimension::percent, limits::alpha_acid, false);
+    lot.beta_acid = reader.quantity("beta_acid", Dimension::percent, limits::beta_acid, false);
+    lot.total_oil = reader.quantity("total_oil", Dimension::oil_content, limits::total_oil, false);
+    lot.packaged = reader.date("packaged", false);
+    lot.on_hand_g = reader.quantity("on_hand", Dimension::mass, limits::stock_mass, false);
+    lot.hsi = reader.quantity("hsi", Dimension::percent, limits::hsi, false);
+    if (const json* storage = reader.raw("storage"); storage != nullptr && !storage->is_null()) {
+      FieldReader storage_reader(*storage, reader.at("storage"), diagnostics);
+      storage_reader.allow_only({"temperature", "package"});
+      auto temperature = storage_reader.quantity("temperature", Dimension::temperature, limits::storage_temperature, true);
+      auto package = read_enum<Package>(storage_reader, "package", true, package_from, "vacuum, sealed or open");
+      if (temperature && package) lot.storage = Storage{*temperature, *package};
+    }
+    stock.lots.push_back(std::move(lot));
+  });
+  return stock;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Recipe
+
+Recipe recipe_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
+  FieldReader top(document, "", diagnostics);
+  top.allow_only({"name", "batch_volume", "original_gravity", "boil_time", "target_ibu", "hops", "notes"});
+  Recipe recipe;
+  recipe.source_file = file;
+  recipe.name = top.text("name", false).value_or("");
+  recipe.batch_volume_l = top.quantity("batch_volume", Dimension::volume, limits::batch_volume, true).value_or(0.0);
+  recipe.original_gravity = top.quantity("original_gravity", Dimension::gravity, limits::gravity, true).value_or(1.0);
+  recipe.boil_minutes = top.quantity("boil_time", Dimension::time, limits::boil_time, true).value_or(0.0);
+  recipe.target_ibu = top.quantity("target_ibu", Dimension::percent, limits::target_ibu, false);
+  for_each_in_array(top, "hops", true, [&](const json& element, const std::string& pointer) {
+    FieldReader reader(element, pointer, diagnostics);
+    reader.allow_only({"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "form", "notes"});
+    HopAddition hop;
+    hop.variety = reader.text("variety", false).value_or("");
+    hop.lot = reader.text("lot", false).value_or("");
+    if (hop.variety.empty() && hop.lot.empty() && reader.ok())
+      diagnostics.add(reader.at("variety"), "is missing (give a variety or a lot)");
+    hop.grams = reader.quantity("amount", Dimension::mass, limits::hop_mass, true).value_or(0.0);
+    hop.alpha_acid = reader.quantity("alpha_acid", Dimension::percent, limits::alpha_acid, false);
+    const auto use = read_enum<HopUse>(reader, "use", true, use_from, "first-wort, boil, whirlpool or dry-hop");
+    hop.use = use.value_or(HopUse::boil);
+    hop.minutes = reader.quantity("time", Dimension::time, limits::addition_time, false);
+    hop.temperature_c = reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, false);
+    hop.form = read_enum<HopForm>(reader, "form", false, form_from, "pellet, whole or powder");
+    if (use == HopUse::boil && !hop.minutes && !reader.has("time") && reader.ok())
+      diagnostics.add(reader.at("time"), "is missing (a boil addition needs its minutes before flame-out)");
+    if (use == HopUse::whirlpool) {
+      if (!reader.has("temperature") && reader.ok())
+        diagnostics.add(reader.at("temperature"), "is missing (a whirlpool addition needs its temperature)");
+      if (!reader.has("time") && reader.ok())
+        diagnostics.add(reader.at("time"), "is missing (a whirlpool addition needs its stand minutes)");
+    }
+    if (use && use != HopUse::whirlpool && reader.has("temperature"))
+      diagnostics.add(reader.at("temperature"),
+                      fmt::format("only a whirlpool addition takes a temperature (this one is {})", to_string(*use)));
+    if (use == HopUse::boil && hop.minutes && recipe.boil_minutes > 0.0 && *hop.minutes > recipe.boil_minutes + 1e-9)
+      diagnostics.add(reader.at("time"), fmt::format("{:g} min is longer than the boil time of {:g} min",
+                                                     *hop.minutes, recipe.boil_minutes));
+    recipe.hops.push_back(std::move(hop));
+  });
+  return recipe;
+}
+
+template <typename Parse>
+auto parse_with(std::string_view text, const std::string& file, Parse parse) {
+  Diagnostics diagnostics(file);
+  const json document = parse_or_throw(text, diagnostics);
+  auto result = parse(document, diagnostics);
+  diagnostics.throw_if_any();
+  return result;
+}
+
+}  // namespace
+
+Lexicon parse_lexicon(std::string_view text, const std::string& file) {
+  return parse_with(text, file, [&](const json& d, Diagnostics& diag) { return lexicon_from(d, diag); });
+}
+Catalog parse_catalog(std::string_view text, const std::string& file, const Lexicon& lexicon) {
+  return parse_with(text, file, [&](const json& d, Diagnostics& diag) { return catalog_from(d, file, lexicon, diag); });
+}
+Stock parse_stock(std::string_view text, const std::string& file) {
+  return parse_with(text, file, [&](const json& d, Diagnostics& diag) { return stock_from(d, file, diag); });
+}
+Recipe parse_recipe(std::string_view text, const std::string& file) {
+  return parse_with(text, file, [&](const json& d, Diagnostics& diag) { return recipe_from(d, file, diag); });
+}
+
+Lexicon load_lexicon(const std::filesystem::path& path) { return parse_lexicon(read_text_file(path), path.string()); }
+Catalog load_catalog(const std::filesystem::path& path, const Lexicon& lexicon) {
+  return parse_catalog(read_text_file(path), path.string(), lexicon);
+}
+Stock load_stock(const std::filesystem::path& path) { return parse_stock(read_text_file(path), path.string()); }
+Recipe load_recipe(const std::filesystem::path& path) { return parse_recipe(read_text_file(path), path.string()); }
+
+Catalog merge_catalogs(const std::vector<Catalog>& catalogs) {
+  Catalog merged;
+  std::map<std::string, const Variety*> seen;
+  std::vector<std::string> problems;
+  for (const auto& catalog : catalogs) {
+    merged.names.insert(merged.names.end(), catalog.names.begin(), catalog.names.end());
+    merged.demo = merged.demo || catalog.demo;
+    for (const auto& variety : catalog.varieties) {
+      auto [it, inserted] = seen.emplace(fold_name(variety.name), &variety);
+      if (!inserted) {
+        problems.push_back(fmt::format("{}: variety \"{}\" is also defined in {} (rename one of them)",
+                                       variety.source_file, variety.name, it->second->source_file));
+        continue;
+      }
+    }
+  }
+  if (!problems.empty()) throw InputError(problems);
+  for (const auto& catalog : catalogs)
+    merged.varieties.insert(merged.varieties.end(), catalog.varieties.begin(), catalog.varieties.end());
+  return merged;
+}
+
+FileKind detect_file_kind(const json& document) {
+  if (!document.is_object()) return FileKind::unknown;
+  if (document.contains("varieties")) return FileKind::catalog;
+  if (document.contains("lots")) return FileKind::stock;
+  if (document.contains("hops")) return FileKind::recipe;
+  if (document.contains("axes")) return FileKind::lexicon;
+  return FileKind::unknown;
+}
+
+std::string_view to_string(FileKind kind) {
+  switch (kind) {
+    case FileKind::catalog: return "catalog";
+    case FileKind::stock: return "stock";
+    case FileKind::recipe: return "recipe";
+    case FileKind::lexicon: return "lexicon";
+    case FileKind::unknown: return "unknown";
+  }
+  return "unknown";
+}
+
+FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon) {
+  const std::string text = read_text_file(path);
+  const std::string file = path.string();
+  Diagnostics diagnostics(file);
+  const json document = parse_or_throw(text, diagnostics);
+  const FileKind kind = detect_file_kind(document);
+  switch (kind) {
+    case FileKind::catalog: parse_catalog(text, file, lexicon); break;
+    case FileKind::stock: parse_stock(text, file); break;
+    case FileKind::recipe: parse_recipe(text, file); break;
+    case FileKind::lexicon: parse_lexicon(text, file); break;
+    case FileKind::unknown:
+      throw InputError(file + ": /: not a bine file (expected a catalog with \"varieties\", a stock file with "
+                              "\"lots\", a recipe with \"hops\" or a lexicon with \"axes\")");
+  }
+  return kind;
+}
+
+json recipe_to_json(const Recipe& recipe) {
+  json out;
+  if (!recipe.name.empty()) out["name"] = recipe.name;
+  out["batch_volume"] = fmt::format("{:.6g} L", recipe.batch_volume_l);
+  out["original_gravity"] = fmt::format("{:.4f}", recipe.original_gravity);
+  out["boil_time"] = fmt::format("{:.6g} min", recipe.boil_minutes);
+  if (recipe.target_ibu) out["target_ibu"] = *recipe.target_ibu;
+  json hops = json::array();
+  for (const auto& hop : recipe.hops) {
+    json h;
+    if (!hop.variety.empty()) h["variety"] = hop.variety;
+    if (!hop.lot.empty()) h["lot"] = hop.lot;
+    h["amount"] = fmt::format("{:.1f} g", hop.grams);
+    if (hop.alpha_acid) h["alpha_acid"] = std::round(*hop.alpha_acid * 100.0) / 100.0;
+    h["use"] = std::string(to_string(hop.use));
+    if (hop.minutes) h["time"] = fmt::format("{:.6g} min", *hop.minutes);
+    if (hop.temperature_c) h["temperature"] = fmt::format("{:.6g} C", *hop.temperature_c);
+    if (hop.form) h["form"] = std::string(to_string(*hop.form));
+    hops.push_back(std::move(h));
+  }
+  out["hops"] = std::move(hops);
+  return out;
+}
+
+}  // namespace bine

@@ -1,0 +1,41 @@
+#pragma once
+// Loaders for our file types. Each reads from a string (the file name is only for messages),
+// collects every problem, and throws one InputError listing them all; otherwise returns the model.
+#include <filesystem>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
+#include "model/hops.hpp"
+#include "model/lexicon.hpp"
+
+namespace bine {
+
+Lexicon parse_lexicon(std::string_view text, const std::string& file);
+/// Aroma axes in the catalog are checked against the lexicon.
+Catalog parse_catalog(std::string_view text, const std::string& file, const Lexicon& lexicon);
+Stock parse_stock(std::string_view text, const std::string& file);
+Recipe parse_recipe(std::string_view text, const std::string& file);
+
+Lexicon load_lexicon(const std::filesystem::path& path);
+Catalog load_catalog(const std::filesystem::path& path, const Lexicon& lexicon);
+Stock load_stock(const std::filesystem::path& path);
+Recipe load_recipe(const std::filesystem::path& path);
+
+/// Merges catalogs in order; a variety name (folded) in two catalogs is an error naming both files.
+Catalog merge_catalogs(const std::vector<Catalog>& catalogs);
+
+/// Which of our file types a JSON document is, by its top-level keys.
+enum class FileKind { catalog, stock, recipe, lexicon, unknown };
+FileKind detect_file_kind(const nlohmann::json& document);
+std::string_view to_string(FileKind kind);
+
+/// Validates any of our file types; returns the kind. Throws InputError with every problem.
+FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon);
+
+/// A recipe as JSON in our format, canonical units (for --write).
+nlohmann::json recipe_to_json(const Recipe& recipe);
+
+}  // namespace bine

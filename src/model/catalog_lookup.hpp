@@ -1,0 +1,19 @@
+#pragma once
+// Finding varieties and lots by the names brewers type.
+#include <string_view>
+#include <vector>
+
+#include "model/hops.hpp"
+
+namespace bine {
+
+/// The variety with this name (case- and accent-insensitive), or nullptr.
+const Variety* find_variety(const Catalog& catalog, std::string_view name);
+/// As find_variety, but throws InputError "`where`: unknown variety "X" (did you mean ...?)".
+const Variety& require_variety(const Catalog& catalog, std::string_view name, std::string_view where);
+std::vector<std::string> variety_names(const Catalog& catalog);
+
+/// The lot with this code (folded comparison), or nullptr.
+const Lot* find_lot(const Stock& stock, std::string_view code);
+
+}  // namespace bine

@@ -1,0 +1,115 @@
+#pragma once
+// The data model: varieties (catalog), lots (the brewer's cold store) and recipes. Plain values in
+// canonical units (g, L, C, minutes, %, mL/100 g, specific gravity); loaders in src/io fill them.
+#include <chrono>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace bine {
+
+/// A [min, max] range as variety data give them (alpha 10-12 %).
+struct Range {
+  double min = 0.0;
+  double max = 0.0;
+  double mid() const { return 0.5 * (min + max); }
+};
+
+enum class Purpose { aroma, bittering, dual };
+enum class HopForm { pellet, whole, powder };
+enum class Package { vacuum, sealed, open };
+enum class HopUse { first_wort, boil, whirlpool, dry_hop };
+
+/// Oil compounds the catalog format carries, in % of total oil.
+inline const std::vector<std::string>& oil_compounds() {
+  static const std::vector<std::string> names{"myrcene", "humulene", "caryophyllene",
+                                              "farnesene", "linalool", "geraniol"};
+  return names;
+}
+
+/// A hop variety as a catalog describes it. Every field but the name may be missing.
+struct Variety {
+  std::string name;
+  std::string origin;
+  std::optional<Purpose> purpose;
+  std::optional<Range> alpha_acid;   // % w/w
+  std::optional<Range> beta_acid;    // % w/w
+  std::optional<Range> cohumulone;   // % of alpha
+  std::optional<Range> total_oil;    // mL/100 g
+  std::map<std::string, Range> oils; // compound -> % of total oil
+  std::optional<double> stability;   // % of alpha remaining after 6 months at 20 C
+  std::optional<std::map<std::string, double>> aroma;  // axis -> 0..5; unnamed axes are 0
+  std::vector<std::string> tags;
+  std::string source_file;           // the catalog it came from, for messages
+};
+
+struct Catalog {
+  std::vector<Variety> varieties;
+  std::vector<std::string> names;    // catalog names merged in, in load order
+  bool demo = false;
+};
+
+using Date = std::chrono::sys_days;
+
+struct Storage {
+  double temperature_c = 0.0;
+  Package package = Package::sealed;
+};
+
+/// One lot in the cold store, with its certificate values.
+struct Lot {
+  std::string variety;
+  std::string lot;
+  HopForm form = HopForm::pellet;
+  std::optional<double> alpha_acid;  // % w/w on the certificate
+  std::optional<double> beta_acid;
+  std::optional<double> total_oil;   // mL/100 g
+  std::optional<Date> packaged;
+  std::optional<Storage> storage;
+  std::optional<double> on_hand_g;
+  std::optional<double> hsi;         // Hop Storage Index, measured
+};
+
+struct Stock {
+  std::string name;
+  std::vector<Lot> lots;
+  std::string source_file;
+};
+
+/// One hop addition in a recipe.
+struct HopAddition {
+  std::string variety;                 // empty when only a lot is named
+  std::string lot;                     // lot code in a stock file, optional
+  double grams = 0.0;
+  std::optional<double> alpha_acid;    // % the recipe was written for
+  HopUse use = HopUse::boil;
+  std::optional<double> minutes;       // boil minutes, stand minutes, or dry-hop contact time
+  std::optional<double> temperature_c; // whirlpool only
+  std::optional<HopForm> form;
+};
+
+struct Recipe {
+  std::string name;
+  double batch_volume_l = 0.0;         // volume at the end of the boil
+  double original_gravity = 1.0;       // SG
+  double boil_minutes = 60.0;
+  std::optional<double> target_ibu;
+  std::vector<HopAddition> hops;
+  std::string source_file;
+};
+
+std::string_view to_string(Purpose purpose);
+std::string_view to_string(HopForm form);
+std::string_view to_string(Package package);
+std::string_view to_string(HopUse use);
+std::optional<Purpose> purpose_from(std::string_view text);
+std::optional<HopForm> form_from(std::string_view text);
+std::optional<Package> package_from(std::string_view text);
+std::optional<HopUse> use_from(std::string_view text);
+
+/// Parses YYYY-MM-DD; nullopt when malformed or the day does not exist (2026-02-30).
+std::optional<Date> parse_date(std::string_view text);
+std::string format_date(Date date);
+
+}  // namespace bine

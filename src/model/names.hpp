@@ -1,0 +1,24 @@
+#pragma once
+// Matching variety names as brewers type them: case- and accent-insensitive, with "did you mean"
+// suggestions by edit distance over the known names (as ninja suggests targets).
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace bine {
+
+/// Folds case, Latin accents (UTF-8) and runs of spaces, hyphens and underscores, so
+/// "ETOILE-pale" and "Étoile Pâle" compare equal.
+std::string fold_name(std::string_view name);
+
+/// Levenshtein distance between two strings (bytes).
+std::size_t edit_distance(std::string_view a, std::string_view b);
+
+/// Up to `limit` known names closest to `wanted` (folded comparison), best first.
+std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,
+                                       std::size_t limit = 3);
+
+/// "did you mean A, B or C?" or an empty string.
+std::string did_you_mean(std::string_view wanted, const std::vector<std::string>& known);
+
+}  // namespace bine
