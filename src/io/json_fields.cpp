@@ -18,19 +18,21 @@ std::string number_text(double value) {
 
 std::string bounds_text(const Bounds& bounds, Dimension dimension) {
   const auto unit = canonical_unit(dimension);
-  const std::string spacer = (unit == "%") ? "" : " ";
+  const std::string spacer = (unit == "%" || unit.empty()) ? "" : " ";
   if (bounds.min_exclusive && bounds.max >= 1e300)
     return fmt::format("more than {}{}{}", number_text(bounds.min), spacer, unit);
   if (bounds.max >= 1e300) return fmt::format("at least {}{}{}", number_text(bounds.min), spacer, unit);
   if (bounds.min_exclusive)
     return fmt::format("more than {} and at most {}{}{}", number_text(bounds.min), number_text(bounds.max),
                        spacer, unit);
-  return fmt::format("{}-{}{}{}", number_text(bounds.min), number_text(bounds.max), spacer, unit);
+  // "-40 to 40 C" reads better than "-40-40 C".
+  const char* dash = bounds.min < 0.0 ? " to " : "-";
+  return fmt::format("{}{}{}{}{}", number_text(bounds.min), dash, number_text(bounds.max), spacer, unit);
 }
 
 std::string value_with_unit(double value, Dimension dimension) {
   const auto unit = canonical_unit(dimension);
-  return number_text(value) + (unit == "%" ? "" : " ") + std::string(unit);
+  return number_text(value) + (unit == "%" || unit.empty() ? "" : " ") + std::string(unit);
 }
 
 std::string type_name(const nlohmann::json& value) {
@@ -64,6 +66,9 @@ std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics
       return std::nullopt;
     }
     return value;
+  } catch (const nlohmann::json::out_of_range&) {
+    diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");
+    return std::nullopt;
   } catch (const nlohmann::json::parse_error& error) {
     // Translate the byte offset into line and column; drop the library's own wording.
     const std::size_t offset = std::min<std::size_t>(error.byte == 0 ? 0 : error.byte - 1, text.size());
@@ -79,7 +84,11 @@ std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics
     }
     std::string why = "check for a missing comma, quote or bracket";
     const std::string library_text = error.what();
+    const std::string_view rest = text.substr(offset);
+    const auto starts = [&](std::string_view word) { return rest.substr(0, word.size()) == word; };
     if (library_text.find("UTF-8") != std::string::npos) why = "the text is not valid UTF-8";
+    else if (starts("NaN") || starts("nan") || starts("Infinity") || starts("-Infinity") || starts("inf"))
+      why = "NaN and Infinity are not numbers in JSON; give a finite number";
     else if (offset >= text.size()) why = "the file ends too early";
     if (text.empty() || text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
       diagnostics.add_file("the file is empty (expected a JSON document)");
@@ -116,7 +125,8 @@ FieldReader::FieldReader(const nlohmann::json& value, std::string pointer, Diagn
 }
 
 bool FieldReader::has(std::string_view key) const {
-  return object_ != nullptr && object_->contains(key) && !(*object_)[std::string(key)].is_null();
+  const nlohmann::json* value = raw(key);
+  return value != nullptr && !value->is_null();
 }
 
 const nlohmann::json* FieldReader::raw(std::string_view key) const {

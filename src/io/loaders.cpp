@@ -92,7 +92,7 @@ Lexicon lexicon_from(const json& document, Diagnostics& diagnostics) {
             diagnostics.add(weights_reader.at(axis), fmt::format("\"{}\" is not an axis of this lexicon", axis));
             continue;
           }
-          if (auto w = read_quantity(weight, Dimension::percent, Bounds{0.0, 1.0, "a compound weight"},
+          if (auto w = read_quantity(weight, Dimension::number, Bounds{0.0, 1.0, "a compound weight"},
                                      weights_reader.at(axis), diagnostics))
             compound.axes[axis] = *w;
         }
@@ -160,7 +160,7 @@ Variety variety_from(const json& element, const std::string& pointer, const Lexi
                                       hint.empty() ? "see the axes in lexicon.json" : hint));
           continue;
         }
-        if (auto v = read_quantity(value, Dimension::percent, limits::aroma_intensity, aroma_reader.at(axis),
+        if (auto v = read_quantity(value, Dimension::number, limits::aroma_intensity, aroma_reader.at(axis),
                                    diagnostics))
           intensities[lexicon.axes()[*index].name] = *v;
       }
@@ -240,7 +240,7 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
     lot.total_oil = reader.quantity("total_oil", Dimension::oil_content, limits::total_oil, false);
     lot.packaged = reader.date("packaged", false);
     lot.on_hand_g = reader.quantity("on_hand", Dimension::mass, limits::stock_mass, false);
-    lot.hsi = reader.quantity("hsi", Dimension::percent, limits::hsi, false);
+    lot.hsi = reader.quantity("hsi", Dimension::number, limits::hsi, false);
     if (const json* storage = reader.raw("storage"); storage != nullptr && !storage->is_null()) {
       FieldReader storage_reader(*storage, reader.at("storage"), diagnostics);
       storage_reader.allow_only({"temperature", "package"});
@@ -258,14 +258,21 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
 
 Recipe recipe_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
   FieldReader top(document, "", diagnostics);
-  top.allow_only({"name", "batch_volume", "original_gravity", "boil_time", "target_ibu", "hops", "notes"});
+  top.allow_only({"name", "batch_volume", "original_gravity", "boil_time", "target_ibu", "hop_stand", "hops", "notes"});
   Recipe recipe;
   recipe.source_file = file;
   recipe.name = top.text("name", false).value_or("");
   recipe.batch_volume_l = top.quantity("batch_volume", Dimension::volume, limits::batch_volume, true).value_or(0.0);
   recipe.original_gravity = top.quantity("original_gravity", Dimension::gravity, limits::gravity, true).value_or(1.0);
   recipe.boil_minutes = top.quantity("boil_time", Dimension::time, limits::boil_time, true).value_or(0.0);
-  recipe.target_ibu = top.quantity("target_ibu", Dimension::percent, limits::target_ibu, false);
+  recipe.target_ibu = top.quantity("target_ibu", Dimension::number, limits::target_ibu, false);
+  if (const json* stand = top.raw("hop_stand"); stand != nullptr && !stand->is_null()) {
+    FieldReader stand_reader(*stand, top.at("hop_stand"), diagnostics);
+    stand_reader.allow_only({"time", "temperature"});
+    auto minutes = stand_reader.quantity("time", Dimension::time, limits::boil_time, true);
+    auto temperature = stand_reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, true);
+    if (minutes && temperature) recipe.hop_stand = HopStand{*minutes, *temperature};
+  }
   for_each_in_array(top, "hops", true, [&](const json& element, const std::string& pointer) {
     FieldReader reader(element, pointer, diagnostics);
     reader.allow_only({"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "form", "notes"});
@@ -398,12 +405,15 @@ json recipe_to_json(const Recipe& recipe) {
   out["original_gravity"] = fmt::format("{:.4f}", recipe.original_gravity);
   out["boil_time"] = fmt::format("{:.6g} min", recipe.boil_minutes);
   if (recipe.target_ibu) out["target_ibu"] = *recipe.target_ibu;
+  if (recipe.hop_stand)
+    out["hop_stand"] = {{"time", fmt::format("{:.6g} min", recipe.hop_stand->minutes)},
+                        {"temperature", fmt::format("{:.6g} C", recipe.hop_stand->temperature_c)}};
   json hops = json::array();
   for (const auto& hop : recipe.hops) {
     json h;
     if (!hop.variety.empty()) h["variety"] = hop.variety;
     if (!hop.lot.empty()) h["lot"] = hop.lot;
-    h["amount"] = fmt::format("{:.1f} g", hop.grams);
+    h["amount"] = fmt::format("{:.2f} g", hop.grams);
     if (hop.alpha_acid) h["alpha_acid"] = std::round(*hop.alpha_acid * 100.0) / 100.0;
     h["use"] = std::string(to_string(hop.use));
     if (hop.minutes) h["time"] = fmt::format("{:.6g} min", *hop.minutes);

@@ -63,6 +63,7 @@ std::string_view canonical_unit(Dimension dimension) {
     case Dimension::percent: return "%";
     case Dimension::oil_content: return "mL/100 g";
     case Dimension::gravity: return "SG";
+    case Dimension::number: return "";
   }
   return "";
 }
@@ -76,6 +77,7 @@ std::string_view accepted_units(Dimension dimension) {
     case Dimension::percent: return "use a number in %";
     case Dimension::oil_content: return "use a number in mL/100 g";
     case Dimension::gravity: return "use a specific gravity such as 1.050 or degrees Plato such as 12.4 P";
+    case Dimension::number: return "use a plain number";
   }
   return "";
 }
@@ -89,6 +91,7 @@ std::string_view dimension_noun(Dimension dimension) {
     case Dimension::percent: return "a percentage";
     case Dimension::oil_content: return "an oil content";
     case Dimension::gravity: return "a gravity";
+    case Dimension::number: return "a number";
   }
   return "";
 }
@@ -138,15 +141,22 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
     return fail(fmt::format("{} is not {} ({})", quoted, dimension_noun(dimension), accepted_units(dimension)));
   };
   std::optional<double> factor;
+  // A number near the double limit can overflow in the conversion ("1e308 F", "1.7e308 kg").
+  const auto checked = [&](double canonical) -> ParsedQuantity {
+    if (!std::isfinite(canonical))
+      return fail(fmt::format("{} is out of range ({})", quoted, accepted_units(dimension)));
+    return {canonical, {}};
+  };
   switch (dimension) {
     case Dimension::mass: factor = unit.empty() ? 1.0 : factor_for(kMassUnits, unit); break;
     case Dimension::volume: factor = unit.empty() ? 1.0 : factor_for(kVolumeUnits, unit); break;
     case Dimension::time: factor = unit.empty() ? 1.0 : factor_for(kTimeUnits, unit); break;
     case Dimension::percent: factor = unit.empty() ? 1.0 : factor_for(kPercentUnits, unit); break;
     case Dimension::oil_content: factor = unit.empty() ? 1.0 : factor_for(kOilUnits, unit); break;
+    case Dimension::number: factor = unit.empty() ? std::optional<double>(1.0) : std::nullopt; break;
     case Dimension::temperature:
       if (unit.empty() || unit == "c") return {number, {}};
-      if (unit == "f") return {fahrenheit_to_celsius(number), {}};
+      if (unit == "f") return checked(fahrenheit_to_celsius(number));
       return not_unit();
     case Dimension::gravity:
       if (unit.empty() || unit == "sg") return {number, {}};
@@ -158,7 +168,7 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
       return not_unit();
   }
   if (!factor) return not_unit();
-  return {number * *factor, {}};
+  return checked(number * *factor);
 }
 
 namespace {

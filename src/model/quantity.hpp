@@ -11,7 +11,8 @@
 
 namespace bine {
 
-enum class Dimension { mass, volume, temperature, time, percent, oil_content, gravity };
+/// `number` is a plain number without a unit (aroma intensity 0-5, HSI, IBU).
+enum class Dimension { mass, volume, temperature, time, percent, oil_content, gravity, number };
 
 /// The canonical unit's symbol, for messages and output ("g", "L", "C", "min", "%", "mL/100 g", "SG").
 std::string_view canonical_unit(Dimension dimension);
