@@ -3,6 +3,7 @@
 // sources (METHODS.md "Bitterness" and "Hop stand / whirlpool").
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "model/hops.hpp"
@@ -11,6 +12,8 @@ namespace bine {
 
 enum class IbuModel { tinseth, rager };
 std::string_view to_string(IbuModel model);
+/// "tinseth" or "rager"; nullopt otherwise.
+std::optional<IbuModel> ibu_model_from(std::string_view text);
 
 struct BitternessSettings {
   IbuModel model = IbuModel::tinseth;
@@ -19,11 +22,13 @@ struct BitternessSettings {
 };
 
 /// The wort the hops go into: volume at the end of the boil, boil gravity (the recipe's OG is used),
-/// boil length.
+/// boil length, and the boil-equivalent minutes of a hot stand after flame-out (recipe "hop_stand")
+/// that boil and first-wort additions sit through.
 struct WortContext {
   double volume_l = 0.0;
   double gravity = 1.0;
   double boil_minutes = 60.0;
+  double stand_equivalent_minutes = 0.0;
 };
 WortContext wort_of(const Recipe& recipe);
 
@@ -33,8 +38,36 @@ struct AdditionBitterness {
   double ibu = 0.0;
 };
 
-/// IBU of one addition of `grams` at `alpha_percent` (the alpha actually in the kettle).
+/// IBU of one addition of `hop.grams` at `alpha_percent` (the alpha actually in the kettle).
+/// Linear in grams x alpha at fixed wort and time. A hop without a form counts as pellet.
 AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_percent, const WortContext& wort,
                                        const BitternessSettings& settings);
+
+// --- The pieces, exposed for tests and for other engines -------------------------------------
+
+/// Alpha acid dissolved, mg/L: AA (fraction) x W (g) x 1000 / V (L).
+double alpha_mg_per_litre(double grams, double alpha_percent, double volume_l);
+/// Tinseth's gravity ("bigness") factor B(G) = 1.65 x 0.000125^(G - 1).
+double tinseth_gravity_factor(double gravity);
+/// Tinseth's time factor F(t) = (1 - e^(-0.04 t)) / 4.15.
+double tinseth_time_factor(double minutes);
+/// Tinseth utilization U = B(G) x F(t), a fraction.
+double tinseth_utilization(double gravity, double minutes);
+/// Rager utilization from the tanh fit of his table, a fraction.
+double rager_utilization(double minutes);
+/// Rager's gravity adjustment GA = (G - 1.050) / 0.2 above 1.050, else 0.
+double rager_gravity_adjustment(double gravity);
+/// Isomerisation rate constant k1 (alpha -> iso-alpha), per minute, at a temperature in C
+/// (Malowicki & Shellhammer 2005).
+double isomerization_rate(double celsius);
+/// k1(T) / k1(100 C): how fast isomerisation runs at T relative to a boil.
+double relative_isomerization_rate(double celsius);
+/// Boil-equivalent minutes of `minutes` held at `celsius`.
+double boil_equivalent_minutes(double minutes, double celsius);
+
+/// BU:GU = IBU / ((OG - 1) x 1000); 0 when OG is 1.000.
+double bu_gu_ratio(double ibu, double original_gravity);
+/// The common-practice reading of a BU:GU ratio, in words ("balanced", "very bitter" ...).
+std::string bu_gu_reading(double ratio);
 
 }  // namespace bine

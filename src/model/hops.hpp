@@ -89,12 +89,20 @@ struct HopAddition {
   std::optional<HopForm> form;
 };
 
+/// Wort held hot after flame-out before chilling (recipe key "hop_stand"). Boil and first-wort
+/// additions keep isomerising during it; see engine/bitterness.hpp.
+struct HopStand {
+  double minutes = 0.0;
+  double temperature_c = 100.0;
+};
+
 struct Recipe {
   std::string name;
   double batch_volume_l = 0.0;         // volume at the end of the boil
   double original_gravity = 1.0;       // SG
   double boil_minutes = 60.0;
   std::optional<double> target_ibu;
+  std::optional<HopStand> hop_stand;   // hot stand after flame-out, before chilling
   std::vector<HopAddition> hops;
   std::string source_file;
 };

@@ -1,0 +1,155 @@
+// Bitterness: how many IBU one hop addition puts into the wort.
+//
+// Method. Every model here has the same shape: IBU = U x (mg/L of alpha acid added), where
+// mg/L = AA x W x 1000 / V with V the volume at the end of the boil. Only the utilization U differs:
+//   * Tinseth (default) [Tinseth G., "Glenn's Hop Utilization Numbers", ca. 1997]:
+//       U = B(G) x F(t), B(G) = 1.65 x 0.000125^(G - 1), F(t) = (1 - e^(-0.04 t)) / 4.15.
+//   * Rager [Rager J., "Calculating Hop Bitterness in Beer", Zymurgy 13(4), 1990]: U from his
+//     table, here through the smooth fit U% = 18.11 + 13.86 tanh((t - 31.32) / 18.27) (from memory,
+//     Hall M.L., Zymurgy 1997), and IBU divided by (1 + GA), GA = (G - 1.050) / 0.2 above 1.050.
+// Both models then take the pellet factor (x 1.10 for pellets and powder, common practice; a
+// setting) and a brewhouse calibration factor (a setting, 1.0 by default). Because U does not depend
+// on the amount, IBU is exactly linear in grams x alpha: the rebalance and blend engines rely on it.
+//
+// Below boiling. Isomerisation slows as the wort cools. Malowicki & Shellhammer (2005, J. Agric.
+// Food Chem. 53:4434) measured the rate constant k1 = 7.9e11 exp(-11858 / T) per minute (T in K).
+// A stand of t minutes at T counts as t x k1(T) / k1(100 C) boil minutes ("boil-equivalent"), and
+// U = B(G) x (1 - e^(-0.04 (t_boil + t_eq))) / 4.15 (derived method, METHODS.md). Whirlpool
+// additions have t_boil = 0; boil and first-wort additions add the recipe's hop_stand, if any.
+//
+// Simplifications (say them to the brewer): the boil gravity is the recipe's original gravity; the
+// boil is at 100 C (no altitude correction); a stand is held at one temperature (real kettles cool,
+// which the single temperature does not model: measured whirlpool utilization in a production
+// brewery averaged about 30 % of alpha [Justus 2018, MBAA TQ 55(3)], so large kettles can get more
+// than this estimate); first-wort hops count the full boil (common practice); dry hops add 0 IBU.
+// With Rager, a whirlpool addition takes the tanh fit at its boil-equivalent minutes; the fit is
+// 5 % at 0 min, as Rager's table is, so short stands are generous under Rager.
+#include "engine/bitterness.hpp"
+
+#include <cmath>
+
+namespace bine {
+namespace {
+
+constexpr double kKelvinOffset = 273.15;
+constexpr double kBoilCelsius = 100.0;
+
+double form_factor(const HopAddition& hop, const BitternessSettings& settings) {
+  // A hop without a form is taken as pellet (the common case); callers note it.
+  const HopForm form = hop.form.value_or(HopForm::pellet);
+  return form == HopForm::whole ? 1.0 : settings.pellet_factor;
+}
+
+// Minutes the addition isomerises for, in boil minutes.
+double effective_minutes(const HopAddition& hop, const WortContext& wort) {
+  switch (hop.use) {
+    case HopUse::first_wort:  // in the kettle for the whole boil (common practice)
+      return wort.boil_minutes + wort.stand_equivalent_minutes;
+    case HopUse::boil:
+      return hop.minutes.value_or(0.0) + wort.stand_equivalent_minutes;
+    case HopUse::whirlpool:
+      if (!hop.minutes || !hop.temperature_c) return 0.0;
+      return boil_equivalent_minutes(*hop.minutes, *hop.temperature_c);
+    case HopUse::dry_hop:
+      return 0.0;
+  }
+  return 0.0;
+}
+
+}  // namespace
+
+std::string_view to_string(IbuModel model) {
+  return model == IbuModel::rager ? "rager" : "tinseth";
+}
+
+std::optional<IbuModel> ibu_model_from(std::string_view text) {
+  if (text == "tinseth") return IbuModel::tinseth;
+  if (text == "rager") return IbuModel::rager;
+  return std::nullopt;
+}
+
+WortContext wort_of(const Recipe& recipe) {
+  WortContext wort;
+  wort.volume_l = recipe.batch_volume_l;
+  wort.gravity = recipe.original_gravity;  // simplification: boil gravity = OG
+  wort.boil_minutes = recipe.boil_minutes;
+  if (recipe.hop_stand)
+    wort.stand_equivalent_minutes = boil_equivalent_minutes(recipe.hop_stand->minutes, recipe.hop_stand->temperature_c);
+  return wort;
+}
+
+double alpha_mg_per_litre(double grams, double alpha_percent, double volume_l) {
+  if (volume_l <= 0.0) return 0.0;
+  return (alpha_percent / 100.0) * grams * 1000.0 / volume_l;
+}
+
+// Tinseth (ca. 1997): B(G) = 1.65 x 0.000125^(G - 1).
+double tinseth_gravity_factor(double gravity) { return 1.65 * std::pow(0.000125, gravity - 1.0); }
+
+// Tinseth (ca. 1997): F(t) = (1 - e^(-0.04 t)) / 4.15.
+double tinseth_time_factor(double minutes) { return (1.0 - std::exp(-0.04 * std::max(minutes, 0.0))) / 4.15; }
+
+double tinseth_utilization(double gravity, double minutes) {
+  return tinseth_gravity_factor(gravity) * tinseth_time_factor(minutes);
+}
+
+// Rager (1990) table as the tanh fit U% = 18.11 + 13.86 tanh((t - 31.32) / 18.27) (from memory).
+double rager_utilization(double minutes) {
+  return (18.11 + 13.86 * std::tanh((std::max(minutes, 0.0) - 31.32) / 18.27)) / 100.0;
+}
+
+// Rager (1990): GA = (Gboil - 1.050) / 0.2 when Gboil > 1.050, else 0.
+double rager_gravity_adjustment(double gravity) { return gravity > 1.050 ? (gravity - 1.050) / 0.2 : 0.0; }
+
+// Malowicki & Shellhammer (2005): k1 = 7.9e11 x exp(-11858 / T) per minute, T in kelvin.
+double isomerization_rate(double celsius) { return 7.9e11 * std::exp(-11858.0 / (celsius + kKelvinOffset)); }
+
+double relative_isomerization_rate(double celsius) {
+  // The pre-exponential factor cancels: exp(-11858 (1/T - 1/T_boil)).
+  const double t = celsius + kKelvinOffset;
+  const double t_boil = kBoilCelsius + kKelvinOffset;
+  return std::exp(-11858.0 * (1.0 / t - 1.0 / t_boil));
+}
+
+double boil_equivalent_minutes(double minutes, double celsius) {
+  return std::max(minutes, 0.0) * relative_isomerization_rate(celsius);
+}
+
+AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_percent, const WortContext& wort,
+                                       const BitternessSettings& settings) {
+  AdditionBitterness result;
+  if (hop.use == HopUse::dry_hop) return result;  // dry hops add no IBU (below isomerisation)
+  result.effective_minutes = effective_minutes(hop, wort);
+  const double factors = form_factor(hop, settings) * settings.calibration;
+  const double mg_per_litre = alpha_mg_per_litre(hop.grams, alpha_percent, wort.volume_l);
+  switch (settings.model) {
+    case IbuModel::tinseth:
+      result.utilization = tinseth_utilization(wort.gravity, result.effective_minutes) * factors;
+      result.ibu = result.utilization * mg_per_litre;
+      break;
+    case IbuModel::rager:
+      // Rager: IBU = W x U x AA x 1000 / (V x (1 + GA)).
+      result.utilization = rager_utilization(result.effective_minutes) * factors;
+      result.ibu = result.utilization * mg_per_litre / (1.0 + rager_gravity_adjustment(wort.gravity));
+      break;
+  }
+  return result;
+}
+
+double bu_gu_ratio(double ibu, double original_gravity) {
+  const double gravity_units = (original_gravity - 1.0) * 1000.0;
+  return gravity_units > 0.0 ? ibu / gravity_units : 0.0;
+}
+
+// Reading (common practice): < 0.3 sweet, 0.5-0.6 balanced, 0.8-1.0 very bitter; the gaps between
+// those bands are named as gaps rather than given words of our own.
+std::string bu_gu_reading(double ratio) {
+  if (ratio < 0.3) return "sweet (malt-forward)";
+  if (ratio < 0.5) return "between sweet and balanced";
+  if (ratio <= 0.6) return "balanced";
+  if (ratio < 0.8) return "between balanced and very bitter";
+  if (ratio <= 1.0) return "very bitter";
+  return "beyond very bitter (above 1.0)";
+}
+
+}  // namespace bine

@@ -1,0 +1,263 @@
+// Rebalancing a recipe to new lots.
+//
+// Rules (DESIGN.md "rebalance"):
+//  * Boil and first-wort additions scale by the bitterness one gram delivers, so each holds its own
+//    IBU: grams_after = grams_before x (IBU per gram before) / (IBU per gram after). With the same
+//    form that is the alpha ratio, e.g. 30 g at 7.0 % -> 22.1 g at 9.5 % (METHODS.md check value);
+//    a change of form (whole <-> pellet) is included through the pellet factor.
+//  * Whirlpool and dry-hop additions hold the oil they deliver when both the oil the recipe was
+//    written for (the catalog midpoint of the variety's total oil) and the new lot's oil are known:
+//    grams_after = grams_before x oil_before / oil_after (dosing by oil, METHODS.md "Dry hopping").
+//    Otherwise they hold their grams.
+//  * Whirlpool additions change IBU when their alpha or grams change. The largest boil (or
+//    first-wort) addition absorbs that change so the total holds; IBU is linear in grams
+//    (bitterness.cpp), so one scaling is exact. Without a boil addition the whirlpool additions are
+//    scaled together to hold the total, and their aroma contribution changes with them.
+#include "engine/rebalance.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+
+#include "engine/storage_loss.hpp"
+#include "model/catalog_lookup.hpp"
+#include "model/errors.hpp"
+#include "model/names.hpp"
+
+namespace bine {
+namespace {
+
+const ReplacementLot* lot_for(const std::vector<ReplacementLot>& lots, const std::string& variety) {
+  if (variety.empty()) return nullptr;
+  const std::string wanted = fold_name(variety);
+  for (const auto& lot : lots)
+    if (fold_name(lot.variety) == wanted) return &lot;
+  return nullptr;
+}
+
+double ibu_per_gram(HopAddition hop, double alpha, const WortContext& wort, const BitternessSettings& settings) {
+  hop.grams = 1.0;
+  return addition_bitterness(hop, alpha, wort, settings).ibu;
+}
+
+// The addition (index into recipe.hops) that absorbs the IBU change: the boil or first-wort
+// addition with most IBU.
+std::optional<std::size_t> choose_absorber(const RecipeBitterness& bitterness) {
+  std::optional<std::size_t> best;
+  double best_ibu = 0.0;
+  for (const auto& line : bitterness.additions) {
+    if (line.use != HopUse::boil && line.use != HopUse::first_wort) continue;
+    if (line.bitterness.ibu > best_ibu) {
+      best_ibu = line.bitterness.ibu;
+      best = line.index;
+    }
+  }
+  return best;
+}
+
+}  // namespace
+
+std::string_view to_string(RebalanceRule rule) {
+  switch (rule) {
+    case RebalanceRule::unchanged: return "unchanged";
+    case RebalanceRule::holds_ibu: return "holds its IBU";
+    case RebalanceRule::holds_oil: return "holds its oil";
+    case RebalanceRule::holds_grams: return "holds its grams";
+    case RebalanceRule::absorbs_ibu: return "absorbs the IBU change";
+    case RebalanceRule::scaled_for_total: return "scaled to hold total IBU";
+  }
+  return "";
+}
+
+bool recipe_uses_variety(const Recipe& recipe, std::string_view variety) {
+  const std::string wanted = fold_name(variety);
+  return std::any_of(recipe.hops.begin(), recipe.hops.end(),
+                     [&](const HopAddition& hop) { return !hop.variety.empty() && fold_name(hop.variety) == wanted; });
+}
+
+RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
+                          const BitternessSettings& settings) {
+  RebalanceResult result;
+  result.before = recipe_bitterness(recipe, catalog, settings);
+  const WortContext wort = result.before.wort;
+  Recipe after = recipe;
+  std::vector<RebalanceRule> rules(recipe.hops.size(), RebalanceRule::unchanged);
+  std::vector<std::optional<double>> oil_before(recipe.hops.size());
+  std::vector<std::optional<double>> oil_after(recipe.hops.size());
+
+  // 1. Each addition on its own: boil side holds IBU, late hops hold oil (else grams).
+  for (const auto& line : result.before.additions) {
+    const HopAddition& hop = recipe.hops[line.index];
+    HopAddition& next = after.hops[line.index];
+    const ReplacementLot* lot = lot_for(lots, hop.variety);
+    if (lot == nullptr) continue;
+    next.alpha_acid = lot->alpha_percent;
+    if (lot->form) next.form = lot->form;
+    if (!lot->lot_code.empty()) next.lot = lot->lot_code;
+    const Variety* variety = find_variety(catalog, hop.variety);
+    if (variety != nullptr && variety->total_oil) oil_before[line.index] = variety->total_oil->mid();
+    oil_after[line.index] = lot->total_oil;
+    if (hop.use == HopUse::boil || hop.use == HopUse::first_wort) {
+      const double per_gram = ibu_per_gram(next, lot->alpha_percent, wort, settings);
+      if (per_gram > 0.0 && line.bitterness.ibu > 0.0) next.grams = line.bitterness.ibu / per_gram;
+      rules[line.index] = RebalanceRule::holds_ibu;
+    } else if (oil_before[line.index] && oil_after[line.index]) {
+      next.grams = hop.grams * *oil_before[line.index] / *oil_after[line.index];
+      rules[line.index] = RebalanceRule::holds_oil;
+    } else {
+      rules[line.index] = RebalanceRule::holds_grams;
+    }
+  }
+
+  // 2. Hold the total: the largest boil addition absorbs the change, else scale the whirlpool.
+  RecipeBitterness provisional = recipe_bitterness(after, catalog, settings);
+  const double change = result.before.total_ibu - provisional.total_ibu;
+  if (std::abs(change) > 1e-9 * std::max(1.0, result.before.total_ibu)) {
+    if (const auto absorber = choose_absorber(provisional)) {
+      const auto& line = *std::find_if(provisional.additions.begin(), provisional.additions.end(),
+                                       [&](const AdditionLine& l) { return l.index == *absorber; });
+      const double wanted = line.bitterness.ibu + change;
+      if (wanted <= 0.0)
+        throw Infeasible(fmt::format(
+            "the late additions alone now give {:.1f} IBU, more than the recipe's {:.1f} IBU, so no boil addition can "
+            "hold the total (lower the whirlpool amounts or accept {:.1f} IBU)",
+            provisional.total_ibu - line.bitterness.ibu, result.before.total_ibu,
+            provisional.total_ibu - line.bitterness.ibu));
+      after.hops[*absorber].grams *= wanted / line.bitterness.ibu;
+      rules[*absorber] = RebalanceRule::absorbs_ibu;
+      result.ibu_change_absorbed = change;
+      result.absorber = *absorber;
+    } else {
+      double whirlpool_ibu = 0.0;
+      for (const auto& l : provisional.additions)
+        if (l.use == HopUse::whirlpool) whirlpool_ibu += l.bitterness.ibu;
+      if (whirlpool_ibu > 0.0) {
+        const double factor = (whirlpool_ibu + change) / whirlpool_ibu;
+        for (const auto& l : provisional.additions)
+          if (l.use == HopUse::whirlpool) {
+            after.hops[l.index].grams *= factor;
+            rules[l.index] = RebalanceRule::scaled_for_total;
+          }
+        result.whirlpool_scaled = true;
+        result.ibu_change_absorbed = change;
+        result.notes.push_back(fmt::format(
+            "no boil addition: the whirlpool additions were scaled by {:.3f} to hold the total IBU, so the aroma "
+            "they give changes too",
+            factor));
+      }
+    }
+  }
+
+  // 3. The result, recomputed from the final recipe so every figure comes from the model.
+  result.after = recipe_bitterness(after, catalog, settings);
+  for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
+    const AdditionLine& b = result.before.additions[k];
+    const AdditionLine& a = result.after.additions[k];
+    RebalancedAddition row;
+    row.index = b.index;
+    row.variety = b.variety;
+    row.use = b.use;
+    row.grams_before = b.grams;
+    row.grams_after = a.grams;
+    row.alpha_before = b.alpha_percent;
+    row.alpha_after = a.alpha_percent;
+    row.ibu_before = b.bitterness.ibu;
+    row.ibu_after = a.bitterness.ibu;
+    row.oil_before = oil_before[b.index];
+    row.oil_after = oil_after[b.index];
+    row.rule = rules[b.index];
+    result.additions.push_back(row);
+  }
+  result.recipe_after = std::move(after);
+
+  // 4. Stock shortfalls: everything drawn from one lot against what it has on hand.
+  std::map<std::string, double> needed;
+  for (const auto& row : result.additions)
+    if (const ReplacementLot* lot = lot_for(lots, recipe.hops[row.index].variety); lot != nullptr && lot->on_hand_g)
+      needed[fold_name(lot->variety)] += row.grams_after;
+  for (const auto& lot : lots) {
+    const auto it = needed.find(fold_name(lot.variety));
+    if (it != needed.end() && lot.on_hand_g && it->second > *lot.on_hand_g + 1e-9)
+      result.shortfalls.push_back(Shortfall{lot.variety, lot.lot_code, it->second, *lot.on_hand_g});
+  }
+  for (const auto& row : result.additions)
+    if (row.rule == RebalanceRule::holds_oil) {
+      result.notes.push_back("late additions hold the oil they deliver; the recipe is taken as written for the "
+                             "catalog midpoint of each variety's total oil");
+      break;
+    }
+  return result;
+}
+
+std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& stock, const Catalog& catalog, Date on,
+                                            std::vector<std::string>& notes) {
+  std::vector<ReplacementLot> chosen;
+  std::vector<std::string> problems;
+  std::vector<std::string> seen;
+  for (const auto& hop : recipe.hops) {
+    if (hop.variety.empty()) continue;
+    const std::string folded = fold_name(hop.variety);
+    if (std::find(seen.begin(), seen.end(), folded) != seen.end()) continue;
+    seen.push_back(folded);
+
+    const Lot* best = nullptr;
+    std::size_t best_index = 0;
+    std::size_t count = 0;
+    for (std::size_t i = 0; i < stock.lots.size(); ++i) {
+      const Lot& lot = stock.lots[i];
+      if (fold_name(lot.variety) != folded) continue;
+      if (lot.packaged && *lot.packaged > on)
+        problems.push_back(fmt::format("{}: /lots/{}/packaged: {} is after the brew day --on {} (give a later --on)",
+                                       stock.source_file, i, format_date(*lot.packaged), format_date(on)));
+      if (!lot.alpha_acid) continue;
+      ++count;
+      if (best == nullptr || lot.on_hand_g.value_or(0.0) > best->on_hand_g.value_or(0.0)) {
+        best = &lot;
+        best_index = i;
+      }
+    }
+    if (best == nullptr) {
+      notes.push_back(fmt::format("no lot of {} with an alpha acid in stock; its additions are kept as written",
+                                  hop.variety));
+      continue;
+    }
+    ReplacementLot lot;
+    lot.variety = hop.variety;
+    lot.lot_code = best->lot.empty() ? fmt::format("lot {}", best_index + 1) : best->lot;
+    lot.form = best->form;
+    lot.total_oil = best->total_oil;
+    lot.on_hand_g = best->on_hand_g;
+    lot.certificate_alpha = best->alpha_acid;
+    lot.packaged = best->packaged;
+    lot.storage = best->storage;
+    lot.lots_of_variety = count;
+    lot.alpha_percent = *best->alpha_acid;
+    if (best->hsi) {
+      lot.stability_percent = 100.0 - percent_lost_from_hsi(*best->hsi);
+      lot.stability_source = fmt::format("from its HSI {:.2f}", *best->hsi);
+    } else if (const Variety* variety = find_variety(catalog, hop.variety); variety != nullptr && variety->stability) {
+      lot.stability_percent = *variety->stability;
+      lot.stability_source = "catalog";
+    } else {
+      lot.stability_percent = kStabilityFair;
+      lot.stability_source = "no catalog value; fair class assumed";
+    }
+    if (best->packaged && best->storage) {
+      lot.days = std::max(0L, days_between(*best->packaged, on));
+      const AgedAlpha aged = age_alpha(StorageHistory{*best->alpha_acid, *lot.stability_percent, *best->storage,
+                                                      static_cast<double>(lot.days)});
+      lot.alpha_percent = aged.alpha_percent;
+      lot.remaining = aged.remaining;
+    } else {
+      notes.push_back(fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged",
+                                  lot.lot_code));
+    }
+    chosen.push_back(std::move(lot));
+  }
+  if (!problems.empty()) throw InputError(problems);
+  return chosen;
+}
+
+}  // namespace bine

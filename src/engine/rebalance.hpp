@@ -1,0 +1,84 @@
+#pragma once
+// Rebalancing a recipe to the lots on the shelf: new alpha (and oil) in, new grams out, with the
+// recipe's total IBU held. See rebalance.cpp for the rules.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "engine/bitterness.hpp"
+#include "engine/recipe_bitterness.hpp"
+#include "model/hops.hpp"
+
+namespace bine {
+
+/// The lot a variety will be brewed with, as it is on brew day.
+struct ReplacementLot {
+  std::string variety;                  // matched to recipe additions by folded name
+  double alpha_percent = 0.0;           // alpha on brew day (aged when from stock)
+  std::optional<double> total_oil;      // mL/100 g
+  std::optional<HopForm> form;          // the lot's form, when known
+  std::string lot_code;                 // empty for --lot
+  std::optional<double> on_hand_g;
+  // How the alpha was obtained (stock lots only).
+  std::optional<double> certificate_alpha;
+  std::optional<Date> packaged;
+  std::optional<Storage> storage;
+  long days = 0;
+  double remaining = 1.0;
+  std::optional<double> stability_percent;
+  std::string stability_source;         // "catalog", "HSI 0.31", "fair class (no catalog value)"
+  std::size_t lots_of_variety = 1;      // lots of this variety in stock; the largest is chosen
+};
+
+/// What happened to one addition.
+enum class RebalanceRule { unchanged, holds_ibu, holds_oil, holds_grams, absorbs_ibu, scaled_for_total };
+std::string_view to_string(RebalanceRule rule);
+
+struct RebalancedAddition {
+  std::size_t index = 0;
+  std::string variety;
+  HopUse use = HopUse::boil;
+  double grams_before = 0.0;
+  double grams_after = 0.0;
+  double alpha_before = 0.0;
+  double alpha_after = 0.0;
+  double ibu_before = 0.0;
+  double ibu_after = 0.0;
+  std::optional<double> oil_before;     // mL/100 g the recipe was written for (catalog midpoint)
+  std::optional<double> oil_after;
+  RebalanceRule rule = RebalanceRule::unchanged;
+};
+
+struct Shortfall {
+  std::string variety;
+  std::string lot;
+  double needed_g = 0.0;
+  double on_hand_g = 0.0;
+};
+
+struct RebalanceResult {
+  Recipe recipe_after;                  // the recipe to brew (alpha, form, lot and grams updated)
+  RecipeBitterness before;
+  RecipeBitterness after;
+  std::vector<RebalancedAddition> additions;
+  std::optional<std::size_t> absorber;  // index into additions of the addition that took the IBU change
+  double ibu_change_absorbed = 0.0;     // IBU the absorber (or the scaled whirlpool) had to make up
+  bool whirlpool_scaled = false;        // no boil addition: whirlpool additions scaled to hold total IBU
+  std::vector<Shortfall> shortfalls;
+  std::vector<std::string> notes;
+};
+
+/// True when some addition of `recipe` is of `variety` (folded comparison).
+bool recipe_uses_variety(const Recipe& recipe, std::string_view variety);
+
+/// Rebalances `recipe` to `lots`. Throws Infeasible when the late additions alone would exceed the
+/// recipe's total IBU.
+RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
+                          const BitternessSettings& settings);
+
+/// For each variety the recipe uses, the stock lot with most on hand, its alpha aged to `on`.
+/// Throws InputError (`STOCK: /lots/N/packaged: ... after --on ...`) for a lot packaged after `on`.
+std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& stock, const Catalog& catalog, Date on,
+                                            std::vector<std::string>& notes);
+
+}  // namespace bine

@@ -1,0 +1,159 @@
+#include "report/bitterness_report.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "report/table.hpp"
+
+namespace bine {
+
+double rounded(double value, int decimals) {
+  const double scale = std::pow(10.0, decimals);
+  const double r = std::round(value * scale) / scale;
+  return r == 0.0 ? 0.0 : r;  // no "-0.0" in JSON
+}
+
+std::string format_minutes(double minutes) {
+  if (minutes >= 1440.0) return fmt::format("{:g} d", rounded(minutes / 1440.0, 2));
+  return fmt::format("{:g} min", rounded(minutes, 1));
+}
+
+std::string describe_use(HopUse use, std::optional<double> minutes, std::optional<double> temperature_c,
+                         UnitSystem units) {
+  std::string text(to_string(use));
+  if (use != HopUse::first_wort && minutes) text += " " + format_minutes(*minutes);
+  if (use == HopUse::whirlpool && temperature_c) text += " at " + format_temperature(*temperature_c, units);
+  return text;
+}
+
+std::string_view hot_wort_caution() {
+  return "Caution: whirlpool and hop-stand wort is near boiling and scalds; keep lids, hoses and hands clear, and "
+         "follow your brewhouse's safety rules.";
+}
+
+std::string_view dry_hop_caution() {
+  return "Caution: dry hops can restart fermentation (hop creep) and over-pressurise bottles or kegs; package only "
+         "after the gravity has been stable for several days. Hops are toxic to dogs: keep spent hops away from them.";
+}
+
+std::vector<std::string> cautions_for(const Recipe& recipe) {
+  std::vector<std::string> cautions;
+  const auto uses = [&](HopUse use) {
+    return std::any_of(recipe.hops.begin(), recipe.hops.end(), [&](const HopAddition& h) { return h.use == use; });
+  };
+  if (uses(HopUse::whirlpool) || recipe.hop_stand) cautions.emplace_back(hot_wort_caution());
+  if (uses(HopUse::dry_hop)) cautions.emplace_back(dry_hop_caution());
+  return cautions;
+}
+
+namespace {
+
+std::string_view alpha_source_text(AlphaSource source) {
+  switch (source) {
+    case AlphaSource::recipe: return "recipe";
+    case AlphaSource::catalog_midpoint: return "catalog midpoint";
+    case AlphaSource::none: return "none";
+  }
+  return "";
+}
+
+std::string model_line(const RecipeBitterness& bitterness) {
+  return fmt::format("{} model, pellet factor {:.2f}, calibration {:.2f}",
+                     bitterness.settings.model == IbuModel::rager ? "Rager" : "Tinseth",
+                     bitterness.settings.pellet_factor, bitterness.settings.calibration);
+}
+
+}  // namespace
+
+void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units) {
+  out << fmt::format("{}: {} at OG {:.3f}, {} boil; {}\n\n", recipe.name.empty() ? recipe.source_file : recipe.name,
+                     format_volume(recipe.batch_volume_l, units), recipe.original_gravity,
+                     format_minutes(recipe.boil_minutes), model_line(bitterness));
+  TextTable table({{"#", Align::right},
+                   {"variety"},
+                   {"use"},
+                   {"boil-eq.", Align::right},
+                   {"amount", Align::right},
+                   {"form"},
+                   {"alpha", Align::right},
+                   {"util.", Align::right},
+                   {"IBU", Align::right}});
+  for (const auto& line : bitterness.additions) {
+    const bool dry = line.use == HopUse::dry_hop;
+    table.add_row({std::to_string(line.index + 1), line.variety,
+                   describe_use(line.use, line.minutes, line.temperature_c, units),
+                   dry ? "-" : fmt::format("{:.1f} min", line.bitterness.effective_minutes),
+                   format_mass(line.grams, units),
+                   std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
+                   line.alpha_source == AlphaSource::none ? "-" : fmt::format("{:.1f} %", line.alpha_percent),
+                   fmt::format("{:.1f} %", 100.0 * line.bitterness.utilization),
+                   fmt::format("{:.1f} IBU", line.bitterness.ibu)});
+  }
+  table.add_rule();
+  table.add_row({"", "total", "", "", "", "", "", "", fmt::format("{:.1f} IBU", bitterness.total_ibu)});
+  table.render(out);
+  out << "  (boil-eq. = minutes counted as boiling; util. = alpha acid turned into IBU, with form and "
+         "calibration factors)\n";
+
+  if (recipe.hop_stand)
+    out << fmt::format("\nHop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort "
+                       "additions (Malowicki & Shellhammer 2005 rates).\n",
+                       format_minutes(recipe.hop_stand->minutes),
+                       format_temperature(recipe.hop_stand->temperature_c, units),
+                       bitterness.wort.stand_equivalent_minutes);
+  if (recipe.target_ibu)
+    out << fmt::format("\nTarget {:.1f} IBU; computed {:.1f} IBU ({:+.1f} IBU).\n", *recipe.target_ibu,
+                       bitterness.total_ibu, bitterness.total_ibu - *recipe.target_ibu);
+  if (!bitterness.notes.empty()) {
+    out << "\nNotes:\n";
+    for (const auto& note : bitterness.notes) out << "  - " << note << '\n';
+  }
+  for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
+  out << fmt::format("\nTotal {:.1f} IBU at OG {:.3f}: BU:GU {:.2f}, {} (common-practice reading).\n",
+                     bitterness.total_ibu, recipe.original_gravity, bitterness.bu_gu, bitterness.bu_gu_reading);
+}
+
+nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness) {
+  using nlohmann::json;
+  json out;
+  out["recipe"] = recipe.name;
+  out["model"] = std::string(to_string(bitterness.settings.model));
+  out["pellet_factor"] = bitterness.settings.pellet_factor;
+  out["calibration"] = bitterness.settings.calibration;
+  out["batch_volume_l"] = recipe.batch_volume_l;
+  out["original_gravity"] = rounded(recipe.original_gravity, 4);
+  out["boil_minutes"] = recipe.boil_minutes;
+  if (recipe.hop_stand)
+    out["hop_stand"] = {{"minutes", recipe.hop_stand->minutes},
+                        {"temperature_c", recipe.hop_stand->temperature_c},
+                        {"boil_equivalent_minutes", rounded(bitterness.wort.stand_equivalent_minutes, 3)}};
+  json additions = json::array();
+  for (const auto& line : bitterness.additions) {
+    json a;
+    a["index"] = line.index + 1;
+    a["variety"] = line.variety;
+    a["use"] = std::string(to_string(line.use));
+    a["minutes"] = line.minutes ? json(rounded(*line.minutes, 3)) : json(nullptr);
+    a["temperature_c"] = line.temperature_c ? json(rounded(*line.temperature_c, 3)) : json(nullptr);
+    a["grams"] = rounded(line.grams, 3);
+    a["form"] = std::string(to_string(line.form));
+    a["form_assumed"] = line.form_assumed;
+    a["alpha_acid"] = line.alpha_source == AlphaSource::none ? json(nullptr) : json(rounded(line.alpha_percent, 3));
+    a["alpha_source"] = std::string(alpha_source_text(line.alpha_source));
+    a["effective_minutes"] = rounded(line.bitterness.effective_minutes, 3);
+    a["utilization"] = rounded(line.bitterness.utilization, 5);
+    a["ibu"] = rounded(line.bitterness.ibu, 3);
+    additions.push_back(std::move(a));
+  }
+  out["additions"] = std::move(additions);
+  out["total_ibu"] = rounded(bitterness.total_ibu, 3);
+  out["bu_gu"] = rounded(bitterness.bu_gu, 4);
+  out["bu_gu_reading"] = bitterness.bu_gu_reading;
+  out["notes"] = bitterness.notes;
+  out["cautions"] = cautions_for(recipe);
+  return out;
+}
+
+}  // namespace bine

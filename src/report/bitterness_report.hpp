@@ -1,0 +1,34 @@
+#pragma once
+// Rendering a recipe's bitterness breakdown (bine ibu) as a text table or JSON, plus the small
+// pieces the rebalance renderer shares (times, cautions, rounding).
+#include <nlohmann/json.hpp>
+
+#include <ostream>
+#include <string>
+
+#include "engine/recipe_bitterness.hpp"
+#include "model/quantity.hpp"
+
+namespace bine {
+
+/// Text report: one row per addition, totals, notes, cautions; the last line is the BU:GU reading.
+void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units);
+/// JSON report in canonical units (g, L, C, min, %); deterministic.
+nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness);
+
+/// "60 min", "1.5 h" stays "90 min"; days for dry-hop contact ("4 d") from 1 day up.
+std::string format_minutes(double minutes);
+/// "boil 60 min", "whirlpool 20 min at 80 C", "dry-hop 4 d", "first-wort".
+std::string describe_use(HopUse use, std::optional<double> minutes, std::optional<double> temperature_c,
+                         UnitSystem units);
+/// `value` rounded to `decimals` places, for stable, readable JSON.
+double rounded(double value, int decimals);
+
+/// Hot-wort caution (whirlpool / hop stand present).
+std::string_view hot_wort_caution();
+/// Dry-hop refermentation caution (hop creep) for packaging.
+std::string_view dry_hop_caution();
+/// The cautions that apply to a recipe, each one line.
+std::vector<std::string> cautions_for(const Recipe& recipe);
+
+}  // namespace bine

@@ -1,0 +1,163 @@
+#include "report/rebalance_report.hpp"
+
+#include <fmt/format.h>
+
+#include "report/bitterness_report.hpp"
+#include "report/table.hpp"
+
+namespace bine {
+namespace {
+
+std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
+  std::string text = fmt::format("{}: ", lot.variety);
+  if (!lot.lot_code.empty()) {
+    text += fmt::format("lot {}", lot.lot_code);
+    if (lot.lots_of_variety > 1) text += fmt::format(" (most on hand of {} lots)", lot.lots_of_variety);
+    text += "; ";
+  }
+  if (lot.certificate_alpha && lot.packaged && lot.storage) {
+    text += fmt::format("{:.1f} % packaged {}, {} days at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
+                        "day ({:.1f} % left)",
+                        *lot.certificate_alpha, format_date(*lot.packaged), lot.days,
+                        format_temperature(lot.storage->temperature_c, units), to_string(lot.storage->package),
+                        lot.stability_percent.value_or(0.0), lot.stability_source, lot.alpha_percent,
+                        100.0 * lot.remaining);
+  } else {
+    text += fmt::format("{:.2f} % alpha", lot.alpha_percent);
+  }
+  if (lot.total_oil) text += fmt::format(", oil {:.2f} mL/100 g", *lot.total_oil);
+  if (lot.form) text += fmt::format(", {}", to_string(*lot.form));
+  if (lot.on_hand_g) text += fmt::format(", {} on hand", format_mass(*lot.on_hand_g, units));
+  return text;
+}
+
+}  // namespace
+
+void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
+                      const RebalanceResult& result, UnitSystem units) {
+  out << fmt::format("Rebalance of {} for brew day {}{} ({} model)\n\n",
+                     recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
+                     context.on_from_clock ? " (today; pass --on to reproduce)" : "",
+                     result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
+  out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
+  for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
+  out << '\n';
+
+  TextTable table({{"#", Align::right},
+                   {"variety"},
+                   {"use"},
+                   {"alpha before", Align::right},
+                   {"after", Align::right},
+                   {"amount before", Align::right},
+                   {"after", Align::right},
+                   {"IBU before", Align::right},
+                   {"after", Align::right},
+                   {"rule"}});
+  for (const auto& row : result.additions) {
+    const HopAddition& hop = recipe.hops[row.index];
+    const bool dry = row.use == HopUse::dry_hop;
+    table.add_row({std::to_string(row.index + 1), row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
+                   fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
+                   format_mass(row.grams_before, units), format_mass(row.grams_after, units),
+                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
+                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule))});
+  }
+  table.add_rule();
+  table.add_row({"", "total", "", "", "", "", "", fmt::format("{:.1f} IBU", result.before.total_ibu),
+                 fmt::format("{:.1f} IBU", result.after.total_ibu), ""});
+  table.render(out);
+
+  out << '\n';
+  if (result.absorber) {
+    const auto& row = result.additions[*result.absorber];
+    const HopAddition& hop = recipe.hops[row.index];
+    out << fmt::format("Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
+                       "total holds at {:.1f} IBU.\n",
+                       row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
+                       result.ibu_change_absorbed, result.after.total_ibu);
+  } else if (result.whirlpool_scaled) {
+    out << fmt::format("No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "
+                       "holds at {:.1f} IBU but their aroma changes.\n",
+                       result.ibu_change_absorbed, result.after.total_ibu);
+  } else {
+    out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
+  }
+  if (result.shortfalls.empty()) {
+    if (context.from_stock) out << "Stock covers every addition.\n";
+  } else {
+    out << "Stock shortfalls:\n";
+    for (const auto& s : result.shortfalls)
+      out << fmt::format("  {} (lot {}): need {}, have {}, short {}\n", s.variety, s.lot, format_mass(s.needed_g, units),
+                         format_mass(s.on_hand_g, units), format_mass(s.needed_g - s.on_hand_g, units));
+  }
+  std::vector<std::string> notes = result.notes;
+  notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
+  if (!notes.empty()) {
+    out << "\nNotes:\n";
+    for (const auto& note : notes) out << "  - " << note << '\n';
+  }
+  for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
+}
+
+nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result) {
+  using nlohmann::json;
+  json out;
+  out["recipe"] = recipe.name;
+  out["model"] = std::string(to_string(result.before.settings.model));
+  out["on"] = format_date(context.on);
+  json lots = json::array();
+  for (const auto& lot : context.lots) {
+    json l;
+    l["variety"] = lot.variety;
+    l["lot"] = lot.lot_code.empty() ? json(nullptr) : json(lot.lot_code);
+    l["alpha_acid"] = rounded(lot.alpha_percent, 4);
+    l["alpha_acid_certificate"] = lot.certificate_alpha ? json(rounded(*lot.certificate_alpha, 4)) : json(nullptr);
+    l["packaged"] = lot.packaged ? json(format_date(*lot.packaged)) : json(nullptr);
+    l["days"] = lot.days;
+    l["remaining"] = rounded(lot.remaining, 5);
+    l["stability_percent"] = lot.stability_percent ? json(rounded(*lot.stability_percent, 3)) : json(nullptr);
+    l["stability_source"] = lot.stability_source;
+    l["total_oil"] = lot.total_oil ? json(rounded(*lot.total_oil, 4)) : json(nullptr);
+    l["on_hand_g"] = lot.on_hand_g ? json(rounded(*lot.on_hand_g, 3)) : json(nullptr);
+    lots.push_back(std::move(l));
+  }
+  out["lots"] = std::move(lots);
+  json additions = json::array();
+  for (const auto& row : result.additions) {
+    json a;
+    a["index"] = row.index + 1;
+    a["variety"] = row.variety;
+    a["use"] = std::string(to_string(row.use));
+    a["grams_before"] = rounded(row.grams_before, 3);
+    a["grams_after"] = rounded(row.grams_after, 3);
+    a["alpha_before"] = rounded(row.alpha_before, 4);
+    a["alpha_after"] = rounded(row.alpha_after, 4);
+    a["ibu_before"] = rounded(row.ibu_before, 3);
+    a["ibu_after"] = rounded(row.ibu_after, 3);
+    a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
+    a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
+    a["rule"] = std::string(to_string(row.rule));
+    additions.push_back(std::move(a));
+  }
+  out["additions"] = std::move(additions);
+  out["total_ibu_before"] = rounded(result.before.total_ibu, 3);
+  out["total_ibu_after"] = rounded(result.after.total_ibu, 3);
+  out["absorbed_by"] = result.absorber ? json(result.additions[*result.absorber].index + 1) : json(nullptr);
+  out["ibu_change_absorbed"] = rounded(result.ibu_change_absorbed, 3);
+  out["whirlpool_scaled"] = result.whirlpool_scaled;
+  json shortfalls = json::array();
+  for (const auto& s : result.shortfalls)
+    shortfalls.push_back({{"variety", s.variety},
+                          {"lot", s.lot},
+                          {"needed_g", rounded(s.needed_g, 3)},
+                          {"on_hand_g", rounded(s.on_hand_g, 3)},
+                          {"short_g", rounded(s.needed_g - s.on_hand_g, 3)}});
+  out["shortfalls"] = std::move(shortfalls);
+  std::vector<std::string> notes = result.notes;
+  notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
+  out["notes"] = notes;
+  out["cautions"] = cautions_for(recipe);
+  return out;
+}
+
+}  // namespace bine

@@ -1,0 +1,26 @@
+#pragma once
+// Rendering a rebalance (bine rebalance): the lots used, a before/after table, which addition took
+// the IBU change, stock shortfalls; text or JSON.
+#include <nlohmann/json.hpp>
+
+#include <ostream>
+#include <vector>
+
+#include "engine/rebalance.hpp"
+#include "model/quantity.hpp"
+
+namespace bine {
+
+/// What the rebalance was asked: the lots, where they came from, and the brew day.
+struct RebalanceContext {
+  std::vector<ReplacementLot> lots;
+  bool from_stock = false;
+  Date on;
+  bool on_from_clock = false;     // --on not given: today's date from the system clock
+};
+
+void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
+                      const RebalanceResult& result, UnitSystem units);
+nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result);
+
+}  // namespace bine
