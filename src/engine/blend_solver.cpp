@@ -37,6 +37,7 @@
 #include <bit>
 #include <cmath>
 #include <limits>
+#include <stdexcept>
 #include <vector>
 
 namespace bine {
@@ -45,6 +46,11 @@ namespace {
 constexpr double kTolerance = 1e-9;
 
 using Index = Eigen::Index;
+// KKT systems have at most 2n rows (n shares, at most n equalities and active rows); a fixed
+// capacity keeps them off the heap. n is limited to kMaxShares.
+constexpr int kMaxShares = 8;
+using KktMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::ColMajor, 2 * kMaxShares, 2 * kMaxShares>;
+using KktVector = Eigen::Matrix<double, Eigen::Dynamic, 1, Eigen::ColMajor, 2 * kMaxShares, 1>;
 
 /// Scales each inequality row so that its largest coefficient or bound is 1.
 void normalise_rows(Eigen::MatrixXd& c, Eigen::VectorXd& d) {
@@ -58,10 +64,10 @@ void normalise_rows(Eigen::MatrixXd& c, Eigen::VectorXd& d) {
 }
 
 /// Solves M z = r; least-norm solution when M is singular.
-Eigen::VectorXd solve_kkt(const Eigen::MatrixXd& m, const Eigen::VectorXd& r) {
-  Eigen::FullPivLU<Eigen::MatrixXd> lu(m);
+KktVector solve_kkt(const KktMatrix& m, const KktVector& r) {
+  Eigen::FullPivLU<KktMatrix> lu(m);
   if (lu.isInvertible()) return lu.solve(r);
-  return Eigen::CompleteOrthogonalDecomposition<Eigen::MatrixXd>(m).solve(r);
+  return Eigen::CompleteOrthogonalDecomposition<KktMatrix>(m).solve(r);
 }
 
 }  // namespace
@@ -85,6 +91,7 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
   BlendQpSolution best;
   const Index n = qp.hessian.rows();
   if (n == 0) return best;
+  if (n > kMaxShares) throw std::invalid_argument("solve_blend_qp: more than 8 shares");
   Eigen::MatrixXd c = qp.inequality;
   Eigen::VectorXd d = qp.inequality_bound;
   normalise_rows(c, d);
@@ -130,8 +137,8 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
       for (Index r = 0; r < m; ++r)
         if (active & (1u << r)) rows.push_back(r);
       const Index q = equalities + static_cast<Index>(rows.size());
-      Eigen::MatrixXd kkt = Eigen::MatrixXd::Zero(k + q, k + q);
-      Eigen::VectorXd rhs(k + q);
+      KktMatrix kkt = KktMatrix::Zero(k + q, k + q);
+      KktVector rhs(k + q);
       for (Index i = 0; i < k; ++i) {
         for (Index j = 0; j < k; ++j) kkt(i, j) = qp.hessian(vars[i], vars[j]);
         rhs[i] = qp.linear[vars[i]];
@@ -151,7 +158,7 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
       rhs[row++] = 1.0;
       if (qp.equality) rhs[row++] = e0;
       for (const Index r : rows) rhs[row++] = d[r];
-      const Eigen::VectorXd z = solve_kkt(kkt, rhs);
+      const KktVector z = solve_kkt(kkt, rhs);
       ++best.systems_solved;
       const bool solved = (kkt * z - rhs).cwiseAbs().maxCoeff() <= dual_tolerance * (1.0 + rhs.cwiseAbs().maxCoeff());
 

@@ -1,0 +1,201 @@
+#include "report/blend_report.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+#include <sstream>
+
+#include "report/table.hpp"
+
+namespace bine {
+namespace {
+
+using Index = Eigen::Index;
+
+std::string part_name(const BlendPart& part) {
+  return part.lot.empty() ? part.variety : fmt::format("{} ({})", part.variety, part.lot);
+}
+
+/// Rounds for JSON so output is stable across platforms' last-bit differences.
+double rounded(double value, int digits) {
+  const double scale = std::pow(10.0, digits);
+  const double r = std::round(value * scale) / scale;
+  return r == 0.0 ? 0.0 : r;  // no "-0.0"
+}
+
+std::string html_escape(std::string_view text) {
+  std::string out;
+  for (char c : text) {
+    switch (c) {
+      case '&': out += "&amp;"; break;
+      case '<': out += "&lt;"; break;
+      case '>': out += "&gt;"; break;
+      case '"': out += "&quot;"; break;
+      default: out += c;
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+std::vector<std::string> blend_cautions(const BlendResult& result) {
+  std::vector<std::string> cautions;
+  bool whirlpool = false, dry_hop = false;
+  for (const auto& part : result.parts) {
+    whirlpool = whirlpool || part.whirlpool_g > 0.0;
+    dry_hop = dry_hop || part.dry_hop_g > 0.0;
+  }
+  if (whirlpool)
+    cautions.push_back("Whirlpool hops go into near-boiling wort: protect hands and eyes from hot wort and steam.");
+  if (dry_hop)
+    cautions.push_back(
+        "Dry hops can restart fermentation (hop creep) and raise CO2: package only after the gravity has been "
+        "stable for several days, or bottles and kegs may over-pressurise.");
+  cautions.push_back("Hops are toxic to dogs: keep spent and fresh hops out of their reach.");
+  cautions.push_back("Estimates from published models; follow local rules and licensed practice.");
+  return cautions;
+}
+
+void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
+  const auto axes = context.lexicon->axis_names();
+  out << "Late-hop blend" << (context.recipe_name.empty() ? "" : " for " + context.recipe_name) << '\n';
+  out << fmt::format("  {} of late hops, {:.1f} mL of oil; {:.0f} % in the whirlpool", format_mass(result.late_grams, units),
+                     result.oil_ml, 100.0 * context.plan->whirlpool_share);
+  out << fmt::format(" ({} for {:.0f} min), the rest dry hop\n\n",
+                     format_temperature(context.plan->whirlpool_temperature_c, units), context.plan->whirlpool_minutes);
+  TextTable blend({{context.stock_mode ? "lot" : "variety"}, {"whirlpool", Align::right}, {"dry hop", Align::right},
+                   {"total", Align::right}, {"oil share", Align::right}, {"IBU", Align::right}});
+  for (const auto& part : result.parts)
+    blend.add_row({part_name(part), format_mass(part.whirlpool_g, units), format_mass(part.dry_hop_g, units),
+                   format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
+                   fmt::format("{:.1f} IBU", part.whirlpool_ibu)});
+  blend.render(out, "  ");
+
+  out << fmt::format("\nAroma, blend versus target (0-5; fit {:.2f} on the 0-5 scale, 0 is exact)\n", result.fit);
+  TextTable profile({{"axis"}, {"target", Align::right}, {"blend", Align::right}, {"weight", Align::right}});
+  for (Index a = 0; a < result.target.size(); ++a) {
+    if (result.target[a] <= 0.0 && result.profile[a] < 0.05) continue;
+    profile.add_row({axes[static_cast<std::size_t>(a)], fmt::format("{:.1f}", result.target[a]),
+                     fmt::format("{:.1f}", result.profile[a]), fmt::format("{:.2f}", result.weight[a])});
+  }
+  profile.render(out, "  ");
+
+  out << fmt::format("\nBitterness held at {:.1f} IBU ({})\n", result.target_ibu, context.plan->target_ibu_source);
+  TextTable ibu({{"part"}, {"amount", Align::right}, {"IBU", Align::right}});
+  if (result.bittering)
+    ibu.add_row({fmt::format("bittering: {} at {:.1f} % alpha, {:.0f} min", result.bittering->lot.empty()
+                                 ? result.bittering->variety : result.bittering->variety + " (" + result.bittering->lot + ")",
+                             result.bittering->alpha_percent, result.bittering->minutes),
+                 format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
+  if (!context.plan->kept.empty() || result.kept_ibu > 0.0)
+    ibu.add_row({"other boil additions (kept)", "", fmt::format("{:.1f} IBU", result.kept_ibu)});
+  ibu.add_row({"whirlpool (blend)", format_mass(result.late_grams * context.plan->whirlpool_share, units),
+               fmt::format("{:.1f} IBU", result.late_ibu)});
+  ibu.add_rule();
+  ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
+  ibu.render(out, "  ");
+
+  bool any_stock = result.bittering_left_g.has_value();
+  for (const auto& part : result.parts) any_stock = any_stock || part.left_g.has_value();
+  if (any_stock) {
+    out << "\nStock left after brewing\n";
+    TextTable left({{"lot"}, {"left", Align::right}});
+    for (const auto& part : result.parts)
+      if (part.left_g) left.add_row({part_name(part), format_mass(*part.left_g, units)});
+    if (result.bittering_left_g && result.bittering) {
+      bool listed = false;
+      for (const auto& part : result.parts) listed = listed || (!part.lot.empty() && part.lot == result.bittering->lot);
+      if (!listed)
+        left.add_row({result.bittering->variety + " (" + result.bittering->lot + ")", format_mass(*result.bittering_left_g, units)});
+    }
+    left.render(out, "  ");
+  }
+  if (!context.notes.empty()) {
+    out << "\nNotes\n";
+    for (const auto& note : context.notes) out << "  - " << note << '\n';
+  }
+  out << "\nModel: the blend's aroma is the oil-weighted mean of its hops' profiles, a linear first approximation\n"
+         "(oil compounds such as linalool, geraniol and citronellol interact; taste and adjust).\n";
+  out << "\nCautions\n";
+  for (const auto& caution : blend_cautions(result)) out << "  - " << caution << '\n';
+}
+
+nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext& context) {
+  using nlohmann::json;
+  const auto axes = context.lexicon->axis_names();
+  json target = json::object(), profile = json::object(), weight = json::object();
+  for (Index a = 0; a < result.target.size(); ++a) {
+    const auto& name = axes[static_cast<std::size_t>(a)];
+    target[name] = rounded(result.target[a], 4);
+    profile[name] = rounded(result.profile[a], 4);
+    weight[name] = rounded(result.weight[a], 4);
+  }
+  json varieties = json::array();
+  for (const auto& part : result.parts) {
+    json v{{"variety", part.variety}, {"grams", rounded(part.grams, 2)}, {"share", rounded(part.oil_share, 4)},
+           {"whirlpool_g", rounded(part.whirlpool_g, 2)}, {"dry_hop_g", rounded(part.dry_hop_g, 2)},
+           {"whirlpool_ibu", rounded(part.whirlpool_ibu, 2)}, {"alpha_acid", rounded(part.alpha_percent, 2)}};
+    if (!part.lot.empty()) v["lot"] = part.lot;
+    if (part.left_g) v["left_g"] = rounded(*part.left_g, 2);
+    varieties.push_back(v);
+  }
+  json bittering = nullptr;
+  if (result.bittering) {
+    bittering = {{"variety", result.bittering->variety}, {"grams", rounded(result.bittering_grams, 2)},
+                 {"ibu", rounded(result.bittering_ibu, 2)}, {"alpha_acid", rounded(result.bittering->alpha_percent, 2)},
+                 {"minutes", rounded(result.bittering->minutes, 1)}};
+    if (!result.bittering->lot.empty()) bittering["lot"] = result.bittering->lot;
+    if (result.bittering_left_g) bittering["left_g"] = rounded(*result.bittering_left_g, 2);
+  }
+  json doc{{"target", target}, {"weights", weight}, {"varieties", varieties}, {"profile", profile},
+           {"fit", rounded(result.fit, 4)}, {"objective", rounded(result.objective, 6)}, {"bittering", bittering},
+           {"late_grams", rounded(result.late_grams, 2)}, {"oil_ml", rounded(result.oil_ml, 3)},
+           {"whirlpool_share", rounded(context.plan->whirlpool_share, 4)},
+           {"whirlpool_temperature_c", rounded(context.plan->whirlpool_temperature_c, 2)},
+           {"whirlpool_minutes", rounded(context.plan->whirlpool_minutes, 2)},
+           {"ibu", {{"target", rounded(result.target_ibu, 2)}, {"source", context.plan->target_ibu_source},
+                    {"kept", rounded(result.kept_ibu, 2)}, {"late", rounded(result.late_ibu, 2)},
+                    {"bittering", rounded(result.bittering_ibu, 2)}}},
+           {"total_ibu", rounded(result.total_ibu, 2)}, {"notes", context.notes}, {"cautions", blend_cautions(result)}};
+  return doc;
+}
+
+std::string blend_to_html(const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
+  const auto axes = context.lexicon->axis_names();
+  const int n = static_cast<int>(result.target.size());
+  const int bar = 14, group = 2 * bar + 14, left = 40, top = 20, height = 200;
+  const int width = left + n * group + 20;
+  std::ostringstream svg;
+  svg << fmt::format("<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{}\" height=\"{}\" role=\"img\" "
+                     "aria-label=\"target and blend per aroma axis\">\n", width, top + height + 90);
+  for (int level = 0; level <= 5; ++level) {
+    const double y = top + height - height * level / 5.0;
+    svg << fmt::format("<line x1=\"{}\" x2=\"{}\" y1=\"{:.1f}\" y2=\"{:.1f}\" class=\"grid\"/>"
+                       "<text x=\"{}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n", left, width - 10, y, y, left - 8, y + 4, level);
+  }
+  for (int a = 0; a < n; ++a) {
+    const double x = left + a * group + 6;
+    const double t = result.target[a], p = result.profile[a];
+    svg << fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target {:.1f}</title></rect>",
+                       x, top + height - height * t / 5.0, bar, height * t / 5.0, axes[static_cast<std::size_t>(a)], t);
+    svg << fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"blend\"><title>{} blend {:.1f}</title></rect>",
+                       x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, axes[static_cast<std::size_t>(a)], p);
+    svg << fmt::format("<text transform=\"translate({:.1f},{}) rotate(50)\" class=\"axis\">{}</text>\n", x + 4,
+                       top + height + 12, html_escape(axes[static_cast<std::size_t>(a)]));
+  }
+  svg << "</svg>";
+  std::ostringstream text;
+  render_blend_text(text, result, context, units);
+  return fmt::format(
+      "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>bine blend</title>\n<style>\n"
+      "body{{font-family:system-ui,sans-serif;margin:2em;color:#222;max-width:60em}}\n"
+      ".grid{{stroke:#ddd}} .tick,.axis{{font-size:11px;fill:#444}} .target{{fill:#9a9a9a}} .blend{{fill:#3b6e8f}}\n"
+      ".key span{{display:inline-block;width:1em;height:1em;margin:0 .3em 0 1em;vertical-align:middle}}\n"
+      "pre{{background:#f6f6f4;padding:1em;overflow:auto}}\n</style></head><body>\n"
+      "<h1>Late-hop blend{}</h1>\n<p class=\"key\"><span style=\"background:#9a9a9a\"></span>target"
+      "<span style=\"background:#3b6e8f\"></span>blend (intensity 0-5 per axis; fit {:.2f})</p>\n{}\n<pre>{}</pre>\n</body></html>\n",
+      context.recipe_name.empty() ? "" : " for " + html_escape(context.recipe_name), result.fit, svg.str(), html_escape(text.str()));
+}
+
+}  // namespace bine

@@ -1,0 +1,38 @@
+#pragma once
+// Rendering a blend: text tables for the terminal, one JSON document, and a self-contained HTML page
+// with an inline SVG chart (grouped bars of target versus blend per aroma axis).
+#include <nlohmann/json.hpp>
+
+#include <ostream>
+#include <string>
+#include <vector>
+
+#include "engine/blend.hpp"
+#include "engine/blend_plan.hpp"
+#include "model/lexicon.hpp"
+#include "model/quantity.hpp"
+
+namespace bine {
+
+/// What the renderers need besides the result: the axis names, the plan and notes for the reader.
+struct BlendReportContext {
+  const Lexicon* lexicon = nullptr;
+  const BlendPlan* plan = nullptr;
+  std::string recipe_name;           // empty without --recipe
+  bool stock_mode = false;
+  std::vector<std::string> notes;
+};
+
+/// Blend, profile versus target, fit, bittering charge, IBU breakdown, stock left, cautions.
+void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units);
+
+/// Canonical units (g, C, min, %); keys: target, varieties, profile, fit, bittering, total_ibu ...
+nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext& context);
+
+/// A self-contained HTML page (no scripts, no external files).
+std::string blend_to_html(const BlendResult& result, const BlendReportContext& context, UnitSystem units);
+
+/// The cautions a blend carries (hot wort at whirlpool; dry-hop refermentation; dogs).
+std::vector<std::string> blend_cautions(const BlendResult& result);
+
+}  // namespace bine
