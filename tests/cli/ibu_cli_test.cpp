@@ -1,0 +1,111 @@
+// End-to-end: bine ibu and bine age on small fixture files; expected values are METHODS.md check
+// values or hand arithmetic written beside them.
+#include <doctest/doctest.h>
+#include <nlohmann/json.hpp>
+
+#include "cli/command_output.hpp"
+
+using bine::test::fixture;
+using bine::test::run_command;
+
+TEST_CASE("ibu --json: 28 g at 10 %, 60 min, 20 L, 1.050, whole -> 32.3 IBU (Tinseth, METHODS.md)") {
+  const auto result = run_command("ibu --json '" + fixture("h3-single-boil.json") + "'");
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  CHECK(json["model"] == "tinseth");
+  CHECK(json["total_ibu"].get<double>() == doctest::Approx(32.3).epsilon(1e-3));
+  // BU:GU = 32.29 / 50 = 0.646 (hand arithmetic).
+  CHECK(json["bu_gu"].get<double>() == doctest::Approx(0.646).epsilon(1e-3));
+  REQUIRE(json["additions"].size() == 1);
+  const auto& a = json["additions"][0];
+  CHECK(a["variety"] == "Fixture Bitter");
+  CHECK(a["use"] == "boil");
+  CHECK(a["grams"].get<double>() == 28.0);
+  CHECK(a["alpha_acid"].get<double>() == 10.0);
+  CHECK(a["utilization"].get<double>() == doctest::Approx(0.2307).epsilon(2e-4));
+  CHECK(a["ibu"].get<double>() == doctest::Approx(32.3).epsilon(1e-3));
+}
+
+TEST_CASE("ibu --model rager at 1.070: 0.3082 x 140 / 1.1 = 39.2 IBU (hand arithmetic)") {
+  const auto result = run_command("ibu --model rager --json '" + fixture("h3-rager.json") + "'");
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  CHECK(json["model"] == "rager");
+  CHECK(json["total_ibu"].get<double>() == doctest::Approx(39.2).epsilon(2e-3));
+}
+
+TEST_CASE("ibu text: table with units, hot-wort caution once, ends with the BU:GU reading") {
+  // Whirlpool 100 g at 10 % in 20 L: 500 mg/L x U 0.0314 (METHODS.md, 20 min at 80 C) = 15.7 IBU.
+  const auto result = run_command("ibu '" + fixture("h3-whirlpool.json") + "'");
+  REQUIRE(result.status == 0);
+  CHECK(result.out.find("15.7 IBU") != std::string::npos);
+  const auto first = result.out.find("Caution: whirlpool");
+  REQUIRE(first != std::string::npos);
+  CHECK(result.out.find("Caution: whirlpool", first + 1) == std::string::npos);
+  // 15.7 / 50 = 0.31: between sweet and balanced.
+  const std::string tail = result.out.substr(result.out.rfind('\n', result.out.size() - 2) + 1);
+  CHECK(tail.find("BU:GU 0.31, between sweet and balanced") != std::string::npos);
+}
+
+TEST_CASE("ibu --units us prints oz, gal and F; JSON stays canonical") {
+  const auto us = run_command("--units us ibu '" + fixture("h3-whirlpool.json") + "'");
+  REQUIRE(us.status == 0);
+  // 100 g = 3.53 oz; 20 L = 5.28 gal; 80 C = 176 F (hand conversions).
+  CHECK(us.out.find("3.53 oz") != std::string::npos);
+  CHECK(us.out.find("5.28 gal") != std::string::npos);
+  CHECK(us.out.find("176 F") != std::string::npos);
+  const auto metric_json = run_command("ibu --json '" + fixture("h3-whirlpool.json") + "'");
+  const auto us_json = run_command("--units us ibu --json '" + fixture("h3-whirlpool.json") + "'");
+  CHECK(metric_json.out == us_json.out);
+}
+
+TEST_CASE("ibu rejects bad recipes with one clear line and exit 2") {
+  const auto negative = run_command("ibu '" + fixture("h3-bad-negative.json") + "'");
+  CHECK(negative.status == 2);
+  CHECK(negative.err.find("/hops/0/amount:") != std::string::npos);
+  const auto whirlpool = run_command("ibu '" + fixture("h3-bad-whirlpool.json") + "'");
+  CHECK(whirlpool.status == 2);
+  CHECK(whirlpool.err.find("/hops/0/temperature: is missing") != std::string::npos);
+  const auto gravity = run_command("ibu '" + fixture("h3-bad-gravity.json") + "'");
+  CHECK(gravity.status == 2);
+  CHECK(gravity.err.find("/original_gravity:") != std::string::npos);
+  const auto model = run_command("ibu --model guess '" + fixture("h3-single-boil.json") + "'");
+  CHECK(model.status == 2);
+  CHECK(model.err.find("--model: \"guess\"") != std::string::npos);
+}
+
+TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (METHODS.md)") {
+  const auto result = run_command(
+      "age --alpha 6.0 --packaged 2025-12-01 --stored '-18 C,vacuum' --stability 50 --on 2026-12-01 --json");
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  CHECK(json["alpha_acid"].get<double>() == doctest::Approx(5.31).epsilon(1e-3));
+  CHECK(json["remaining"].get<double>() == doctest::Approx(0.886).epsilon(1e-3));
+  CHECK(json["days"].get<long>() == 365);
+}
+
+TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catalog: 70 %)") {
+  const auto result = run_command("--catalog '" + fixture("h3-catalog.json") +
+                                  "' age --alpha 10 --packaged 2026-01-01 --stored '68 F,open' --variety 'fixture aroma' "
+                                  "--on 2026-06-30 --json");
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  // 2026-01-01 + 180 days = 2026-06-30 (31+28+31+30+31+29 = 180, hand count); 68 F = 20 C.
+  CHECK(json["days"].get<long>() == 180);
+  CHECK(json["remaining"].get<double>() == doctest::Approx(0.70).epsilon(1e-5));
+}
+
+TEST_CASE("age rejects a packaging date after --on, bad storage and missing stability, exit 2") {
+  const auto future = run_command("age --alpha 6 --packaged 2026-12-02 --stored '-2 C,vacuum' --stability 50 --on 2026-12-01");
+  CHECK(future.status == 2);
+  CHECK(future.err.find("--packaged: 2026-12-02: after the date --on 2026-12-01") != std::string::npos);
+  const auto storage = run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,jar' --stability 50 --on 2026-12-01");
+  CHECK(storage.status == 2);
+  CHECK(storage.err.find("unknown package \"jar\"") != std::string::npos);
+  const auto none = run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,vacuum' --on 2026-12-01");
+  CHECK(none.status == 2);
+  CHECK(none.err.find("expected exactly one") != std::string::npos);
+}
