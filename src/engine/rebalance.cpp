@@ -219,7 +219,7 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& s
       }
     }
     if (best == nullptr) {
-      notes.push_back(fmt::format("no lot of {} with an alpha acid in stock; its additions are kept as written",
+      notes.push_back(fmt::format("no stock lot of {} with a certificate alpha; its additions are kept as written",
                                   hop.variety));
       continue;
     }

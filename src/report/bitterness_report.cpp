@@ -88,7 +88,7 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
                    format_mass(line.grams, units),
                    std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
                    line.alpha_source == AlphaSource::none ? "-" : fmt::format("{:.1f} %", line.alpha_percent),
-                   fmt::format("{:.1f} %", 100.0 * line.bitterness.utilization),
+                   dry ? "-" : fmt::format("{:.1f} %", 100.0 * line.bitterness.utilization),
                    fmt::format("{:.1f} IBU", line.bitterness.ibu)});
   }
   table.add_rule();

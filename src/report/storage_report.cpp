@@ -13,13 +13,15 @@ void render_age(std::ostream& out, const AgeQuery& query, const AgedAlpha& aged,
   out << fmt::format("  packaged {}, {:.0f} days stored at {}, {}\n", format_date(query.packaged), query.history.days,
                      format_temperature(query.history.storage.temperature_c, units),
                      to_string(query.history.storage.package));
-  out << fmt::format("  stability {:.1f} % of alpha left after 6 months at 20 C ({})\n",
-                     query.history.stability_percent, query.stability_source);
-  out << fmt::format("  loss rate {:.6f} per day (20 C, open) x temperature factor {:.3f} x package factor {:.2f}\n",
-                     aged.rate_per_day, aged.temperature_factor, aged.package_factor);
+  const std::string reference = format_temperature(20.0, units);
+  out << fmt::format("  stability {:.1f} % of alpha left after 6 months at {} ({})\n", query.history.stability_percent,
+                     reference, query.stability_source);
+  out << fmt::format("  loss rate {:.6f} per day ({}, open) x temperature factor {:.3f} x package factor {:.2f}\n",
+                     aged.rate_per_day, reference, aged.temperature_factor, aged.package_factor);
   for (const auto& note : query.notes) out << "  note: " << note << '\n';
   if (aged.warm_extrapolation)
-    out << "  note: stored above 20 C; the temperature factor is extrapolated there and the estimate is rough\n";
+    out << "  note: stored above " << format_temperature(20.0, units)
+        << "; the temperature factor is extrapolated there and the estimate is rough\n";
   out << "Method: first-order loss after Garetz (1994). An estimate: a fresh lab analysis of the lot beats it.\n";
 }
 
