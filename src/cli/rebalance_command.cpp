@@ -42,7 +42,7 @@ std::string trim(std::string text) {
 std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& recipe, std::vector<std::string>& problems) {
   const auto equals = text.find('=');
   if (equals == std::string::npos || trim(text.substr(0, equals)).empty()) {
-    problems.push_back(fmt::format("--lot: \"{}\": no variety and alpha (expected {})", text, kLotForm));
+    problems.push_back(fmt::format("--lot: \"{}\": no variety or no alpha acid (expected {})", text, kLotForm));
     return std::nullopt;
   }
   ReplacementLot lot;
