@@ -119,12 +119,13 @@ RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot
       const auto& line = *std::find_if(provisional.additions.begin(), provisional.additions.end(),
                                        [&](const AdditionLine& l) { return l.index == *absorber; });
       const double wanted = line.bitterness.ibu + change;
-      if (wanted <= 0.0)
+      if (wanted <= 0.0) {
+        const double late = provisional.total_ibu - line.bitterness.ibu;
         throw Infeasible(fmt::format(
-            "the late additions alone now give {:.1f} IBU, more than the recipe's {:.1f} IBU, so no boil addition can "
-            "hold the total (lower the whirlpool amounts or accept {:.1f} IBU)",
-            provisional.total_ibu - line.bitterness.ibu, result.before.total_ibu,
-            provisional.total_ibu - line.bitterness.ibu));
+            "the late additions alone now give {:.1f} IBU, more than the recipe's total of {:.1f} IBU, so no boil "
+            "addition can hold it (cut the whirlpool amounts by more than {:.0f} %, or use a lot with less alpha)",
+            late, result.before.total_ibu, 100.0 * (1.0 - result.before.total_ibu / late)));
+      }
       after.hops[*absorber].grams *= wanted / line.bitterness.ibu;
       rules[*absorber] = RebalanceRule::absorbs_ibu;
       result.ibu_change_absorbed = change;

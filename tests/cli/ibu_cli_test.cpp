@@ -109,3 +109,14 @@ TEST_CASE("age rejects a packaging date after --on, bad storage and missing stab
   CHECK(none.status == 2);
   CHECK(none.err.find("expected exactly one") != std::string::npos);
 }
+
+TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the stand (METHODS.md)") {
+  // t_boil 0 + t_eq 3.31 min -> U 0.0314 (METHODS.md); 140 mg/L x 0.0314 = 4.40 IBU.
+  const auto result = run_command("ibu --json '" + fixture("h3-hop-stand.json") + "'");
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  CHECK(json["hop_stand"]["boil_equivalent_minutes"].get<double>() == doctest::Approx(3.31).epsilon(2e-3));
+  CHECK(json["total_ibu"].get<double>() == doctest::Approx(4.40).epsilon(3e-3));
+  CHECK(json["cautions"].size() == 1);  // hot wort
+}

@@ -92,3 +92,11 @@ TEST_CASE("rebalance --json is byte-identical run to run") {
   REQUIRE(first.status == 0);
   CHECK(first.out == second.out);
 }
+
+TEST_CASE("rebalance: late hops that alone exceed the total are infeasible, exit 3 with a way out") {
+  // Whirlpool 200 g going from 5 % to 15 % triples its IBU, beyond the recipe's total.
+  const auto result = run_command(with_catalog("rebalance '" + fixture("h3-infeasible.json") +
+                                               "' --lot 'Fixture Aroma=15%' --on 2026-12-01"));
+  CHECK(result.status == 3);
+  CHECK(result.err.find("cut the whirlpool amounts") != std::string::npos);
+}
