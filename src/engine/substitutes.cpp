@@ -1,0 +1,298 @@
+// Substitutes: the neighbour index proposes, the exact similarity decides.
+//
+// 1. Every catalog variety is vectorised for the question (aroma_vector.hpp) and put in a HopIndex.
+// 2. The missing variety's vector queries the index for a candidate set larger than --top
+//    (max(min_candidates, candidate_multiplier x top)); with a stock file the search is restricted to
+//    the ids of varieties that have lots on hand.
+// 3. Each candidate (a variety, or each stocked lot of it with the lot's measured alpha, beta and oil)
+//    is re-scored by Vectorizer::similarity, which handles missing blocks exactly, and the list is
+//    sorted by similarity, ties by name then lot code, so output is deterministic.
+// 4. The amount factor holds the job: aroma -> total oil ratio (oil delivered holds), bittering ->
+//    alpha ratio (IBU is linear in grams x alpha: METHODS.md "Linearity"). Lots use their own oil and
+//    their alpha aged to the brew day (storage_loss.hpp, Garetz 1994). Missing data give no factor;
+//    nothing is guessed.
+// 5. Pairs (--pairs): the best pair_pool substitutes are tried two at a time; the blend QP solver
+//    (blend_solver.hpp, K = 2, simplex only) finds the shares by weight whose blended aroma intensities
+//    are closest to the missing variety's. The blend's oil and chemistry descriptors are the
+//    share-weighted means of the two hops' standardised values (a linear first approximation; oil
+//    compounds interact, METHODS.md "Oil compounds and aroma"). Pairs are kept when their similarity
+//    beats the best single substitute.
+#include "engine/substitutes.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "engine/blend_solver.hpp"
+#include "engine/storage_loss.hpp"
+#include "model/catalog_lookup.hpp"
+#include "model/errors.hpp"
+#include "model/names.hpp"
+
+namespace bine {
+namespace {
+
+struct Candidate {
+  const Variety* variety = nullptr;
+  const Lot* lot = nullptr;
+  Descriptors descriptors;
+  std::optional<double> alpha_today;
+  std::string alpha_note;
+};
+
+std::optional<double> mid_of(const std::optional<Range>& range) {
+  if (!range) return std::nullopt;
+  return range->mid();
+}
+
+// The lot's alpha on the brew day (Garetz 1994 via storage_loss), or the certificate value with a note.
+void age_lot(Candidate& candidate, Date on, const SubstituteSettings& settings) {
+  const Lot& lot = *candidate.lot;
+  if (!lot.alpha_acid) {
+    candidate.alpha_note = "no lot alpha; catalog range used";
+    return;
+  }
+  if (!lot.packaged || !lot.storage) {
+    candidate.alpha_today = lot.alpha_acid;
+    candidate.alpha_note = "certificate value (no packaged date or storage to age it)";
+    return;
+  }
+  StorageHistory history;
+  history.alpha_percent = *lot.alpha_acid;
+  history.storage = *lot.storage;
+  history.days = static_cast<double>(std::max(0L, days_between(*lot.packaged, on)));
+  if (lot.hsi) {
+    history.stability_percent = 100.0 - percent_lost_from_hsi(*lot.hsi);
+    candidate.alpha_note = "aged from the measured HSI";
+  } else if (candidate.variety->stability) {
+    history.stability_percent = *candidate.variety->stability;
+    candidate.alpha_note = "aged from the variety's storage stability";
+  } else {
+    history.stability_percent = settings.default_stability;
+    candidate.alpha_note = fmt::format("aged assuming fair stability ({:.0f} % left after 6 months)",
+                                       settings.default_stability);
+  }
+  candidate.alpha_today = age_alpha(history).alpha_percent;
+}
+
+Substitute make_substitute(const Candidate& c, const Descriptors& missing, const Variety& missing_variety,
+                           const Vectorizer& vectorizer, const std::vector<std::string>& axes,
+                           const SubstituteSettings& settings) {
+  Substitute s;
+  s.variety = *c.variety;
+  if (c.lot) s.lot = *c.lot;
+  s.alpha_today = c.alpha_today;
+  s.alpha_note = c.alpha_note;
+  const PairSimilarity sim = vectorizer.similarity(missing, c.descriptors);
+  s.similarity = sim.percent();
+  s.confidence = sim.confidence;
+  s.aroma = c.descriptors.aroma;
+  s.aroma_source = c.descriptors.aroma_source;
+
+  const bool aroma_job = vectorizer.purpose() == SwapPurpose::aroma;
+  const std::optional<double> wanted = aroma_job ? mid_of(missing_variety.total_oil) : mid_of(missing_variety.alpha_acid);
+  std::optional<double> offered;
+  std::string offered_from = "catalog";
+  if (aroma_job) {
+    offered = (c.lot && c.lot->total_oil) ? c.lot->total_oil : mid_of(c.variety->total_oil);
+    if (c.lot && c.lot->total_oil) offered_from = "lot";
+  } else {
+    offered = c.alpha_today ? c.alpha_today : mid_of(c.variety->alpha_acid);
+    if (c.alpha_today) offered_from = "lot, today";
+  }
+  s.amount_factor = amount_factor(vectorizer.purpose(), wanted, offered);
+  const std::string_view what = aroma_job ? "oil" : "alpha";
+  const std::string_view unit = aroma_job ? " mL/100 g" : " %";
+  if (s.amount_factor) {
+    s.amount_basis = fmt::format("{} {:.2f}{} / {:.2f}{} ({})", what, *wanted, unit, *offered, unit, offered_from);
+  } else {
+    s.amount_basis = fmt::format("n/a (no {} data for {})", what, !wanted ? missing_variety.name : c.variety->name);
+  }
+
+  if (missing.has_aroma() && c.descriptors.has_aroma()) {
+    for (std::size_t a = 0; a < axes.size(); ++a) {
+      const double delta = c.descriptors.aroma[static_cast<Eigen::Index>(a)] - missing.aroma[static_cast<Eigen::Index>(a)];
+      if (std::abs(delta) >= settings.difference_threshold) s.differences.push_back({axes[a], delta});
+    }
+    std::stable_sort(s.differences.begin(), s.differences.end(),
+                     [](const AromaDifference& x, const AromaDifference& y) { return std::abs(x.delta) > std::abs(y.delta); });
+    if (s.differences.size() > settings.max_differences) s.differences.resize(settings.max_differences);
+  }
+  return s;
+}
+
+// The share-weighted blend of two descriptor sets: intensities mix linearly; standardised values
+// mix where both have them, else the one that has it stands.
+Descriptors blend_descriptors(const Descriptors& a, const Descriptors& b, double share_a) {
+  Descriptors d;
+  d.aroma = share_a * a.aroma + (1.0 - share_a) * b.aroma;
+  d.aroma_source = a.aroma_source == AromaSource::explicit_values ? b.aroma_source : a.aroma_source;
+  auto mix = [&](std::optional<double> x, std::optional<double> y) -> std::optional<double> {
+    if (x && y) return share_a * *x + (1.0 - share_a) * *y;
+    return x ? x : y;
+  };
+  d.oils.resize(a.oils.size());
+  for (std::size_t i = 0; i < a.oils.size(); ++i) d.oils[i] = mix(a.oils[i], b.oils[i]);
+  for (std::size_t i = 0; i < kChemistryFeatures; ++i) d.chemistry[i] = mix(a.chemistry[i], b.chemistry[i]);
+  return d;
+}
+
+}  // namespace
+
+std::optional<double> amount_factor(SwapPurpose /*purpose*/, std::optional<double> missing_value,
+                                    std::optional<double> substitute_value) {
+  if (!missing_value || !substitute_value || *missing_value <= 0.0 || *substitute_value <= 0.0) return std::nullopt;
+  return *missing_value / *substitute_value;
+}
+
+std::string differences_in_words(const std::vector<AromaDifference>& differences) {
+  if (differences.empty()) return "close on every aroma axis";
+  std::string words;
+  for (const auto& d : differences) {
+    if (!words.empty()) words += ", ";
+    words += (d.delta > 0.0 ? "more " : "less ") + d.axis;
+  }
+  return words;
+}
+
+std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::VectorXd& second,
+                                     const Eigen::VectorXd& target) {
+  Eigen::MatrixXd a(first.size(), 2);
+  a.col(0) = first;
+  a.col(1) = second;
+  const BlendQpSolution solution =
+      solve_blend_qp(qp_from_least_squares(a, target, Eigen::VectorXd::Ones(first.size())));
+  if (!solution.feasible || solution.shares.size() != 2) return {0.5, 0.5};
+  return {solution.shares[0], solution.shares[1]};
+}
+
+SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings) {
+  const Variety& missing = require_variety(catalog, request.missing, "swap");
+  SwapResult result;
+  result.missing = missing;
+  result.purpose = request.purpose;
+  result.axes = lexicon.axis_names();
+
+  // Vectorise the catalog and index it.
+  const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);
+  const Descriptors wanted = vectorizer.describe(missing);
+  result.missing_aroma = wanted.aroma;
+  result.missing_source = wanted.aroma_source;
+  std::vector<float> rows;
+  rows.reserve(catalog.varieties.size() * static_cast<std::size_t>(vectorizer.dimensions()));
+  std::vector<Descriptors> described;
+  for (const auto& variety : catalog.varieties) {
+    described.push_back(vectorizer.describe(variety));
+    const auto v = vectorizer.embed(described.back());
+    rows.insert(rows.end(), v.begin(), v.end());
+  }
+  const HopIndex index(vectorizer.dimensions(), rows, settings.index);
+  result.index_kind = index.kind();
+  const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
+
+  // Which varieties may answer: all but the missing one, or those with lots on hand.
+  std::vector<std::int64_t> allowed;
+  std::vector<std::vector<const Lot*>> lots_of(catalog.varieties.size());
+  if (request.stock) {
+    result.from_stock = true;
+    result.stock_name = request.stock->name;
+    result.on = request.on;
+    for (const auto& lot : request.stock->lots) {
+      const Variety* variety = find_variety(catalog, lot.variety);
+      if (!variety) {
+        result.notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
+        continue;
+      }
+      if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
+      lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
+    }
+    for (std::size_t i = 0; i < lots_of.size(); ++i)
+      if (!lots_of[i].empty()) allowed.push_back(static_cast<std::int64_t>(i));
+    if (allowed.empty())
+      throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {} (add stock, or run without "
+                                   "--stock to see substitutes from the whole catalog)",
+                                   request.stock->source_file, missing.name));
+  } else {
+    for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
+      if (!is_missing(catalog.varieties[i])) allowed.push_back(static_cast<std::int64_t>(i));
+    if (allowed.empty())
+      throw Infeasible(fmt::format("the catalog has no variety besides {} (add one with --catalog FILE)", missing.name));
+  }
+
+  // Ask the index for candidates, then re-score exactly (missing blocks handled per pair).
+  const std::vector<float> query = vectorizer.embed(wanted);
+  const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
+  const auto hits = request.stock ? index.search_subset(query.data(), k, allowed)
+                                  : index.search_subset(query.data(), k + 1, allowed);
+  std::vector<Candidate> candidates;
+  for (const auto& hit : hits) {
+    const auto i = static_cast<std::size_t>(hit.id);
+    const Variety& variety = catalog.varieties[i];
+    if (is_missing(variety)) continue;
+    if (!request.stock) {
+      candidates.push_back({&variety, nullptr, described[i], std::nullopt, {}});
+      continue;
+    }
+    for (const Lot* lot : lots_of[i]) {
+      Candidate c{&variety, lot, {}, std::nullopt, {}};
+      age_lot(c, request.on, settings);
+      c.descriptors = vectorizer.describe(variety, *lot, c.alpha_today);
+      candidates.push_back(std::move(c));
+    }
+  }
+  result.candidates = candidates.size();
+
+  std::vector<Substitute> ranked;
+  for (const auto& c : candidates)
+    ranked.push_back(make_substitute(c, wanted, missing, vectorizer, result.axes, settings));
+  std::vector<std::size_t> order(ranked.size());
+  for (std::size_t i = 0; i < order.size(); ++i) order[i] = i;
+  std::sort(order.begin(), order.end(), [&](std::size_t x, std::size_t y) {
+    const Substitute& a = ranked[x];
+    const Substitute& b = ranked[y];
+    if (a.similarity != b.similarity) return a.similarity > b.similarity;
+    if (a.variety.name != b.variety.name) return a.variety.name < b.variety.name;
+    return (a.lot ? a.lot->lot : "") < (b.lot ? b.lot->lot : "");
+  });
+  for (std::size_t i = 0; i < order.size() && i < request.top; ++i) result.substitutes.push_back(ranked[order[i]]);
+  if (!wanted.has_aroma())
+    result.notes.push_back(fmt::format("{} has no aroma data: ranked on oils and chemistry only", missing.name));
+
+  // Pairs: convex two-hop fits among the best candidates.
+  if (request.pairs && !result.substitutes.empty()) {
+    if (!wanted.has_aroma()) {
+      result.notes.push_back("no pairs: the missing variety has no aroma data to fit");
+      return result;
+    }
+    const double best_single = ranked[order[0]].similarity;
+    const std::size_t pool = std::min(settings.pair_pool, order.size());
+    for (std::size_t x = 0; x < pool; ++x) {
+      for (std::size_t y = x + 1; y < pool; ++y) {
+        const Candidate& a = candidates[order[x]];
+        const Candidate& b = candidates[order[y]];
+        if (a.variety == b.variety || !a.descriptors.has_aroma() || !b.descriptors.has_aroma()) continue;
+        const auto shares = two_hop_shares(a.descriptors.aroma, b.descriptors.aroma, wanted.aroma);
+        if (shares[0] < 1e-9 || shares[1] < 1e-9) continue;  // one hop alone: not a pair
+        const Descriptors mixed = blend_descriptors(a.descriptors, b.descriptors, shares[0]);
+        const double similarity = vectorizer.similarity(wanted, mixed).percent();
+        if (similarity <= best_single) continue;
+        result.pairs.push_back({{a.variety->name, b.variety->name},
+                                {a.lot ? a.lot->lot : "", b.lot ? b.lot->lot : ""},
+                                shares,
+                                similarity});
+      }
+    }
+    std::sort(result.pairs.begin(), result.pairs.end(), [](const SubstitutePair& p, const SubstitutePair& q) {
+      if (p.similarity != q.similarity) return p.similarity > q.similarity;
+      return std::tie(p.varieties, p.lots) < std::tie(q.varieties, q.lots);
+    });
+    if (result.pairs.size() > request.top) result.pairs.resize(request.top);
+    if (result.pairs.empty())
+      result.notes.push_back("no two-variety blend beats the best single substitute");
+  }
+  return result;
+}
+
+}  // namespace bine

@@ -1,0 +1,105 @@
+#pragma once
+// Substitutes for a missing variety: ranked by descriptor similarity through the neighbour index,
+// with the aroma differences in words, the amount factor that holds the job, and optionally
+// two-variety blends that match better than any single substitute.
+#include <Eigen/Dense>
+
+#include <array>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "engine/aroma_vector.hpp"
+#include "engine/hop_index.hpp"
+#include "model/hops.hpp"
+#include "model/lexicon.hpp"
+
+namespace bine {
+
+/// Tuning of the substitute search.
+struct SubstituteSettings {
+  VectorSettings vectors;
+  IndexSettings index;
+  std::size_t min_candidates = 50;       // faiss candidates re-scored exactly, at least ...
+  std::size_t candidate_multiplier = 4;  // ... or this many times --top
+  double difference_threshold = 0.75;    // aroma intensity gap (0-5 scale) worth a word
+  std::size_t max_differences = 3;
+  std::size_t pair_pool = 12;            // best single substitutes tried pairwise for --pairs
+  double default_stability = 65.0;       // % left after 6 months when a variety has none ("fair")
+};
+
+/// What to replace, for what job, from where.
+struct SwapRequest {
+  std::string missing;                    // the variety name as typed
+  SwapPurpose purpose = SwapPurpose::aroma;
+  std::size_t top = 5;
+  bool pairs = false;
+  const Stock* stock = nullptr;           // restrict to lots on hand when set
+  Date on{};                              // brew day, for the lots' alpha today
+};
+
+/// One aroma axis where the substitute differs noticeably (delta = substitute - missing, 0-5 scale).
+struct AromaDifference {
+  std::string axis;
+  double delta = 0.0;
+};
+
+/// One ranked substitute: a variety, or a lot of one when the search ran over stock.
+struct Substitute {
+  Variety variety;
+  std::optional<Lot> lot;
+  std::optional<double> alpha_today;      // lot alpha aged to the brew day (%)
+  std::string alpha_note;                 // how alpha_today was obtained, or why it was not aged
+  double similarity = 0.0;                // 0-100
+  double confidence = 0.0;                // 0-1
+  std::optional<double> amount_factor;    // grams of substitute per gram of the missing variety
+  std::string amount_basis;               // "oil 1.9 / 1.6 mL/100 g" or why there is no factor
+  std::vector<AromaDifference> differences;  // largest first
+  Eigen::VectorXd aroma;                  // intensities 0-5 per axis
+  AromaSource aroma_source = AromaSource::none;
+};
+
+/// A two-variety blend (shares by weight) that matches better than the best single substitute.
+struct SubstitutePair {
+  std::array<std::string, 2> varieties;
+  std::array<std::string, 2> lots;        // empty without stock
+  std::array<double, 2> shares{};         // fractions summing to 1
+  double similarity = 0.0;                // 0-100
+};
+
+struct SwapResult {
+  Variety missing;
+  SwapPurpose purpose = SwapPurpose::aroma;
+  Eigen::VectorXd missing_aroma;
+  AromaSource missing_source = AromaSource::none;
+  std::vector<std::string> axes;          // lexicon axis names, for the differences and charts
+  std::vector<Substitute> substitutes;    // best first
+  std::vector<SubstitutePair> pairs;      // best first; only with SwapRequest::pairs
+  bool from_stock = false;
+  std::string stock_name;
+  std::optional<Date> on;
+  IndexKind index_kind = IndexKind::exact;
+  std::size_t candidates = 0;             // varieties or lots that could be ranked
+  std::vector<std::string> notes;         // skipped lots, missing data, assumptions
+};
+
+/// Ranks substitutes for request.missing. Throws InputError for an unknown variety and Infeasible
+/// when nothing can be ranked (no other variety, or no stocked lot of a catalog variety).
+SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings = {});
+
+/// Grams of substitute per gram of the missing hop that hold the job: for aroma the ratio of total
+/// oil (oil delivered holds), for bittering the ratio of alpha acid (IBU holds, since IBU is linear in
+/// grams x alpha). nullopt when either value is missing or not positive.
+std::optional<double> amount_factor(SwapPurpose purpose, std::optional<double> missing_value,
+                                    std::optional<double> substitute_value);
+
+/// "more pine, less citrus" from differences; "close on every aroma axis" when there are none.
+std::string differences_in_words(const std::vector<AromaDifference>& differences);
+
+/// Best convex two-hop fit of a target aroma: shares (a, 1 - a) minimising
+/// ||a x1 + (1 - a) x2 - target||^2, through the blend QP solver with K = 2.
+std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::VectorXd& second,
+                                     const Eigen::VectorXd& target);
+
+}  // namespace bine
