@@ -33,6 +33,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <map>
 #include <numeric>
 
 #include "engine/aroma_profile.hpp"
@@ -57,7 +58,9 @@ std::string join_names(const std::vector<std::string>& names) {
 
 /// Everything about the candidates that does not depend on the subset.
 struct Prepared {
-  Eigen::MatrixXd gram;          // s_i^T W s_j
+  Eigen::MatrixXd gram;          // s_i^T W s_j over the pool (rows in pool order)
+  std::vector<Index> position;   // candidate -> row of gram, -1 outside the pool
+  Eigen::VectorXd self;          // s_i^T W s_i for every candidate
   Eigen::VectorXd linear;        // s_i^T W t
   double constant = 0.0;         // t^T W t
   Eigen::VectorXd ibu_per_gram;  // c_i (whirlpool share included)
@@ -185,14 +188,36 @@ Prepared prepare(const BlendRequest& request) {
   Eigen::MatrixXd s(request.target.intensity.size(), at(n));
   for (std::size_t i = 0; i < n; ++i) s.col(at(i)) = request.candidates[i].aroma;
   const Eigen::MatrixXd ws = request.target.weight.asDiagonal() * s;
-  prepared.gram = s.transpose() * ws;
+  prepared.self = s.cwiseProduct(ws).colwise().sum().transpose();
   prepared.linear = ws.transpose() * request.target.intensity;
   prepared.constant = request.target.intensity.dot(request.target.weight.cwiseProduct(request.target.intensity));
+  // IBU is linear in grams x alpha at a fixed stage and form: one bitterness-engine call per form
+  // gives the coefficient (the whirlpool calls integrate over the stand, so this matters at 1,000).
+  std::map<HopForm, double> per_gram_per_alpha;
   prepared.ibu_per_gram.resize(at(n));
-  for (std::size_t i = 0; i < n; ++i)
-    prepared.ibu_per_gram[at(i)] = request.whirlpool_share * whirlpool_ibu_per_gram(request.candidates[i], request);
+  for (std::size_t i = 0; i < n; ++i) {
+    const BlendCandidate& candidate = request.candidates[i];
+    auto found = per_gram_per_alpha.find(candidate.form);
+    if (found == per_gram_per_alpha.end()) {
+      BlendCandidate unit = candidate;
+      unit.alpha_percent = 1.0;
+      found = per_gram_per_alpha.emplace(candidate.form, whirlpool_ibu_per_gram(unit, request)).first;
+    }
+    prepared.ibu_per_gram[at(i)] = request.whirlpool_share * candidate.alpha_percent * found->second;
+  }
   if (request.bittering) prepared.bittering_per_gram = bittering_ibu_per_gram(*request.bittering, request);
   return prepared;
+}
+
+/// The Gram matrix over the pool only (a 1,000 x 1,000 one costs more than the whole search).
+void prepare_gram(Prepared& prepared, const std::vector<std::size_t>& pool, const BlendRequest& request) {
+  Eigen::MatrixXd s(request.target.intensity.size(), at(pool.size()));
+  prepared.position.assign(request.candidates.size(), -1);
+  for (std::size_t k = 0; k < pool.size(); ++k) {
+    s.col(at(k)) = request.candidates[pool[k]].aroma;
+    prepared.position[pool[k]] = at(k);
+  }
+  prepared.gram = s.transpose() * (request.target.weight.asDiagonal() * s);
 }
 
 /// a^T g <= beta as a row in the shares of `subset` (see the essay).
@@ -257,7 +282,8 @@ BlendQpSolution solve_subset(const std::vector<std::size_t>& subset, const Blend
   for (Index r = 0; r < k; ++r) {
     qp.linear[r] = prepared.linear[at(subset[static_cast<std::size_t>(r)])];
     for (Index c = 0; c < k; ++c)
-      qp.hessian(r, c) = prepared.gram(at(subset[static_cast<std::size_t>(r)]), at(subset[static_cast<std::size_t>(c)]));
+      qp.hessian(r, c) = prepared.gram(prepared.position[subset[static_cast<std::size_t>(r)]],
+                                       prepared.position[subset[static_cast<std::size_t>(c)]]);
   }
   qp.constant = prepared.constant;
   // Rows that involve only candidates outside the subset are constant; keep the rest.
@@ -291,7 +317,7 @@ std::vector<std::size_t> choose_pool(const BlendRequest& request, const Prepared
   std::vector<bool> chosen(n, false);
   // J of a single candidate: s^T W s - 2 s^T W t + t^T W t.
   std::vector<std::size_t> order = pool;
-  const auto single = [&](std::size_t i) { return prepared.gram(at(i), at(i)) - 2.0 * prepared.linear[at(i)]; };
+  const auto single = [&](std::size_t i) { return prepared.self[at(i)] - 2.0 * prepared.linear[at(i)]; };
   std::stable_sort(order.begin(), order.end(), [&](std::size_t l, std::size_t r) { return single(l) < single(r); });
   for (std::size_t k = 0; k < std::min(n, request.pool.nearest); ++k) chosen[order[k]] = true;
   for (Index a = 0; a < request.target.intensity.size(); ++a) {
@@ -371,9 +397,10 @@ BlendResult design_blend(const BlendRequest& request) {
           "(lower --rate, raise --max-varieties, or add stock)",
           request.amount, std::min(stock.size(), request.max_varieties), most));
   }
-  const Prepared prepared = prepare(request);
+  Prepared prepared = prepare(request);
   const SubsetLimits limits = gram_limits(request, prepared);
   const std::vector<std::size_t> pool = choose_pool(request, prepared);
+  prepare_gram(prepared, pool, request);
 
   BlendResult result;
   double best = std::numeric_limits<double>::infinity();
