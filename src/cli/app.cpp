@@ -14,18 +14,21 @@
 namespace bine::cli {
 namespace {
 
-/// Commands print to std::cout; while run() is active it points at the caller's stream, so tests
-/// and the fuzzer can capture (or drop) output in-process. Restored on every exit path.
-class RedirectStdout {
+/// Commands print to std::cout (and warnings or timings to std::cerr); while run() is active those
+/// point at the caller's streams, so tests and the fuzzer can capture or drop them in-process.
+/// Restored on every exit path.
+class Redirect {
  public:
-  explicit RedirectStdout(std::ostream& out) : saved_(&out == &std::cout ? nullptr : std::cout.rdbuf(out.rdbuf())) {}
-  ~RedirectStdout() {
-    if (saved_ != nullptr) std::cout.rdbuf(saved_);
+  Redirect(std::ostream& standard, std::ostream& to)
+      : standard_(standard), saved_(&standard == &to ? nullptr : standard.rdbuf(to.rdbuf())) {}
+  ~Redirect() {
+    if (saved_ != nullptr) standard_.rdbuf(saved_);
   }
-  RedirectStdout(const RedirectStdout&) = delete;
-  RedirectStdout& operator=(const RedirectStdout&) = delete;
+  Redirect(const Redirect&) = delete;
+  Redirect& operator=(const Redirect&) = delete;
 
  private:
+  std::ostream& standard_;
   std::streambuf* saved_;
 };
 
@@ -37,7 +40,8 @@ int print_error_lines(std::ostream& err, const std::vector<std::string>& lines) 
 }  // namespace
 
 int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
-  RedirectStdout redirect(out);
+  const Redirect redirect_out(std::cout, out);
+  const Redirect redirect_err(std::cerr, err);
   try {
     CLI::App app{
         "bine: find hop substitutes, design late-hop blends to a target aroma, and hold a recipe's IBU\n"

@@ -1,5 +1,7 @@
 #include "model/errors.hpp"
 
+#include <string_view>
+
 namespace bine {
 namespace {
 std::string join_lines(const std::vector<std::string>& lines) {
@@ -10,11 +12,65 @@ std::string join_lines(const std::vector<std::string>& lines) {
   }
   return out;
 }
+// Length of the valid UTF-8 sequence starting at text[i], or 0 when it is not valid UTF-8.
+std::size_t utf8_length(std::string_view text, std::size_t i) {
+  const auto byte = [&](std::size_t k) { return static_cast<unsigned char>(text[k]); };
+  const unsigned char lead = byte(i);
+  std::size_t length = 0;
+  if (lead >= 0xC2 && lead <= 0xDF) length = 2;
+  else if (lead >= 0xE0 && lead <= 0xEF) length = 3;
+  else if (lead >= 0xF0 && lead <= 0xF4) length = 4;
+  else return 0;
+  if (i + length > text.size()) return 0;
+  for (std::size_t k = 1; k < length; ++k)
+    if ((byte(i + k) & 0xC0) != 0x80) return 0;
+  if (lead == 0xE0 && byte(i + 1) < 0xA0) return 0;  // overlong
+  if (lead == 0xED && byte(i + 1) > 0x9F) return 0;  // surrogate
+  if (lead == 0xF0 && byte(i + 1) < 0x90) return 0;  // overlong
+  if (lead == 0xF4 && byte(i + 1) > 0x8F) return 0;  // beyond U+10FFFF
+  return length;
+}
+
+// User text (file content, arguments) ends up inside messages. Keep each problem on one printable
+// line: control characters and bytes that are not UTF-8 are shown as escapes (\n, \xFF).
+std::string printable(std::string_view text) {
+  std::string out;
+  out.reserve(text.size());
+  for (std::size_t i = 0; i < text.size();) {
+    const auto c = static_cast<unsigned char>(text[i]);
+    if (c >= 0x20 && c < 0x7F) {
+      out += static_cast<char>(c);
+      ++i;
+    } else if (c == '\n') {
+      out += "\\n";
+      ++i;
+    } else if (c == '\t') {
+      out += "\\t";
+      ++i;
+    } else if (const std::size_t length = c >= 0x80 ? utf8_length(text, i) : 0; length > 0) {
+      out.append(text.substr(i, length));
+      i += length;
+    } else {
+      static constexpr char kHex[] = "0123456789ABCDEF";
+      out += "\\x";
+      out += kHex[c >> 4];
+      out += kHex[c & 0xF];
+      ++i;
+    }
+  }
+  return out;
+}
+
+std::vector<std::string> printable(std::vector<std::string> lines) {
+  for (auto& line : lines) line = printable(line);
+  return lines;
+}
+
 }  // namespace
 
-InputError::InputError(std::string line) : std::runtime_error(line), lines_{std::move(line)} {}
+InputError::InputError(std::string line) : InputError(std::vector<std::string>{std::move(line)}) {}
 InputError::InputError(std::vector<std::string> lines)
-    : std::runtime_error(join_lines(lines)), lines_(std::move(lines)) {}
+    : std::runtime_error(join_lines(printable(lines))), lines_(printable(std::move(lines))) {}
 
 void Diagnostics::add(const std::string& pointer, const std::string& message) {
   lines_.push_back(file_ + ": " + (pointer.empty() ? std::string("/") : pointer) + ": " + message);

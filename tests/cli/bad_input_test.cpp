@@ -1,0 +1,98 @@
+// End-to-end: the bine binary over every malformed file and argument list in tests/bad-input.
+// Each case must end with an exit status (no signal) equal to the case's (2 bad input, 3
+// infeasible), print one "bine: " line per problem naming the file and JSON pointer, contain the
+// case's message fragment, and leak no exception or sanitizer text.
+#include <doctest/doctest.h>
+#include <nlohmann/json.hpp>
+
+#include <fstream>
+#include <string>
+#include <vector>
+
+#include "cli/run_binary.hpp"
+
+namespace {
+
+namespace fs = std::filesystem;
+
+const fs::path kCases = fs::path(BINE_TEST_DIR) / "bad-input";
+
+std::string replace_all(std::string text, const std::string& from, const std::string& to) {
+  for (std::size_t at = text.find(from); at != std::string::npos; at = text.find(from, at + to.size()))
+    text.replace(at, from.size(), to);
+  return text;
+}
+
+nlohmann::json load_cases() {
+  std::ifstream in(kCases / "cases.json");
+  REQUIRE(in.good());
+  return nlohmann::json::parse(in).at("cases");
+}
+
+/// A 100 MB file that starts like a catalog: far beyond any real catalog, so it must be refused
+/// before it is read into memory.
+fs::path make_big_file(const fs::path& folder) {
+  const fs::path path = folder / "huge-catalog.json";
+  std::ofstream out(path, std::ios::binary);
+  out << "{\"varieties\": [";
+  const std::string block(1 << 20, ' ');
+  for (int i = 0; i < 100; ++i) out << block;
+  out << "]}\n";
+  return path;
+}
+
+const std::vector<std::string> kLeaks{"what()", "terminate", "exception", "nlohmann", "Assertion",
+                                      "AddressSanitizer", "runtime error", "internal error", "[json."};
+
+}  // namespace
+
+TEST_CASE("bad-input suite has at least 40 cases, each with a status and a message") {
+  const auto cases = load_cases();
+  CHECK(cases.size() >= 40);
+  for (const auto& item : cases) {
+    INFO(item.dump());
+    CHECK(item.contains("args"));
+    CHECK((item.at("status") == 2 || item.at("status") == 3));
+    CHECK(!item.at("message").get<std::string>().empty());
+    if (item.contains("file") && item.at("file") != "no-such-file.json")
+      CHECK(fs::exists(kCases / "files" / item.at("file").get<std::string>()));
+  }
+}
+
+TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem") {
+  const bine::test::TempDir scratch;
+  const fs::path big = make_big_file(scratch.path());
+  REQUIRE(fs::file_size(big) > 100u * 1000u * 1000u);
+  int run = 0;
+  for (const auto& item : load_cases()) {
+    const std::string name = item.at("name");
+    const std::string file = item.contains("file") ? (kCases / "files" / item.at("file").get<std::string>()).string() : "";
+    auto expand = [&](std::string text) {
+      text = replace_all(text, "{file}", file);
+      text = replace_all(text, "{big}", big.string());
+      text = replace_all(text, "{data}", BINE_SOURCE_DATA_DIR);
+      return replace_all(text, "{xff}", "\xff");
+    };
+    std::vector<std::string> args;
+    for (const auto& arg : item.at("args")) args.push_back(expand(arg.get<std::string>()));
+    const auto result = bine::test::run_bine(args);
+    ++run;
+    INFO("case: " << name);
+    INFO("stderr: " << result.err);
+    CHECK_MESSAGE(result.exited, "killed by signal");
+    CHECK(result.status == item.at("status").get<int>());
+    CHECK(result.err.find(expand(item.at("message").get<std::string>())) != std::string::npos);
+    for (const auto& leak : kLeaks) CHECK(result.err.find(leak) == std::string::npos);
+    if (item.contains("names"))
+      for (const auto& needle : item.at("names")) CHECK(result.err.find(expand(needle.get<std::string>())) != std::string::npos);
+    std::istringstream lines(result.err);
+    std::string line;
+    int count = 0;
+    while (std::getline(lines, line)) {
+      CHECK(line.rfind("bine: ", 0) == 0);
+      ++count;
+    }
+    CHECK(count >= 1);
+  }
+  CHECK(run >= 40);
+}
