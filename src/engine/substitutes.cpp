@@ -16,7 +16,8 @@
 //    are closest to the missing variety's. The blend's oil and chemistry descriptors are the
 //    share-weighted means of the two hops' standardised values (a linear first approximation; oil
 //    compounds interact, METHODS.md "Oil compounds and aroma"). Pairs are kept when their similarity
-//    beats the best single substitute.
+//    beats the best single substitute by min_pair_gain points and the smaller share is at least
+//    min_pair_share (a 96/4 "blend" is one hop with a pinch of another).
 #include "engine/substitutes.hpp"
 
 #include <fmt/format.h>
@@ -274,10 +275,10 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
         const Candidate& b = candidates[order[y]];
         if (a.variety == b.variety || !a.descriptors.has_aroma() || !b.descriptors.has_aroma()) continue;
         const auto shares = two_hop_shares(a.descriptors.aroma, b.descriptors.aroma, wanted.aroma);
-        if (shares[0] < 1e-9 || shares[1] < 1e-9) continue;  // one hop alone: not a pair
+        if (std::min(shares[0], shares[1]) < settings.min_pair_share) continue;  // one hop, really
         const Descriptors mixed = blend_descriptors(a.descriptors, b.descriptors, shares[0]);
         const double similarity = vectorizer.similarity(wanted, mixed).percent();
-        if (similarity <= best_single) continue;
+        if (similarity < best_single + settings.min_pair_gain) continue;
         result.pairs.push_back({{a.variety->name, b.variety->name},
                                 {a.lot ? a.lot->lot : "", b.lot ? b.lot->lot : ""},
                                 shares,
@@ -290,7 +291,8 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     });
     if (result.pairs.size() > request.top) result.pairs.resize(request.top);
     if (result.pairs.empty())
-      result.notes.push_back("no two-variety blend beats the best single substitute");
+      result.notes.push_back(fmt::format("no two-variety blend beats the best single substitute by {:g} points or more",
+                                         settings.min_pair_gain));
   }
   return result;
 }

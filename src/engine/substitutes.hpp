@@ -25,6 +25,8 @@ struct SubstituteSettings {
   double difference_threshold = 0.75;    // aroma intensity gap (0-5 scale) worth a word
   std::size_t max_differences = 3;
   std::size_t pair_pool = 12;            // best single substitutes tried pairwise for --pairs
+  double min_pair_share = 0.10;          // a pair whose smaller share is below this is one hop, really
+  double min_pair_gain = 0.5;            // similarity points a pair must gain over the best single
   double default_stability = 65.0;       // % left after 6 months when a variety has none ("fair")
 };
 

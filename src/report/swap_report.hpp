@@ -1,0 +1,26 @@
+#pragma once
+// Rendering a swap: text tables for the terminal, one JSON document, and a self-contained HTML page
+// with grouped bars (missing variety vs substitute per aroma axis).
+#include <nlohmann/json.hpp>
+
+#include <ostream>
+#include <string>
+
+#include "engine/substitutes.hpp"
+#include "model/quantity.hpp"
+
+namespace bine {
+
+/// The JSON document of `bine swap --json`. Keys: query, for, index, stock (or null), substitutes
+/// (variety, lot, on_hand_g, alpha_today_percent, similarity, confidence, amount_factor (null when
+/// unknown), amount_basis, differences, aroma_delta, chemistry), pairs (with --pairs), notes.
+/// Canonical units; numbers rounded so the same input gives byte-identical output.
+nlohmann::json swap_to_json(const SwapResult& result, bool with_pairs);
+
+/// Text for the terminal: ranked substitutes, chemistry side by side, pairs, notes, cautions.
+void render_swap(std::ostream& out, const SwapResult& result, UnitSystem units, bool with_pairs);
+
+/// A self-contained HTML page (inline CSS and SVG, no scripts or external files).
+std::string swap_html(const SwapResult& result, UnitSystem units, bool with_pairs);
+
+}  // namespace bine
