@@ -49,3 +49,24 @@ TEST_CASE("catalog show --json is byte-identical run to run, whatever the name's
   CHECK(check_twice({"catalog", "show", "IRONMARSH", "--json"}) == exact);
   CHECK(check_twice({"--units", "us", "catalog", "show", "ironmarsh", "--json"}) == exact);
 }
+
+TEST_CASE("ibu --json is byte-identical run to run and unit-system independent") {
+  const std::string metric = check_twice({"ibu", kExamples + "/pale-ale.json", "--json"});
+  CHECK(check_twice({"--units", "us", "ibu", kExamples + "/pale-ale.json", "--json"}) == metric);
+  CHECK(check_twice({"ibu", kExamples + "/hazy-ipa.json", "--model", "rager", "--json"}) != metric);
+}
+
+TEST_CASE("age --json is byte-identical run to run") {
+  check_twice({"age", "--alpha", "11.2", "--packaged", "2025-10-01", "--stored", "-1 C,vacuum", "--variety",
+               "Ironmarsh", "--on", "2026-06-01", "--json"});
+}
+
+TEST_CASE("rebalance --json is byte-identical run to run") {
+  check_twice({"rebalance", kExamples + "/pale-ale.json", "--lot", "Keelstone=15.1", "--json"});
+}
+
+TEST_CASE("blend --json is byte-identical run to run (faiss search and QP included)") {
+  check_twice({"blend", "--target", "floral=4,citrus=4", "--recipe", kExamples + "/pale-ale.json", "--json"});
+  check_twice({"blend", "--like", "Tidewell", "--recipe", kExamples + "/pale-ale.json", "--stock",
+               kExamples + "/stock.json", "--max-varieties", "2", "--json"});
+}
