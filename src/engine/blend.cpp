@@ -334,6 +334,30 @@ std::vector<std::size_t> choose_pool(const BlendRequest& request, const Prepared
   return result;
 }
 
+/// The pool plus the `per_axis` least and most bitter candidates per gram and the largest lots.
+std::vector<std::size_t> widen_pool(const std::vector<std::size_t>& pool, const BlendRequest& request,
+                                    const Prepared& prepared) {
+  const std::size_t n = request.candidates.size();
+  std::vector<bool> chosen(n, false);
+  for (const std::size_t i : pool) chosen[i] = true;
+  std::vector<std::size_t> order(n);
+  std::iota(order.begin(), order.end(), 0);
+  const std::size_t take = std::min(n, request.pool.per_axis);
+  const auto add_first = [&](auto less) {
+    std::stable_sort(order.begin(), order.end(), less);
+    for (std::size_t k = 0; k < take; ++k) chosen[order[k]] = true;
+  };
+  add_first([&](std::size_t l, std::size_t r) { return prepared.ibu_per_gram[at(l)] < prepared.ibu_per_gram[at(r)]; });
+  add_first([&](std::size_t l, std::size_t r) { return prepared.ibu_per_gram[at(l)] > prepared.ibu_per_gram[at(r)]; });
+  add_first([&](std::size_t l, std::size_t r) {
+    return request.candidates[l].on_hand_g.value_or(0.0) > request.candidates[r].on_hand_g.value_or(0.0);
+  });
+  std::vector<std::size_t> result;
+  for (std::size_t i = 0; i < n; ++i)
+    if (chosen[i]) result.push_back(i);
+  return result;
+}
+
 /// Calls visit(subset) for every subset of `pool` of size 1..k, smaller subsets first.
 template <typename Visit>
 void for_each_subset(const std::vector<std::size_t>& pool, std::size_t k, Visit visit) {
@@ -400,24 +424,34 @@ BlendResult design_blend(const BlendRequest& request) {
   Prepared prepared = prepare(request);
   const SubsetLimits limits = gram_limits(request, prepared);
   const std::vector<std::size_t> pool = choose_pool(request, prepared);
-  prepare_gram(prepared, pool, request);
 
   BlendResult result;
   double best = std::numeric_limits<double>::infinity();
   std::vector<std::size_t> best_subset;
   Eigen::VectorXd best_shares;
-  for_each_subset(pool, request.max_varieties, [&](const std::vector<std::size_t>& subset) {
-    ++result.subsets_solved;
-    const BlendQpSolution solution = solve_subset(subset, request, prepared, limits);
-    if (solution.feasible && solution.objective < best - 1e-12) {  // ties keep the smaller, earlier subset
-      best = solution.objective;
-      best_subset = subset;
-      best_shares = solution.shares;
-    }
-  });
+  const auto search = [&](const std::vector<std::size_t>& candidates) {
+    prepare_gram(prepared, candidates, request);
+    for_each_subset(candidates, request.max_varieties, [&](const std::vector<std::size_t>& subset) {
+      ++result.subsets_solved;
+      const BlendQpSolution solution = solve_subset(subset, request, prepared, limits);
+      if (solution.feasible && solution.objective < best - 1e-12) {  // ties keep the smaller, earlier subset
+        best = solution.objective;
+        best_subset = subset;
+        best_shares = solution.shares;
+      }
+    });
+  };
+  search(pool);
+  result.pool_size = pool.size();
+  if (best_subset.empty() && !request.pool.exhaustive) {
+    // The limits may exclude the whole pool (too bitter for the IBU left, too little stock): widen it
+    // with the least and most bitter candidates per gram and the largest lots, and search again.
+    std::vector<std::size_t> wider = widen_pool(pool, request, prepared);
+    search(wider);
+    result.pool_size = wider.size();
+  }
   if (best_subset.empty()) explain_infeasible(request, prepared);
 
-  result.pool_size = pool.size();
   result.target = request.target.intensity;
   result.weight = request.target.weight;
   result.objective = std::max(0.0, best);
