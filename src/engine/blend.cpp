@@ -23,7 +23,7 @@
 // Search. Solving every subset of up to K candidates is exact but grows as N^3. We solve every
 // subset of a pool: the `nearest` best single candidates (for one candidate J is its weighted
 // distance to the target, so these are the target's nearest neighbours in the objective's own
-// metric) plus the `per_axis` strongest candidates on each axis the target names, so that a citrus
+// metric, found with the faiss inner-product index of hop_index.hpp) plus the `per_axis` strongest candidates on each axis the target names, so that a citrus
 // hop and a floral hop that are each far from a citrus-floral target still meet. The benchmark
 // (tools/bench/blend_bench.cpp) measures the gap to the exhaustive search.
 #include "engine/blend.hpp"
@@ -38,6 +38,7 @@
 
 #include "engine/aroma_profile.hpp"
 #include "engine/blend_solver.hpp"
+#include "engine/hop_index.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -315,17 +316,38 @@ std::vector<std::size_t> choose_pool(const BlendRequest& request, const Prepared
   std::iota(pool.begin(), pool.end(), 0);
   if (request.pool.exhaustive) return pool;
   std::vector<bool> chosen(n, false);
-  // J of a single candidate: s^T W s - 2 s^T W t + t^T W t.
-  std::vector<std::size_t> order = pool;
-  const auto single = [&](std::size_t i) { return prepared.self[at(i)] - 2.0 * prepared.linear[at(i)]; };
-  std::stable_sort(order.begin(), order.end(), [&](std::size_t l, std::size_t r) { return single(l) < single(r); });
-  for (std::size_t k = 0; k < std::min(n, request.pool.nearest); ++k) chosen[order[k]] = true;
+  // Nearest neighbours through the faiss index. J of a single candidate is
+  // s^T W s - 2 s^T W t + t^T W t, so with rows [W^1/2 s, -s^T W s / 2] and the query [W^1/2 t, 1]
+  // the largest inner product is the smallest J: an exact inner-product search in J's own metric.
+  const Index axes = request.target.intensity.size();
+  const int dimensions = static_cast<int>(axes) + 1;
+  const Eigen::VectorXd root_w = request.target.weight.cwiseSqrt();
+  std::vector<float> rows(n * static_cast<std::size_t>(dimensions));
+  for (std::size_t i = 0; i < n; ++i) {
+    float* row = rows.data() + i * static_cast<std::size_t>(dimensions);
+    for (Index a = 0; a < axes; ++a) row[a] = static_cast<float>(root_w[a] * request.candidates[i].aroma[a]);
+    row[axes] = static_cast<float>(-0.5 * prepared.self[at(i)]);
+  }
+  std::vector<float> query(static_cast<std::size_t>(dimensions), 1.0f);
+  for (Index a = 0; a < axes; ++a) query[static_cast<std::size_t>(a)] = static_cast<float>(root_w[a] * request.target.intensity[a]);
+  const HopIndex index(dimensions, rows);
+  for (const IndexHit& hit : index.search(query.data(), std::min(n, request.pool.nearest)))
+    chosen[static_cast<std::size_t>(hit.id)] = true;
   for (Index a = 0; a < request.target.intensity.size(); ++a) {
     if (!request.target.named[static_cast<std::size_t>(a)] || request.target.intensity[a] <= 0.0) continue;
     std::vector<std::size_t> strongest = pool;
-    std::stable_sort(strongest.begin(), strongest.end(), [&](std::size_t l, std::size_t r) {
-      return request.candidates[l].aroma[a] > request.candidates[r].aroma[a];
-    });
+    // Strong on this axis and quiet on the axes the target wants at 0: intensity on the axis less
+    // the weighted size of the candidate's off-target aroma.
+    const auto score = [&](std::size_t i) {
+      const Eigen::VectorXd& s = request.candidates[i].aroma;
+      double off = 0.0;
+      for (Index b = 0; b < s.size(); ++b)
+        if (request.target.intensity[b] <= 0.0) off += request.target.weight[b] * s[b] * s[b];
+      return s[a] - std::sqrt(off);
+    };
+    std::vector<double> scores(n);
+    for (std::size_t i = 0; i < n; ++i) scores[i] = score(i);
+    std::stable_sort(strongest.begin(), strongest.end(), [&](std::size_t l, std::size_t r) { return scores[l] > scores[r]; });
     for (std::size_t k = 0; k < std::min(n, request.pool.per_axis); ++k) chosen[strongest[k]] = true;
   }
   std::vector<std::size_t> result;
