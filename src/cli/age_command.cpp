@@ -26,21 +26,6 @@ struct AgeOptions {
   bool json = false;
 };
 
-// A number option with its unit and bounds; adds a problem line and returns nullopt when bad.
-std::optional<double> read_option(const std::string& option, const std::string& text, Dimension dimension, double min,
-                                  double max, std::string_view expected, std::vector<std::string>& problems) {
-  const ParsedQuantity parsed = parse_quantity(text, dimension);
-  if (!parsed.value) {
-    problems.push_back(fmt::format("{}: \"{}\": {} (expected {})", option, text, parsed.error, expected));
-    return std::nullopt;
-  }
-  if (*parsed.value < min || *parsed.value > max) {
-    problems.push_back(fmt::format("{}: \"{}\": out of range (expected {})", option, text, expected));
-    return std::nullopt;
-  }
-  return parsed.value;
-}
-
 std::optional<Storage> read_storage(const std::string& text, std::vector<std::string>& problems) {
   const auto comma = text.rfind(',');
   const std::string expected = "\"TEMP,PACKAGE\" such as \"-2 C,vacuum\"; package vacuum, sealed or open";
@@ -53,9 +38,8 @@ std::optional<Storage> read_storage(const std::string& text, std::vector<std::st
   word.erase(word.find_last_not_of(' ') + 1);
   const auto package = package_from(word);
   if (!package) problems.push_back(fmt::format("--stored: \"{}\": unknown package \"{}\" (expected {})", text, word, expected));
-  const auto temperature = read_option("--stored", text.substr(0, comma), Dimension::temperature,
-                                       limits::storage_temperature.min, limits::storage_temperature.max,
-                                       "a storage temperature from -40 C to 40 C, such as \"-2 C\" or \"28 F\"", problems);
+  const auto temperature = read_option_quantity("--stored", text.substr(0, comma), Dimension::temperature,
+                                                limits::storage_temperature, problems);
   if (!package || !temperature) return std::nullopt;
   return Storage{*temperature, *package};
 }
@@ -64,8 +48,7 @@ std::optional<Storage> read_storage(const std::string& text, std::vector<std::st
 AgeQuery validate(const GlobalOptions& globals, const AgeOptions& options) {
   std::vector<std::string> problems;
   AgeQuery query;
-  const auto alpha = read_option("--alpha", options.alpha, Dimension::percent, limits::alpha_acid.min,
-                                 limits::alpha_acid.max, "alpha acid % from 0.5 to 22, such as 11.2", problems);
+  const auto alpha = read_option_quantity("--alpha", options.alpha, Dimension::percent, limits::alpha_acid, problems);
   const auto storage = read_storage(options.stored, problems);
   std::optional<Date> packaged;
   std::optional<BrewDay> on;
@@ -90,15 +73,12 @@ AgeQuery validate(const GlobalOptions& globals, const AgeOptions& options) {
       stability = *word;
       query.stability_source = fmt::format("--stability {}, common-practice class", options.stability);
     } else {
-      stability = read_option("--stability", options.stability, Dimension::percent, limits::stability.min,
-                              limits::stability.max, "% of alpha left after 6 months at 20 C, 1-100, or good, fair, poor",
-                              problems);
+      stability = read_option_quantity("--stability", options.stability, Dimension::percent, limits::stability, problems);
       query.stability_source = "--stability";
     }
   }
   if (!options.hsi.empty()) {
-    if (auto hsi = read_option("--hsi", options.hsi, Dimension::percent, limits::hsi.min, limits::hsi.max,
-                               "a Hop Storage Index from 0.15 to 2.0", problems)) {
+    if (auto hsi = read_option_quantity("--hsi", options.hsi, Dimension::number, limits::hsi, problems)) {
       stability = 100.0 - percent_lost_from_hsi(*hsi);
       query.stability_source = fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi,
                                            percent_lost_from_hsi(*hsi));

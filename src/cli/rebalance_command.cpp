@@ -63,24 +63,17 @@ std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& r
     const auto comma = rest.find(',');
     const std::string part = trim(rest.substr(0, comma));
     if (first) {
-      const ParsedQuantity alpha = parse_quantity(part, Dimension::percent);
-      if (!alpha.value || *alpha.value < limits::alpha_acid.min || *alpha.value > limits::alpha_acid.max) {
-        problems.push_back(fmt::format("--lot: \"{}\": alpha \"{}\" is not a percentage from 0.5 to 22 (expected {})",
-                                       text, part, kLotForm));
+      if (auto alpha = read_option_quantity("--lot \"" + text + "\"", part, Dimension::percent, limits::alpha_acid, problems))
+        lot.alpha_percent = *alpha;
+      else
         ok = false;
-      } else {
-        lot.alpha_percent = *alpha.value;
-      }
       first = false;
     } else if (part.rfind("oil=", 0) == 0) {
-      const ParsedQuantity oil = parse_quantity(part.substr(4), Dimension::oil_content);
-      if (!oil.value || *oil.value < limits::total_oil.min || *oil.value > limits::total_oil.max) {
-        problems.push_back(fmt::format("--lot: \"{}\": \"{}\" is not a total oil from 0.1 to 5 mL/100 g (expected {})",
-                                       text, part, kLotForm));
+      if (auto oil = read_option_quantity("--lot \"" + text + "\"", part.substr(4), Dimension::oil_content, limits::total_oil,
+                                          problems))
+        lot.total_oil = *oil;
+      else
         ok = false;
-      } else {
-        lot.total_oil = *oil.value;
-      }
     } else {
       problems.push_back(fmt::format("--lot: \"{}\": unknown part \"{}\" (expected {})", text, part, kLotForm));
       ok = false;

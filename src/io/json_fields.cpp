@@ -185,19 +185,37 @@ std::optional<bool> FieldReader::boolean(std::string_view key, bool required) {
   return value->get<bool>();
 }
 
-bool check_bounds(double value, Dimension dimension, const Bounds& bounds, const std::string& pointer,
-                  Diagnostics& diagnostics) {
+std::optional<std::string> bounds_problem(double value, Dimension dimension, const Bounds& bounds) {
   const bool below = bounds.min_exclusive ? value <= bounds.min : value < bounds.min;
-  if (!below && value <= bounds.max) return true;
-  std::string message = fmt::format("{} is outside the range for {} (expected {})", value_with_unit(value, dimension),
-                                    bounds.what, bounds_text(bounds, dimension));
+  if (!below && value <= bounds.max) return std::nullopt;
   if (dimension == Dimension::percent && value > 0.0 && value < 1.0 && value * 100.0 >= bounds.min &&
       value * 100.0 <= bounds.max) {
-    message = fmt::format("{} looks like a fraction; {} is in % (write {} for {} %)", number_text(value),
-                          bounds.what, number_text(value * 100.0), number_text(value * 100.0));
+    return fmt::format("{} looks like a fraction; {} is in % (write {} for {} %)", number_text(value), bounds.what,
+                       number_text(value * 100.0), number_text(value * 100.0));
   }
-  diagnostics.add(pointer, message);
-  return false;
+  return fmt::format("{} is outside the range for {} (expected {})", value_with_unit(value, dimension), bounds.what,
+                     bounds_text(bounds, dimension));
+}
+
+bool check_bounds(double value, Dimension dimension, const Bounds& bounds, const std::string& pointer,
+                  Diagnostics& diagnostics) {
+  auto problem = bounds_problem(value, dimension, bounds);
+  if (problem) diagnostics.add(pointer, *problem);
+  return !problem;
+}
+
+std::optional<double> read_option_quantity(std::string_view option, std::string_view text, Dimension dimension,
+                                           const Bounds& bounds, std::vector<std::string>& problems) {
+  const ParsedQuantity parsed = parse_quantity(text, dimension);
+  if (!parsed.value) {
+    problems.push_back(fmt::format("{}: {}", option, parsed.error));
+    return std::nullopt;
+  }
+  if (auto problem = bounds_problem(*parsed.value, dimension, bounds)) {
+    problems.push_back(fmt::format("{}: {}", option, *problem));
+    return std::nullopt;
+  }
+  return parsed.value;
 }
 
 std::optional<double> read_quantity(const nlohmann::json& value, Dimension dimension, const Bounds& bounds,

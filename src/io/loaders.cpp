@@ -413,7 +413,7 @@ json recipe_to_json(const Recipe& recipe) {
     json h;
     if (!hop.variety.empty()) h["variety"] = hop.variety;
     if (!hop.lot.empty()) h["lot"] = hop.lot;
-    h["amount"] = fmt::format("{:.2f} g", hop.grams);
+    h["amount"] = fmt::format("{:.6g} g", hop.grams);
     if (hop.alpha_acid) h["alpha_acid"] = std::round(*hop.alpha_acid * 100.0) / 100.0;
     h["use"] = std::string(to_string(hop.use));
     if (hop.minutes) h["time"] = fmt::format("{:.6g} min", *hop.minutes);
