@@ -67,8 +67,8 @@ enum class LateAmount { grams, oil_ml };
 
 /// How many candidates feed the subset search.
 struct PoolSettings {
-  std::size_t nearest = 10;          // best single varieties (nearest profiles in the weighted metric)
-  std::size_t per_axis = 4;          // strongest candidates on each axis the target names
+  std::size_t nearest = 24;          // best single varieties (nearest profiles in the weighted metric)
+  std::size_t per_axis = 8;          // strongest candidates on each axis the target names
   bool exhaustive = false;           // every candidate (for benchmarks and tests)
 };
 
