@@ -9,12 +9,6 @@
 
 namespace bine {
 
-double rounded(double value, int decimals) {
-  const double scale = std::pow(10.0, decimals);
-  const double r = std::round(value * scale) / scale;
-  return r == 0.0 ? 0.0 : r;  // no "-0.0" in JSON
-}
-
 std::string format_minutes(double minutes) {
   if (minutes >= 1440.0) return fmt::format("{:g} d", rounded(minutes / 1440.0, 2));
   return fmt::format("{:g} min", rounded(minutes, 1));

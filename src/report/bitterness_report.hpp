@@ -1,6 +1,6 @@
 #pragma once
 // Rendering a recipe's bitterness breakdown (bine ibu) as a text table or JSON, plus the small
-// pieces the rebalance renderer shares (times, cautions, rounding).
+// pieces the rebalance renderer shares (times, cautions).
 #include <nlohmann/json.hpp>
 
 #include <ostream>
@@ -8,6 +8,7 @@
 
 #include "engine/recipe_bitterness.hpp"
 #include "model/quantity.hpp"
+#include "report/output_format.hpp"
 
 namespace bine {
 
@@ -21,8 +22,6 @@ std::string format_minutes(double minutes);
 /// "boil 60 min", "whirlpool 20 min at 80 C", "dry-hop 4 d", "first-wort".
 std::string describe_use(HopUse use, std::optional<double> minutes, std::optional<double> temperature_c,
                          UnitSystem units);
-/// `value` rounded to `decimals` places, for stable, readable JSON.
-double rounded(double value, int decimals);
 
 /// Hot-wort caution (whirlpool / hop stand present).
 std::string_view hot_wort_caution();

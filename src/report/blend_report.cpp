@@ -1,5 +1,7 @@
 #include "report/blend_report.hpp"
 
+#include "report/output_format.hpp"
+
 #include <fmt/format.h>
 
 #include <cmath>
@@ -17,26 +19,6 @@ std::string part_name(const BlendPart& part) {
 }
 
 /// Rounds for JSON so output is stable across platforms' last-bit differences.
-double rounded(double value, int digits) {
-  const double scale = std::pow(10.0, digits);
-  const double r = std::round(value * scale) / scale;
-  return r == 0.0 ? 0.0 : r;  // no "-0.0"
-}
-
-std::string html_escape(std::string_view text) {
-  std::string out;
-  for (char c : text) {
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
-    }
-  }
-  return out;
-}
-
 }  // namespace
 
 std::vector<std::string> blend_cautions(const BlendResult& result) {

@@ -1,5 +1,7 @@
 #include "report/swap_report.hpp"
 
+#include "report/output_format.hpp"
+
 #include <fmt/format.h>
 
 #include <cmath>
@@ -10,12 +12,6 @@
 
 namespace bine {
 namespace {
-
-double rounded(double value, int decimals) {
-  const double scale = std::pow(10.0, decimals);
-  const double r = std::round(value * scale) / scale;
-  return r == 0.0 ? 0.0 : r;  // no "-0"
-}
 
 nlohmann::json range_or_null(const std::optional<Range>& range) {
   if (!range) return nullptr;
@@ -53,20 +49,6 @@ std::string words_text(const Substitute& s, const SwapResult& r) {
   if (!r.missing_aroma.size() || r.missing_source == AromaSource::none || s.aroma_source == AromaSource::none)
     return "n/a (no aroma data)";
   return differences_in_words(s.differences);
-}
-
-std::string html_escape(const std::string& text) {
-  std::string out;
-  for (char c : text) {
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
-    }
-  }
-  return out;
 }
 
 // Grouped bars: for each aroma axis, the missing variety's intensity beside the substitute's (0-5).
