@@ -24,8 +24,12 @@
 // subset of a pool: the `nearest` best single candidates (for one candidate J is its weighted
 // distance to the target, so these are the target's nearest neighbours in the objective's own
 // metric, found with the faiss inner-product index of hop_index.hpp) plus the `per_axis` strongest candidates on each axis the target names, so that a citrus
-// hop and a floral hop that are each far from a citrus-floral target still meet. The benchmark
-// (tools/bench/blend_bench.cpp) measures the gap to the exhaustive search.
+// hop and a floral hop that are each far from a citrus-floral target still meet. The pool alone
+// misses targets whose optimum is (nearly) exact but needs a partner that is neither near the target
+// nor strong on a named axis (the complement of a near candidate). So the pool's best subset is then
+// improved by local search over the whole catalog: add any candidate while below K members, or swap
+// one member for any candidate, keeping the best move, until no move lowers J (each round K x N QPs).
+// The benchmark (tools/bench/blend_bench.cpp) measures the gap to the exhaustive search.
 #include "engine/blend.hpp"
 
 #include <fmt/format.h>
@@ -61,6 +65,8 @@ std::string join_names(const std::vector<std::string>& names) {
 struct Prepared {
   Eigen::MatrixXd gram;          // s_i^T W s_j over the pool (rows in pool order)
   std::vector<Index> position;   // candidate -> row of gram, -1 outside the pool
+  Eigen::MatrixXd aroma;         // s_i as columns, every candidate
+  Eigen::MatrixXd weighted;      // W s_i as columns
   Eigen::VectorXd self;          // s_i^T W s_i for every candidate
   Eigen::VectorXd linear;        // s_i^T W t
   double constant = 0.0;         // t^T W t
@@ -186,9 +192,11 @@ namespace {
 Prepared prepare(const BlendRequest& request) {
   Prepared prepared;
   const std::size_t n = request.candidates.size();
-  Eigen::MatrixXd s(request.target.intensity.size(), at(n));
+  Eigen::MatrixXd& s = prepared.aroma;
+  s.resize(request.target.intensity.size(), at(n));
   for (std::size_t i = 0; i < n; ++i) s.col(at(i)) = request.candidates[i].aroma;
-  const Eigen::MatrixXd ws = request.target.weight.asDiagonal() * s;
+  prepared.weighted = request.target.weight.asDiagonal() * s;
+  const Eigen::MatrixXd& ws = prepared.weighted;
   prepared.self = s.cwiseProduct(ws).colwise().sum().transpose();
   prepared.linear = ws.transpose() * request.target.intensity;
   prepared.constant = request.target.intensity.dot(request.target.weight.cwiseProduct(request.target.intensity));
@@ -219,6 +227,13 @@ void prepare_gram(Prepared& prepared, const std::vector<std::size_t>& pool, cons
     prepared.position[pool[k]] = at(k);
   }
   prepared.gram = s.transpose() * (request.target.weight.asDiagonal() * s);
+}
+
+/// s_i^T W s_j: from the pool's Gram matrix, or computed for candidates outside the pool.
+double gram_entry(const Prepared& prepared, std::size_t i, std::size_t j) {
+  const Index r = prepared.position[i], c = prepared.position[j];
+  if (r >= 0 && c >= 0) return prepared.gram(r, c);
+  return prepared.aroma.col(at(i)).dot(prepared.weighted.col(at(j)));
 }
 
 /// a^T g <= beta as a row in the shares of `subset` (see the essay).
@@ -283,8 +298,7 @@ BlendQpSolution solve_subset(const std::vector<std::size_t>& subset, const Blend
   for (Index r = 0; r < k; ++r) {
     qp.linear[r] = prepared.linear[at(subset[static_cast<std::size_t>(r)])];
     for (Index c = 0; c < k; ++c)
-      qp.hessian(r, c) = prepared.gram(prepared.position[subset[static_cast<std::size_t>(r)]],
-                                       prepared.position[subset[static_cast<std::size_t>(c)]]);
+      qp.hessian(r, c) = gram_entry(prepared, subset[static_cast<std::size_t>(r)], subset[static_cast<std::size_t>(c)]);
   }
   qp.constant = prepared.constant;
   // Rows that involve only candidates outside the subset are constant; keep the rest.
@@ -473,6 +487,45 @@ BlendResult design_blend(const BlendRequest& request) {
     result.pool_size = wider.size();
   }
   if (best_subset.empty()) explain_infeasible(request, prepared);
+  if (!request.pool.exhaustive) {
+    // Local improvement over the whole catalog: below K members try adding each candidate, at K try
+    // replacing each member with each candidate; take the best move (ties: the first in candidate
+    // order) and repeat until no move lowers J. Each round is at most K x N small QPs.
+    const std::size_t n = request.candidates.size();
+    std::vector<std::size_t> trial;
+    for (std::size_t round = 0; round < request.pool.swap_rounds && best > 1e-12; ++round) {
+      std::vector<std::size_t> move_subset;
+      Eigen::VectorXd move_shares;
+      double move = best;
+      const auto consider = [&](const std::vector<std::size_t>& subset) {
+        ++result.subsets_solved;
+        const BlendQpSolution solution = solve_subset(subset, request, prepared, limits);
+        if (solution.feasible && solution.objective < move - 1e-12) {
+          move = solution.objective;
+          move_subset = subset;
+          move_shares = solution.shares;
+        }
+      };
+      for (std::size_t j = 0; j < n; ++j) {
+        if (std::find(best_subset.begin(), best_subset.end(), j) != best_subset.end()) continue;
+        if (best_subset.size() < request.max_varieties) {
+          trial = best_subset;
+          trial.push_back(j);
+          consider(trial);
+          continue;
+        }
+        for (std::size_t k = 0; k < best_subset.size(); ++k) {
+          trial = best_subset;
+          trial[k] = j;
+          consider(trial);
+        }
+      }
+      if (move_subset.empty()) break;
+      best = move;
+      best_subset = move_subset;
+      best_shares = move_shares;
+    }
+  }
 
   result.target = request.target.intensity;
   result.weight = request.target.weight;

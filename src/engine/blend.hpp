@@ -69,6 +69,7 @@ enum class LateAmount { grams, oil_ml };
 struct PoolSettings {
   std::size_t nearest = 24;          // best single varieties (nearest profiles in the weighted metric)
   std::size_t per_axis = 8;          // strongest candidates on each axis the target names
+  std::size_t swap_rounds = 4;       // local-improvement rounds over the whole catalog after the pool
   bool exhaustive = false;           // every candidate (for benchmarks and tests)
 };
 

@@ -4,6 +4,7 @@
 #include <doctest/doctest.h>
 
 #include <random>
+#include <string>
 
 #include "engine/bitterness.hpp"
 #include "engine/blend.hpp"
@@ -107,6 +108,36 @@ TEST_CASE("a target equal to one variety's profile returns that variety alone wi
   CHECK(result.parts[0].variety == "twin");
   CHECK(result.parts[0].oil_share == doctest::Approx(1.0));
   CHECK(result.fit == doctest::Approx(0.0).epsilon(1e-9));
+}
+
+TEST_CASE("local search finds a complementary pair that the pool leaves out (hand arithmetic)") {
+  // Target citrus 3, floral 3 (axes 0, 1; the other axes weigh 0.25 at target 0). A = (citrus 5,
+  // floral 1) and B = (citrus 1, floral 5): x = (1/2, 1/2) gives P = (3, 3), J = 0. No other blend
+  // reaches 0: 30 near candidates (3, 3) carry 1.0 on axis 2 (J = 0.25 x 1 = 0.25 each, and any mix
+  // keeps axis 2 at 1), 10 strong citrus (5, 4.5) and 10 strong floral (4.5, 5) have citrus + floral
+  // = 9.5, above the target's 6. The pool takes the 24 nearest (near candidates, J 0.25 < J of A =
+  // 4 + 4 = 8) and the 8 strongest per axis (the strong ones come first in the list and tie A and B
+  // at score 5), so neither A nor B is in it.
+  BlendRequest request = brew();
+  for (int i = 0; i < 30; ++i) request.candidates.push_back(candidate("near" + std::to_string(i), axes({{0, 3.0}, {1, 3.0}, {2, 1.0}}), 1.5, 5.0));
+  for (int i = 0; i < 10; ++i) request.candidates.push_back(candidate("citrus" + std::to_string(i), axes({{0, 5.0}, {1, 4.5}}), 1.5, 5.0));
+  for (int i = 0; i < 10; ++i) request.candidates.push_back(candidate("floral" + std::to_string(i), axes({{0, 4.5}, {1, 5.0}}), 1.5, 5.0));
+  request.candidates.push_back(candidate("A", axes({{0, 5.0}, {1, 1.0}}), 1.5, 5.0));
+  request.candidates.push_back(candidate("B", axes({{0, 1.0}, {1, 5.0}}), 1.5, 5.0));
+  request.target = bine::target_from_spec(axes({{0, 3.0}, {1, 3.0}}), named({0, 1}), 0.25);
+  SUBCASE("the pool alone misses it") {
+    request.pool.swap_rounds = 0;
+    CHECK(bine::design_blend(request).objective > 0.01);
+  }
+  SUBCASE("local search finds A and B half and half") {
+    const auto result = bine::design_blend(request);
+    CHECK(result.objective == doctest::Approx(0.0).epsilon(1e-9));
+    REQUIRE(result.parts.size() == 2);
+    CHECK(result.parts[0].oil_share == doctest::Approx(0.5));
+    CHECK(result.parts[1].oil_share == doctest::Approx(0.5));
+    CHECK(((result.parts[0].variety == "A" && result.parts[1].variety == "B") ||
+           (result.parts[0].variety == "B" && result.parts[1].variety == "A")));
+  }
 }
 
 TEST_CASE("total IBU equals the target to 0.05 IBU in every blend (100 random requests)") {
