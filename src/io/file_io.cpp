@@ -45,7 +45,11 @@ void write_file_atomically(const std::filesystem::path& path, std::string_view c
   if (!std::filesystem::is_directory(folder, ec))
     throw InputError(fmt::format("{}: folder {} does not exist", name, folder.string()));
   if (std::filesystem::is_directory(path, ec)) throw InputError(name + ": is a directory (expected a file name)");
-  std::string temp = (folder / ("." + path.filename().string() + ".XXXXXX")).string();
+  // Built piecewise: GCC 12 at -O3 warns falsely (-Wrestrict) on "." + std::string.
+  std::string temp_name = ".";
+  temp_name += path.filename().string();
+  temp_name += ".XXXXXX";
+  std::string temp = (folder / temp_name).string();
   const int fd = ::mkstemp(temp.data());
   if (fd < 0) throw InputError(fmt::format("{}: cannot write in {} ({})", name, folder.string(), std::strerror(errno)));
   auto fail = [&](const char* what) {
