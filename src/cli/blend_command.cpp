@@ -2,6 +2,7 @@
 #include <fmt/format.h>
 
 #include <charconv>
+#include <cmath>
 #include <iostream>
 #include <memory>
 
@@ -54,6 +55,7 @@ std::optional<double> number_with_unit(std::string text, std::string_view unit) 
   double value = 0.0;
   const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
   if (error != std::errc() || end != text.data() + text.size() || text.empty()) return std::nullopt;
+  if (!std::isfinite(value)) return std::nullopt;  // from_chars reads "nan" and "inf"
   return value;
 }
 
