@@ -16,11 +16,11 @@ namespace bine::cli {
 namespace {
 
 struct AgeOptions {
-  std::string alpha;       // "11.2" or "11.2 %"
-  std::string packaged;    // YYYY-MM-DD
-  std::string stored;      // "TEMP,PACKAGE"
+  std::string alpha;     // "11.2" or "11.2 %"
+  std::string packaged;  // YYYY-MM-DD
+  std::string stored;    // "TEMP,PACKAGE"
   std::string variety;
-  std::string stability;   // % remaining after 6 months at 20 C, or good|fair|poor
+  std::string stability;  // % remaining after 6 months at 20 C, or good|fair|poor
   std::string hsi;
   std::string on;
   bool json = false;
@@ -37,7 +37,8 @@ std::optional<Storage> read_storage(const std::string& text, std::vector<std::st
   word.erase(0, word.find_first_not_of(' '));
   word.erase(word.find_last_not_of(' ') + 1);
   const auto package = package_from(word);
-  if (!package) problems.push_back(fmt::format("--stored: \"{}\": unknown package \"{}\" (expected {})", text, word, expected));
+  if (!package)
+    problems.push_back(fmt::format("--stored: \"{}\": unknown package \"{}\" (expected {})", text, word, expected));
   const auto temperature = read_option_quantity("--stored", text.substr(0, comma), Dimension::temperature,
                                                 limits::storage_temperature, problems);
   if (!package || !temperature) return std::nullopt;
@@ -64,24 +65,26 @@ AgeQuery validate(const GlobalOptions& globals, const AgeOptions& options) {
   }
   const int sources = !options.variety.empty() + !options.stability.empty() + !options.hsi.empty();
   if (sources != 1)
-    problems.push_back(fmt::format("--variety, --stability, --hsi: {} given (expected exactly one, to say how well the "
-                                   "variety keeps)",
-                                   sources));
+    problems.push_back(
+        fmt::format("--variety, --stability, --hsi: {} given (expected exactly one, to say how well the "
+                    "variety keeps)",
+                    sources));
   std::optional<double> stability;
   if (!options.stability.empty()) {
     if (auto word = stability_of_class(options.stability)) {
       stability = *word;
       query.stability_source = fmt::format("--stability {}, common-practice class", options.stability);
     } else {
-      stability = read_option_quantity("--stability", options.stability, Dimension::percent, limits::stability, problems);
+      stability =
+          read_option_quantity("--stability", options.stability, Dimension::percent, limits::stability, problems);
       query.stability_source = "--stability";
     }
   }
   if (!options.hsi.empty()) {
     if (auto hsi = read_option_quantity("--hsi", options.hsi, Dimension::number, limits::hsi, problems)) {
       stability = 100.0 - percent_lost_from_hsi(*hsi);
-      query.stability_source = fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi,
-                                           percent_lost_from_hsi(*hsi));
+      query.stability_source =
+          fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi, percent_lost_from_hsi(*hsi));
     }
   }
   if (!options.variety.empty() && sources == 1) {
@@ -110,8 +113,10 @@ void run_age(const GlobalOptions& globals, const AgeOptions& options) {
   // 1. Read the question; 2. age the alpha; 3. render.
   const AgeQuery query = validate(globals, options);
   const AgedAlpha aged = age_alpha(query.history);
-  if (options.json) std::cout << age_to_json(query, aged).dump(2) << '\n';
-  else render_age(std::cout, query, aged, globals.unit_system());
+  if (options.json)
+    std::cout << age_to_json(query, aged).dump(2) << '\n';
+  else
+    render_age(std::cout, query, aged, globals.unit_system());
 }
 
 }  // namespace

@@ -3,7 +3,6 @@
 #include "cli/app.hpp"
 
 #include <CLI/CLI.hpp>
-
 #include <exception>
 #include <iostream>
 #include <new>

@@ -26,8 +26,8 @@ struct BlendOptions {
   std::string recipe;
   std::string stock;
   std::size_t max_varieties = 3;
-  std::string rate;                  // g/L, default 4
-  std::string oil_dose;              // mL/hL
+  std::string rate;      // g/L, default 4
+  std::string oil_dose;  // mL/hL
   std::optional<double> split;
   std::optional<double> ibu;
   std::string bittering;
@@ -70,12 +70,14 @@ void validate(const BlendOptions& o) {
   if (!o.rate.empty()) {
     const auto rate = number_with_unit(o.rate, "g/L");
     if (!rate || *rate <= 0.0 || *rate > 40.0)
-      problems.push_back(fmt::format("--rate: {}: not a rate (expected g/L above 0 and at most 40, e.g. 4g/L)", o.rate));
+      problems.push_back(
+          fmt::format("--rate: {}: not a rate (expected g/L above 0 and at most 40, e.g. 4g/L)", o.rate));
   }
   if (!o.oil_dose.empty()) {
     const auto dose = number_with_unit(o.oil_dose, "mL/hL");
     if (!dose || *dose <= 0.0 || *dose > 100.0)
-      problems.push_back(fmt::format("--oil-dose: {}: not an oil dose (expected mL/hL above 0 and at most 100, e.g. 1.5mL/hL)", o.oil_dose));
+      problems.push_back(fmt::format(
+          "--oil-dose: {}: not an oil dose (expected mL/hL above 0 and at most 100, e.g. 1.5mL/hL)", o.oil_dose));
   }
   if (o.split && !(*o.split >= 0.0 && *o.split <= 1.0))
     problems.push_back(fmt::format("--split: {:g}: out of range (expected the whirlpool share 0-1)", *o.split));
@@ -140,7 +142,8 @@ void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
     return globals.load();
   }();
   const std::optional<Stock> stock = options.stock.empty() ? std::nullopt : std::optional(load_stock(options.stock));
-  const std::optional<Recipe> recipe = options.recipe.empty() ? std::nullopt : std::optional(load_recipe(options.recipe));
+  const std::optional<Recipe> recipe =
+      options.recipe.empty() ? std::nullopt : std::optional(load_recipe(options.recipe));
   // 2. The target, the candidates, and what the recipe keeps.
   BlendRequest request;
   request.target = target_from(options, data);
@@ -171,15 +174,18 @@ void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
     return design_blend(request);
   }();
   // 4. Render and write.
-  BlendReportContext context{&data.lexicon, &plan, recipe ? recipe->name : std::string(), stock.has_value(), plan.notes};
+  BlendReportContext context{&data.lexicon, &plan, recipe ? recipe->name : std::string(), stock.has_value(),
+                             plan.notes};
   context.notes.insert(context.notes.end(), candidates.notes.begin(), candidates.notes.end());
   context.notes.push_back(fmt::format("searched {} subsets of a pool of {} candidates (of {})", result.subsets_solved,
                                       result.pool_size, request.candidates.size()));
   if (!options.html.empty()) write_file_atomically(options.html, blend_to_html(result, context, units));
   if (!options.write.empty() && recipe)
     write_file_atomically(options.write, recipe_to_json(blended_recipe(*recipe, plan, result)).dump(2) + "\n");
-  if (options.json) std::cout << blend_to_json(result, context).dump(2) << '\n';
-  else render_blend_text(std::cout, result, context, units);
+  if (options.json)
+    std::cout << blend_to_json(result, context).dump(2) << '\n';
+  else
+    render_blend_text(std::cout, result, context, units);
 }
 
 }  // namespace
@@ -196,9 +202,11 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals) {
   blend->add_option("--oil-dose", options->oil_dose, "or fix the oil delivered, in mL of oil per hL of wort");
   blend->add_option("--split", options->split, "whirlpool share of the late hops 0-1 (default the recipe's, else 0.3)");
   blend->add_option("--ibu", options->ibu, "IBU to hold (default the recipe's target_ibu, else its current total)");
-  blend->add_option("--bittering", options->bittering, "bittering variety re-solved to hold IBU (default the recipe's largest boil addition)");
+  blend->add_option("--bittering", options->bittering,
+                    "bittering variety re-solved to hold IBU (default the recipe's largest boil addition)");
   blend->add_flag("--no-bittering", options->no_bittering, "no bittering charge: the late hops must give the IBU");
-  blend->add_option("--others", options->others, "weight of the axes the target does not name, aimed at 0 (default 0.25)");
+  blend->add_option("--others", options->others,
+                    "weight of the axes the target does not name, aimed at 0 (default 0.25)");
   blend->add_option("--volume", options->volume, "batch volume without --recipe (e.g. 20L)");
   blend->add_option("--gravity", options->gravity, "boil gravity without --recipe (default 1.050)");
   blend->add_flag("--json", options->json, "print JSON (canonical units: g, C, min)");

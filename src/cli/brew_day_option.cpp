@@ -14,8 +14,7 @@ Date date_from_option(const std::string& option, const std::string& text) {
 }
 
 BrewDay brew_day_from_option(const std::string& text) {
-  if (text.empty())
-    return BrewDay{std::chrono::floor<std::chrono::days>(std::chrono::system_clock::now()), true};
+  if (text.empty()) return BrewDay{std::chrono::floor<std::chrono::days>(std::chrono::system_clock::now()), true};
   return BrewDay{date_from_option("--on", text), false};
 }
 

@@ -9,7 +9,7 @@ namespace bine::cli {
 
 struct BrewDay {
   Date date;
-  bool from_clock = false;   // --on was not given
+  bool from_clock = false;  // --on was not given
 };
 
 /// Parses --on (YYYY-MM-DD), or takes today's UTC date when `text` is empty. Throws InputError

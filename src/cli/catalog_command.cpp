@@ -64,8 +64,10 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals) {
   show->callback([&globals, options] {
     const DataSet data = globals.load();
     const Variety& variety = require_variety(data.catalog, options->name, "catalog show");
-    if (options->json) std::cout << variety_to_json(variety).dump(2) << '\n';
-    else render_variety(std::cout, variety, data.lexicon);
+    if (options->json)
+      std::cout << variety_to_json(variety).dump(2) << '\n';
+    else
+      render_variety(std::cout, variety, data.lexicon);
   });
 
   auto* check = catalog->add_subcommand("check", "validate catalog, stock, recipe or lexicon files");

@@ -26,14 +26,16 @@ struct IbuOptions {
 BitternessSettings validate(const IbuOptions& options) {
   std::vector<std::string> problems;
   BitternessSettings settings;
-  if (auto model = ibu_model_from(options.model)) settings.model = *model;
-  else problems.push_back(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
+  if (auto model = ibu_model_from(options.model))
+    settings.model = *model;
+  else
+    problems.push_back(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
   if (!(options.pellet_factor >= 0.5 && options.pellet_factor <= 2.0))
     problems.push_back(fmt::format("--pellet-factor: {:g}: out of range (expected 0.5-2.0; common practice 1.10)",
                                    options.pellet_factor));
   if (!(options.calibration > 0.0 && options.calibration <= 5.0))
-    problems.push_back(
-        fmt::format("--calibration: {:g}: out of range (expected above 0 and at most 5; 1.0 = none)", options.calibration));
+    problems.push_back(fmt::format("--calibration: {:g}: out of range (expected above 0 and at most 5; 1.0 = none)",
+                                   options.calibration));
   if (!problems.empty()) throw InputError(problems);
   settings.pellet_factor = options.pellet_factor;
   settings.calibration = options.calibration;
@@ -54,8 +56,10 @@ void run_ibu(const GlobalOptions& globals, const IbuOptions& options) {
     return recipe_bitterness(recipe, data.catalog, settings);
   }();
   // 3. Render.
-  if (options.json) std::cout << bitterness_to_json(recipe, bitterness).dump(2) << '\n';
-  else render_bitterness(std::cout, recipe, bitterness, globals.unit_system());
+  if (options.json)
+    std::cout << bitterness_to_json(recipe, bitterness).dump(2) << '\n';
+  else
+    render_bitterness(std::cout, recipe, bitterness, globals.unit_system());
 }
 
 }  // namespace

@@ -22,7 +22,7 @@ namespace {
 
 struct RebalanceOptions {
   std::string recipe;
-  std::vector<std::string> lots;   // "VARIETY=ALPHA%[,oil=ML]"
+  std::vector<std::string> lots;  // "VARIETY=ALPHA%[,oil=ML]"
   std::string stock;
   std::string on;
   std::string model = "tinseth";
@@ -39,7 +39,8 @@ std::string trim(std::string text) {
 }
 
 // One --lot value; problems go to `problems`.
-std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& recipe, std::vector<std::string>& problems) {
+std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& recipe,
+                                        std::vector<std::string>& problems) {
   const auto equals = text.find('=');
   if (equals == std::string::npos || trim(text.substr(0, equals)).empty()) {
     problems.push_back(fmt::format("--lot: \"{}\": no variety or no alpha acid (expected {})", text, kLotForm));
@@ -50,10 +51,11 @@ std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& r
   if (!recipe_uses_variety(recipe, lot.variety)) {
     std::vector<std::string> used;
     for (const auto& hop : recipe.hops)
-      if (!hop.variety.empty() && std::find(used.begin(), used.end(), hop.variety) == used.end()) used.push_back(hop.variety);
+      if (!hop.variety.empty() && std::find(used.begin(), used.end(), hop.variety) == used.end())
+        used.push_back(hop.variety);
     const std::string hint = did_you_mean(lot.variety, used);
-    problems.push_back(fmt::format("--lot: \"{}\": the recipe does not use {} ({}the recipe uses {})", text, lot.variety,
-                                   hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
+    problems.push_back(fmt::format("--lot: \"{}\": the recipe does not use {} ({}the recipe uses {})", text,
+                                   lot.variety, hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
     return std::nullopt;
   }
   std::string rest = text.substr(equals + 1);
@@ -63,14 +65,15 @@ std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& r
     const auto comma = rest.find(',');
     const std::string part = trim(rest.substr(0, comma));
     if (first) {
-      if (auto alpha = read_option_quantity("--lot \"" + text + "\"", part, Dimension::percent, limits::alpha_acid, problems))
+      if (auto alpha =
+              read_option_quantity("--lot \"" + text + "\"", part, Dimension::percent, limits::alpha_acid, problems))
         lot.alpha_percent = *alpha;
       else
         ok = false;
       first = false;
     } else if (part.rfind("oil=", 0) == 0) {
-      if (auto oil = read_option_quantity("--lot \"" + text + "\"", part.substr(4), Dimension::oil_content, limits::total_oil,
-                                          problems))
+      if (auto oil = read_option_quantity("--lot \"" + text + "\"", part.substr(4), Dimension::oil_content,
+                                          limits::total_oil, problems))
         lot.total_oil = *oil;
       else
         ok = false;
@@ -94,8 +97,10 @@ struct Plan {
 Plan validate(const RebalanceOptions& options) {
   std::vector<std::string> problems;
   Plan plan;
-  if (auto model = ibu_model_from(options.model)) plan.settings.model = *model;
-  else problems.push_back(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
+  if (auto model = ibu_model_from(options.model))
+    plan.settings.model = *model;
+  else
+    problems.push_back(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
   if (options.lots.empty() == options.stock.empty())
     problems.emplace_back(options.lots.empty()
                               ? "--lot, --stock: neither given (expected --lot VARIETY=ALPHA% ... or --stock FILE)"
@@ -118,7 +123,8 @@ std::vector<ReplacementLot> lots_from_options(const RebalanceOptions& options, c
     if (!lot) continue;
     for (const auto& earlier : lots)
       if (fold_name(earlier.variety) == fold_name(lot->variety))
-        problems.push_back(fmt::format("--lot: \"{}\": {} is given twice (expected one --lot per variety)", text, lot->variety));
+        problems.push_back(
+            fmt::format("--lot: \"{}\": {} is given twice (expected one --lot per variety)", text, lot->variety));
     lots.push_back(std::move(*lot));
   }
   if (!problems.empty()) throw InputError(problems);
@@ -153,16 +159,19 @@ void run_rebalance(const GlobalOptions& globals, const RebalanceOptions& options
     write_file_atomically(options.write, recipe_to_json(result.recipe_after).dump(2) + "\n");
     result.notes.push_back(fmt::format("rebalanced recipe written to {}", options.write));
   }
-  if (options.json) std::cout << rebalance_to_json(recipe, context, result).dump(2) << '\n';
-  else render_rebalance(std::cout, recipe, context, result, globals.unit_system());
+  if (options.json)
+    std::cout << rebalance_to_json(recipe, context, result).dump(2) << '\n';
+  else
+    render_rebalance(std::cout, recipe, context, result, globals.unit_system());
 }
 
 }  // namespace
 
 void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals) {
   auto options = std::make_shared<RebalanceOptions>();
-  auto* rebalance = app.add_subcommand("rebalance", "new grams for a recipe when the lots' alpha (or oil) differ, "
-                                                    "holding the recipe's IBU");
+  auto* rebalance = app.add_subcommand("rebalance",
+                                       "new grams for a recipe when the lots' alpha (or oil) differ, "
+                                       "holding the recipe's IBU");
   rebalance->add_option("RECIPE", options->recipe, "recipe file (JSON)")->required();
   rebalance->add_option("--lot", options->lots, "a lot to brew with: VARIETY=ALPHA%[,oil=ML] (repeatable)");
   rebalance->add_option("--stock", options->stock, "take each variety's lot from this stock file (most on hand)");

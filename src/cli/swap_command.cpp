@@ -34,11 +34,14 @@ SwapRequest validate(const SwapOptions& options, BrewDay& brew_day) {
   std::vector<std::string> problems;
   SwapRequest request;
   request.missing = options.variety;
-  if (const auto purpose = swap_purpose_from(options.purpose)) request.purpose = *purpose;
-  else problems.push_back(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
+  if (const auto purpose = swap_purpose_from(options.purpose))
+    request.purpose = *purpose;
+  else
+    problems.push_back(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
   if (options.top < 1 || options.top > 100)
     problems.push_back(fmt::format("--top: {}: out of range (expected a whole number from 1 to 100)", options.top));
-  else request.top = static_cast<std::size_t>(options.top);
+  else
+    request.top = static_cast<std::size_t>(options.top);
   request.pairs = options.pairs;
   try {
     brew_day = brew_day_from_option(options.on);
@@ -47,7 +50,8 @@ SwapRequest validate(const SwapOptions& options, BrewDay& brew_day) {
     problems.insert(problems.end(), e.lines().begin(), e.lines().end());
   }
   if (!options.on.empty() && options.stock.empty())
-    problems.push_back(fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.on));
+    problems.push_back(
+        fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.on));
   if (!problems.empty()) throw InputError(problems);
   return request;
 }
@@ -76,7 +80,8 @@ int run_swap(const GlobalOptions& globals, const SwapOptions& options) {
     result = find_substitutes(data.catalog, data.lexicon, request);
   }
   if (result.from_stock && brew_day.from_clock)
-    result.notes.push_back(fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(brew_day.date)));
+    result.notes.push_back(
+        fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(brew_day.date)));
   if (data.catalog.demo)
     result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
 
@@ -84,8 +89,10 @@ int run_swap(const GlobalOptions& globals, const SwapOptions& options) {
   PhaseTimer timer(globals.timings, "render");
   if (!options.html.empty())
     write_file_atomically(options.html, swap_html(result, globals.unit_system(), options.pairs));
-  if (options.json) std::cout << swap_to_json(result, options.pairs).dump(2) << '\n';
-  else render_swap(std::cout, result, globals.unit_system(), options.pairs);
+  if (options.json)
+    std::cout << swap_to_json(result, options.pairs).dump(2) << '\n';
+  else
+    render_swap(std::cout, result, globals.unit_system(), options.pairs);
   return 0;
 }
 

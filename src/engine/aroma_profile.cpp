@@ -13,19 +13,22 @@ namespace bine {
 
 std::string_view to_string(AromaSource source) {
   switch (source) {
-    case AromaSource::explicit_values: return "aroma intensities";
-    case AromaSource::tags: return "descriptor tags";
-    case AromaSource::oils: return "oil composition";
-    case AromaSource::none: return "none";
+    case AromaSource::explicit_values:
+      return "aroma intensities";
+    case AromaSource::tags:
+      return "descriptor tags";
+    case AromaSource::oils:
+      return "oil composition";
+    case AromaSource::none:
+      return "none";
   }
   return "none";
 }
 
 Eigen::VectorXd aroma_from_oils(const Variety& variety, const Lexicon& lexicon) {
   // Typical shares (% of oil), midpoints of METHODS.md "Hop chemistry for data validation".
-  static const std::map<std::string, double> typical{{"myrcene", 45.0}, {"humulene", 24.0},
-                                                     {"caryophyllene", 9.0}, {"farnesene", 10.0},
-                                                     {"linalool", 0.8}, {"geraniol", 0.5}};
+  static const std::map<std::string, double> typical{{"myrcene", 45.0},   {"humulene", 24.0}, {"caryophyllene", 9.0},
+                                                     {"farnesene", 10.0}, {"linalool", 0.8},  {"geraniol", 0.5}};
   Eigen::VectorXd scores = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(lexicon.size()));
   if (variety.oils.empty()) return scores;
   for (const auto& association : lexicon.compounds()) {
@@ -54,9 +57,12 @@ AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon) {
   if (!variety.tags.empty()) {
     std::vector<int> counts(lexicon.size(), 0);
     for (const auto& tag : variety.tags) {
-      if (auto index = lexicon.axis_for_tag(tag)) ++counts[*index];
-      else if (auto axis = lexicon.axis_index(tag)) ++counts[*axis];  // an axis name used as a tag
-      else profile.ignored_tags.push_back(tag);
+      if (auto index = lexicon.axis_for_tag(tag))
+        ++counts[*index];
+      else if (auto axis = lexicon.axis_index(tag))
+        ++counts[*axis];  // an axis name used as a tag
+      else
+        profile.ignored_tags.push_back(tag);
     }
     bool any = false;
     for (std::size_t i = 0; i < counts.size(); ++i) {

@@ -8,7 +8,6 @@
 //     aroma_from_oils);
 //  4. else nothing: the profile is empty and engines must say the variety lacks aroma data.
 #include <Eigen/Dense>
-
 #include <string>
 #include <vector>
 
@@ -21,9 +20,9 @@ enum class AromaSource { explicit_values, tags, oils, none };
 std::string_view to_string(AromaSource source);
 
 struct AromaProfile {
-  Eigen::VectorXd intensity;               // one entry per lexicon axis, 0-5; all 0 when source is none
+  Eigen::VectorXd intensity;  // one entry per lexicon axis, 0-5; all 0 when source is none
   AromaSource source = AromaSource::none;
-  std::vector<std::string> ignored_tags;   // tags the lexicon does not know
+  std::vector<std::string> ignored_tags;  // tags the lexicon does not know
 };
 
 /// The aroma profile of a variety (see the rules above).

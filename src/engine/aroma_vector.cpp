@@ -146,7 +146,8 @@ std::vector<float> Vectorizer::embed(const Descriptors& d) const {
   const double aroma_norm = d.aroma.size() ? d.aroma.norm() : 0.0;
   if (d.has_aroma() && aroma_norm > 0.0) {
     const double scale = std::sqrt(w.aroma / total) / aroma_norm;
-    for (Eigen::Index i = 0; i < d.aroma.size(); ++i) out[at + static_cast<std::size_t>(i)] = static_cast<float>(d.aroma[i] * scale);
+    for (Eigen::Index i = 0; i < d.aroma.size(); ++i)
+      out[at + static_cast<std::size_t>(i)] = static_cast<float>(d.aroma[i] * scale);
   }
   at += lexicon_->size();
   // One angle-encoded block: features with a value share the block weight by their emphasis.
@@ -163,8 +164,10 @@ std::vector<float> Vectorizer::embed(const Descriptors& d) const {
       out[at + 1] = static_cast<float>(scale * std::sin(phi));
     }
   };
-  put_angles(d.oils, [](std::size_t) { return 1.0; }, w.oils);
-  put_angles(d.chemistry, [&](std::size_t f) { return w.chemistry_emphasis[f]; }, w.chemistry);
+  put_angles(
+      d.oils, [](std::size_t) { return 1.0; }, w.oils);
+  put_angles(
+      d.chemistry, [&](std::size_t f) { return w.chemistry_emphasis[f]; }, w.chemistry);
   return out;
 }
 
@@ -202,8 +205,10 @@ PairSimilarity Vectorizer::similarity(const Descriptors& a, const Descriptors& b
     weighted += effective * sum / both;
     covered += effective;
   };
-  angle_block(a.oils, b.oils, [](std::size_t) { return 1.0; }, w.oils);
-  angle_block(a.chemistry, b.chemistry, [&](std::size_t f) { return w.chemistry_emphasis[f]; }, w.chemistry);
+  angle_block(
+      a.oils, b.oils, [](std::size_t) { return 1.0; }, w.oils);
+  angle_block(
+      a.chemistry, b.chemistry, [&](std::size_t f) { return w.chemistry_emphasis[f]; }, w.chemistry);
 
   PairSimilarity result;
   if (covered <= 0.0 || total <= 0.0) return result;

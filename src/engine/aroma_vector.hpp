@@ -3,7 +3,6 @@
 // (aroma, oil composition, chemistry), whose inner products are weighted similarities.
 // See aroma_vector.cpp for the essay (blocks, encoding, weights, missing data, confidence).
 #include <Eigen/Dense>
-
 #include <array>
 #include <optional>
 #include <string_view>
@@ -51,7 +50,7 @@ struct VectorSettings {
 
 /// A hop's descriptors before weighting: what each block knows, and what it does not.
 struct Descriptors {
-  Eigen::VectorXd aroma;                  // intensities 0-5 per lexicon axis (all 0 when absent)
+  Eigen::VectorXd aroma;  // intensities 0-5 per lexicon axis (all 0 when absent)
   AromaSource aroma_source = AromaSource::none;
   std::vector<std::optional<double>> oils;                          // standardised share per compound
   std::array<std::optional<double>, kChemistryFeatures> chemistry;  // standardised alpha, beta, cohumulone, oil

@@ -58,9 +58,7 @@ double effective_minutes(const HopAddition& hop, const WortContext& wort) {
 
 }  // namespace
 
-std::string_view to_string(IbuModel model) {
-  return model == IbuModel::rager ? "rager" : "tinseth";
-}
+std::string_view to_string(IbuModel model) { return model == IbuModel::rager ? "rager" : "tinseth"; }
 
 std::optional<IbuModel> ibu_model_from(std::string_view text) {
   if (text == "tinseth") return IbuModel::tinseth;

@@ -17,8 +17,8 @@ std::optional<IbuModel> ibu_model_from(std::string_view text);
 
 struct BitternessSettings {
   IbuModel model = IbuModel::tinseth;
-  double pellet_factor = 1.10;      // utilization multiplier for pellets and powder (common practice)
-  double calibration = 1.0;         // brewhouse calibration factor on every addition
+  double pellet_factor = 1.10;  // utilization multiplier for pellets and powder (common practice)
+  double calibration = 1.0;     // brewhouse calibration factor on every addition
 };
 
 /// The wort the hops go into: volume at the end of the boil, boil gravity (the recipe's OG is used),
@@ -33,8 +33,8 @@ struct WortContext {
 WortContext wort_of(const Recipe& recipe);
 
 struct AdditionBitterness {
-  double effective_minutes = 0.0;   // boil minutes + boil-equivalent stand minutes
-  double utilization = 0.0;         // fraction of alpha acid turned into measured IBU (incl. factors)
+  double effective_minutes = 0.0;  // boil minutes + boil-equivalent stand minutes
+  double utilization = 0.0;        // fraction of alpha acid turned into measured IBU (incl. factors)
   double ibu = 0.0;
 };
 

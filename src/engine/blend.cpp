@@ -23,13 +23,13 @@
 // Search. Solving every subset of up to K candidates is exact but grows as N^3. We solve every
 // subset of a pool: the `nearest` best single candidates (for one candidate J is its weighted
 // distance to the target, so these are the target's nearest neighbours in the objective's own
-// metric, found with the faiss inner-product index of hop_index.hpp) plus the `per_axis` strongest candidates on each axis the target names, so that a citrus
-// hop and a floral hop that are each far from a citrus-floral target still meet. The pool alone
-// misses targets whose optimum is (nearly) exact but needs a partner that is neither near the target
-// nor strong on a named axis (the complement of a near candidate). So the pool's best subset is then
-// improved by local search over the whole catalog: add any candidate while below K members, or swap
-// one member for any candidate, keeping the best move, until no move lowers J (each round K x N QPs).
-// The benchmark (tools/bench/blend_bench.cpp) measures the gap to the exhaustive search.
+// metric, found with the faiss inner-product index of hop_index.hpp) plus the `per_axis` strongest candidates on each
+// axis the target names, so that a citrus hop and a floral hop that are each far from a citrus-floral target still
+// meet. The pool alone misses targets whose optimum is (nearly) exact but needs a partner that is neither near the
+// target nor strong on a named axis (the complement of a near candidate). So the pool's best subset is then improved by
+// local search over the whole catalog: add any candidate while below K members, or swap one member for any candidate,
+// keeping the best move, until no move lowers J (each round K x N QPs). The benchmark (tools/bench/blend_bench.cpp)
+// measures the gap to the exhaustive search.
 #include "engine/blend.hpp"
 
 #include <fmt/format.h>
@@ -128,13 +128,15 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
       candidate.on_hand_g = lot.on_hand_g;
       if (!usable(*variety, label, candidate)) continue;
       const std::optional<double> oil =
-          lot.total_oil ? lot.total_oil : (variety->total_oil ? std::optional(variety->total_oil->mid()) : std::nullopt);
+          lot.total_oil ? lot.total_oil
+                        : (variety->total_oil ? std::optional(variety->total_oil->mid()) : std::nullopt);
       if (!oil || *oil <= 0.0) {
         no_oil.push_back(label);
         continue;
       }
       candidate.oil_ml_per_100g = *oil;
-      candidate.alpha_percent = lot.alpha_acid ? *lot.alpha_acid : (variety->alpha_acid ? variety->alpha_acid->mid() : 0.0);
+      candidate.alpha_percent =
+          lot.alpha_acid ? *lot.alpha_acid : (variety->alpha_acid ? variety->alpha_acid->mid() : 0.0);
       set.candidates.push_back(std::move(candidate));
     }
   }
@@ -144,7 +146,8 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   if (!no_oil.empty())
     set.notes.push_back(fmt::format("{} skipped: no total oil value ({})", no_oil.size(), join_names(no_oil)));
   if (!unknown.empty())
-    set.notes.push_back(fmt::format("{} lots skipped: variety not in any catalog ({})", unknown.size(), join_names(unknown)));
+    set.notes.push_back(
+        fmt::format("{} lots skipped: variety not in any catalog ({})", unknown.size(), join_names(unknown)));
   return set;
 }
 
@@ -250,7 +253,8 @@ std::pair<Eigen::RowVectorXd, double> share_row(const GramRow& row, const std::v
 }
 
 /// Grams of each subset member for shares x.
-Eigen::VectorXd grams_for(const Eigen::VectorXd& x, const std::vector<std::size_t>& subset, const BlendRequest& request) {
+Eigen::VectorXd grams_for(const Eigen::VectorXd& x, const std::vector<std::size_t>& subset,
+                          const BlendRequest& request) {
   Eigen::VectorXd u(x.size());
   for (std::size_t k = 0; k < subset.size(); ++k) u[at(k)] = x[at(k)] / request.candidates[subset[k]].oil_ml_per_100g;
   if (request.amount_kind == LateAmount::grams) return request.amount * u / u.sum();
@@ -258,7 +262,7 @@ Eigen::VectorXd grams_for(const Eigen::VectorXd& x, const std::vector<std::size_
 }
 
 struct SubsetLimits {
-  std::vector<GramRow> rows;      // a^T g <= beta over all candidates
+  std::vector<GramRow> rows;  // a^T g <= beta over all candidates
   std::optional<GramRow> equality;
 };
 
@@ -270,7 +274,8 @@ SubsetLimits gram_limits(const BlendRequest& request, const Prepared& prepared) 
     limits.rows.push_back({prepared.ibu_per_gram, room});  // bittering charge >= 0
     if (request.bittering->on_hand_g && prepared.bittering_per_gram > 0.0) {
       // (room - c^T g) / u_b + g_shared <= on hand
-      GramRow row{-prepared.ibu_per_gram / prepared.bittering_per_gram, *request.bittering->on_hand_g - room / prepared.bittering_per_gram};
+      GramRow row{-prepared.ibu_per_gram / prepared.bittering_per_gram,
+                  *request.bittering->on_hand_g - room / prepared.bittering_per_gram};
       if (!request.bittering->lot.empty())
         for (Index i = 0; i < n; ++i)
           if (request.candidates[static_cast<std::size_t>(i)].lot == request.bittering->lot) row.a[i] += 1.0;
@@ -343,7 +348,8 @@ std::vector<std::size_t> choose_pool(const BlendRequest& request, const Prepared
     row[axes] = static_cast<float>(-0.5 * prepared.self[at(i)]);
   }
   std::vector<float> query(static_cast<std::size_t>(dimensions), 1.0f);
-  for (Index a = 0; a < axes; ++a) query[static_cast<std::size_t>(a)] = static_cast<float>(root_w[a] * request.target.intensity[a]);
+  for (Index a = 0; a < axes; ++a)
+    query[static_cast<std::size_t>(a)] = static_cast<float>(root_w[a] * request.target.intensity[a]);
   const HopIndex index(dimensions, rows);
   for (const IndexHit& hit : index.search(query.data(), std::min(n, request.pool.nearest)))
     chosen[static_cast<std::size_t>(hit.id)] = true;
@@ -361,7 +367,8 @@ std::vector<std::size_t> choose_pool(const BlendRequest& request, const Prepared
     };
     std::vector<double> scores(n);
     for (std::size_t i = 0; i < n; ++i) scores[i] = score(i);
-    std::stable_sort(strongest.begin(), strongest.end(), [&](std::size_t l, std::size_t r) { return scores[l] > scores[r]; });
+    std::stable_sort(strongest.begin(), strongest.end(),
+                     [&](std::size_t l, std::size_t r) { return scores[l] > scores[r]; });
     for (std::size_t k = 0; k < std::min(n, request.pool.per_axis); ++k) chosen[strongest[k]] = true;
   }
   std::vector<std::size_t> result;
@@ -423,7 +430,8 @@ void explain_infeasible(const BlendRequest& request, const Prepared& prepared) {
         request.max_varieties, room));
   }
   const double most = prepared.ibu_per_gram.size() ? prepared.ibu_per_gram.maxCoeff() : 0.0;
-  const double reach = request.amount_kind == LateAmount::grams ? most * request.amount : std::numeric_limits<double>::quiet_NaN();
+  const double reach =
+      request.amount_kind == LateAmount::grams ? most * request.amount : std::numeric_limits<double>::quiet_NaN();
   throw Infeasible(fmt::format(
       "with --no-bittering the late hops must give exactly {:.1f} IBU, and no blend of up to {} candidates does{} "
       "(raise --split or the rate, or allow a bittering charge)",
@@ -435,13 +443,14 @@ void explain_infeasible(const BlendRequest& request, const Prepared& prepared) {
 
 BlendResult design_blend(const BlendRequest& request) {
   if (request.candidates.empty())
-    throw Infeasible("no candidate hops with aroma and oil data (add stock with aroma varieties, or a catalog with aroma data)");
+    throw Infeasible(
+        "no candidate hops with aroma and oil data (add stock with aroma varieties, or a catalog with aroma data)");
   if (request.amount <= 0.0) throw Infeasible("the late-hop amount is zero (give --rate or --oil-dose above 0)");
   if (request.kept_ibu > request.target_ibu + 0.05)
-    throw Infeasible(fmt::format(
-        "the boil additions kept from the recipe already give {:.1f} IBU, above the target {:.1f} IBU "
-        "(raise the target with --ibu, or shorten or remove those additions)",
-        request.kept_ibu, request.target_ibu));
+    throw Infeasible(
+        fmt::format("the boil additions kept from the recipe already give {:.1f} IBU, above the target {:.1f} IBU "
+                    "(raise the target with --ibu, or shorten or remove those additions)",
+                    request.kept_ibu, request.target_ibu));
   if (request.amount_kind == LateAmount::grams) {
     std::vector<double> stock;
     bool limited = true;
@@ -450,12 +459,13 @@ BlendResult design_blend(const BlendRequest& request) {
       stock.push_back(candidate.on_hand_g.value_or(0.0));
     }
     std::sort(stock.rbegin(), stock.rend());
-    const double most = std::accumulate(stock.begin(), stock.begin() + static_cast<std::ptrdiff_t>(std::min(stock.size(), request.max_varieties)), 0.0);
+    const double most = std::accumulate(
+        stock.begin(), stock.begin() + static_cast<std::ptrdiff_t>(std::min(stock.size(), request.max_varieties)), 0.0);
     if (limited && most < request.amount)
-      throw Infeasible(fmt::format(
-          "the blend needs {:.0f} g of late hops but the {} largest aroma lots on hand hold only {:.0f} g "
-          "(lower --rate, raise --max-varieties, or add stock)",
-          request.amount, std::min(stock.size(), request.max_varieties), most));
+      throw Infeasible(
+          fmt::format("the blend needs {:.0f} g of late hops but the {} largest aroma lots on hand hold only {:.0f} g "
+                      "(lower --rate, raise --max-varieties, or add stock)",
+                      request.amount, std::min(stock.size(), request.max_varieties), most));
   }
   Prepared prepared = prepare(request);
   const SubsetLimits limits = gram_limits(request, prepared);
@@ -560,7 +570,8 @@ BlendResult design_blend(const BlendRequest& request) {
   result.target_ibu = request.target_ibu;
   result.bittering = request.bittering;
   if (request.bittering && prepared.bittering_per_gram > 0.0) {
-    result.bittering_grams = std::max(0.0, (request.target_ibu - request.kept_ibu - result.late_ibu) / prepared.bittering_per_gram);
+    result.bittering_grams =
+        std::max(0.0, (request.target_ibu - request.kept_ibu - result.late_ibu) / prepared.bittering_per_gram);
     result.bittering_ibu = result.bittering_grams * prepared.bittering_per_gram;
     if (request.bittering->on_hand_g) {
       double left = *request.bittering->on_hand_g - result.bittering_grams;
@@ -574,9 +585,10 @@ BlendResult design_blend(const BlendRequest& request) {
   }
   result.total_ibu = result.kept_ibu + result.late_ibu + result.bittering_ibu;
   if (std::abs(result.total_ibu - result.target_ibu) > 0.05)
-    throw Infeasible(fmt::format("the blend gives {:.1f} IBU but the target is {:.1f} IBU and the bittering hop "
-                                 "cannot make up the difference (choose a bittering hop with alpha acid data)",
-                                 result.total_ibu, result.target_ibu));
+    throw Infeasible(
+        fmt::format("the blend gives {:.1f} IBU but the target is {:.1f} IBU and the bittering hop "
+                    "cannot make up the difference (choose a bittering hop with alpha acid data)",
+                    result.total_ibu, result.target_ibu));
   return result;
 }
 

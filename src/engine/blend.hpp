@@ -2,7 +2,6 @@
 // Designing late hops (whirlpool + dry hop) to a target aroma while holding total IBU.
 // See blend.cpp for the model, the constraints as linear rows in the oil shares, and pool choice.
 #include <Eigen/Dense>
-
 #include <cstddef>
 #include <optional>
 #include <string>
@@ -18,19 +17,19 @@ namespace bine {
 /// A variety (catalog mode) or a lot on hand (stock mode) that may go into the blend.
 struct BlendCandidate {
   std::string variety;
-  std::string lot;                   // empty in catalog mode
-  Eigen::VectorXd aroma;             // intensities 0-5 per lexicon axis
-  double oil_ml_per_100g = 0.0;      // lot value, else the catalog range midpoint
-  double alpha_percent = 0.0;        // lot certificate value, else the catalog range midpoint
+  std::string lot;               // empty in catalog mode
+  Eigen::VectorXd aroma;         // intensities 0-5 per lexicon axis
+  double oil_ml_per_100g = 0.0;  // lot value, else the catalog range midpoint
+  double alpha_percent = 0.0;    // lot certificate value, else the catalog range midpoint
   HopForm form = HopForm::pellet;
-  std::optional<double> on_hand_g;   // stock mode only
+  std::optional<double> on_hand_g;  // stock mode only
 };
 
 /// Candidates plus what was left out and why (one note per reason with the names).
 struct CandidateSet {
   std::vector<BlendCandidate> candidates;
   std::vector<std::string> notes;
-  std::size_t without_aroma = 0;     // skipped: no aroma data (no intensities, tags or oils)
+  std::size_t without_aroma = 0;  // skipped: no aroma data (no intensities, tags or oils)
 };
 
 /// Catalog mode (stock == nullptr): every variety with aroma data whose purpose is not bittering-
@@ -43,7 +42,7 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
 struct BlendTarget {
   Eigen::VectorXd intensity;
   Eigen::VectorXd weight;
-  std::vector<bool> named;           // axes the target names (--target) or all axes (--like)
+  std::vector<bool> named;  // axes the target names (--target) or all axes (--like)
 };
 
 /// --target: named axes weigh 1, the others `others_weight` with target 0.
@@ -58,8 +57,8 @@ struct BitteringHop {
   double alpha_percent = 0.0;
   HopForm form = HopForm::pellet;
   double minutes = 60.0;
-  std::optional<HopUse> use;         // boil (default) or first-wort
-  std::optional<double> on_hand_g;   // when the lot is in --stock
+  std::optional<HopUse> use;        // boil (default) or first-wort
+  std::optional<double> on_hand_g;  // when the lot is in --stock
 };
 
 /// How the total late amount is fixed.
@@ -67,10 +66,10 @@ enum class LateAmount { grams, oil_ml };
 
 /// How many candidates feed the subset search.
 struct PoolSettings {
-  std::size_t nearest = 24;          // best single varieties (nearest profiles in the weighted metric)
-  std::size_t per_axis = 8;          // strongest candidates on each axis the target names
-  std::size_t swap_rounds = 4;       // local-improvement rounds over the whole catalog after the pool
-  bool exhaustive = false;           // every candidate (for benchmarks and tests)
+  std::size_t nearest = 24;     // best single varieties (nearest profiles in the weighted metric)
+  std::size_t per_axis = 8;     // strongest candidates on each axis the target names
+  std::size_t swap_rounds = 4;  // local-improvement rounds over the whole catalog after the pool
+  bool exhaustive = false;      // every candidate (for benchmarks and tests)
 };
 
 struct BlendRequest {
@@ -78,41 +77,41 @@ struct BlendRequest {
   std::vector<BlendCandidate> candidates;
   std::size_t max_varieties = 3;
   LateAmount amount_kind = LateAmount::grams;
-  double amount = 0.0;               // total late grams, or total mL of oil
-  double whirlpool_share = 0.3;      // of each variety's late grams; the rest is dry hop
+  double amount = 0.0;           // total late grams, or total mL of oil
+  double whirlpool_share = 0.3;  // of each variety's late grams; the rest is dry hop
   double whirlpool_temperature_c = 80.0;
   double whirlpool_minutes = 20.0;
   WortContext wort;
   BitternessSettings bitterness;
   double target_ibu = 0.0;
-  double kept_ibu = 0.0;             // boil additions kept as they are
+  double kept_ibu = 0.0;                  // boil additions kept as they are
   std::optional<BitteringHop> bittering;  // nullopt: --no-bittering, late IBU must equal the rest
   PoolSettings pool;
 };
 
 struct BlendPart {
-  std::size_t candidate = 0;         // index into BlendRequest::candidates
+  std::size_t candidate = 0;  // index into BlendRequest::candidates
   std::string variety;
   std::string lot;
-  double oil_share = 0.0;            // x_i
+  double oil_share = 0.0;  // x_i
   double alpha_percent = 0.0;
   HopForm form = HopForm::pellet;
   double grams = 0.0;
   double whirlpool_g = 0.0;
   double dry_hop_g = 0.0;
   double whirlpool_ibu = 0.0;
-  std::optional<double> left_g;      // stock left after the blend (and bittering charge)
+  std::optional<double> left_g;  // stock left after the blend (and bittering charge)
 };
 
 struct BlendResult {
   Eigen::VectorXd target;
   Eigen::VectorXd weight;
-  Eigen::VectorXd profile;           // P = sum x_i s_i
-  double objective = 0.0;            // J
-  double fit = 0.0;                  // sqrt(J / sum w), axis units
-  std::vector<BlendPart> parts;      // by descending oil share
+  Eigen::VectorXd profile;       // P = sum x_i s_i
+  double objective = 0.0;        // J
+  double fit = 0.0;              // sqrt(J / sum w), axis units
+  std::vector<BlendPart> parts;  // by descending oil share
   double late_grams = 0.0;
-  double oil_ml = 0.0;               // oil delivered by the late hops
+  double oil_ml = 0.0;  // oil delivered by the late hops
   double late_ibu = 0.0;
   double kept_ibu = 0.0;
   std::optional<BitteringHop> bittering;

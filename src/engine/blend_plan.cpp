@@ -39,7 +39,8 @@ BitteringHop bittering_from(const std::string& variety, const Catalog& catalog, 
     hop.on_hand_g = lot->on_hand_g;
   }
   const auto alpha = addition_alpha(probe, catalog, stock);
-  if (!alpha) throw InputError(fmt::format("{}: {}: no alpha acid known (add it to the catalog or stock)", where, known.name));
+  if (!alpha)
+    throw InputError(fmt::format("{}: {}: no alpha acid known (add it to the catalog or stock)", where, known.name));
   hop.alpha_percent = *alpha;
   return hop;
 }
@@ -84,7 +85,8 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* 
     }
     const auto alpha = addition_alpha(hop, catalog, stock);
     if (!alpha) {
-      problems.push_back(fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)", file, i, hop.variety));
+      problems.push_back(
+          fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)", file, i, hop.variety));
       continue;
     }
     ibu[i] = addition_bitterness(hop, *alpha, plan.wort, settings).ibu;
@@ -110,8 +112,10 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* 
     plan.target_ibu = total;
     plan.target_ibu_source = "the recipe's current total";
   }
-  if (choices.split) plan.whirlpool_share = *choices.split;
-  else if (whirlpool_g + dry_hop_g > 0.0) plan.whirlpool_share = whirlpool_g / (whirlpool_g + dry_hop_g);
+  if (choices.split)
+    plan.whirlpool_share = *choices.split;
+  else if (whirlpool_g + dry_hop_g > 0.0)
+    plan.whirlpool_share = whirlpool_g / (whirlpool_g + dry_hop_g);
 
   // The bittering charge: the boil or first-wort addition with the most IBU.
   std::optional<std::size_t> largest;
@@ -122,7 +126,8 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* 
   }
   if (!choices.no_bittering) {
     if (!choices.bittering_variety.empty()) {
-      const double minutes = largest && recipe->hops[*largest].minutes ? *recipe->hops[*largest].minutes : recipe->boil_minutes;
+      const double minutes =
+          largest && recipe->hops[*largest].minutes ? *recipe->hops[*largest].minutes : recipe->boil_minutes;
       plan.bittering = bittering_from(choices.bittering_variety, catalog, stock, minutes, "--bittering");
       plan.bittering_index = largest;
     } else if (largest) {
@@ -141,8 +146,10 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* 
       plan.bittering = bittering;
       plan.bittering_index = largest;
     } else {
-      throw InputError(fmt::format("{}: /hops: no boil addition to use as the bittering charge "
-                                   "(give --bittering VARIETY, or --no-bittering)", file));
+      throw InputError(
+          fmt::format("{}: /hops: no boil addition to use as the bittering charge "
+                      "(give --bittering VARIETY, or --no-bittering)",
+                      file));
     }
   }
   for (std::size_t i = 0; i < recipe->hops.size(); ++i) {

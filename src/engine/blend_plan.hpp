@@ -14,20 +14,20 @@ namespace bine {
 
 /// Choices the brewer made on the command line that override or stand in for the recipe.
 struct BlendChoices {
-  std::optional<double> ibu;             // --ibu
-  std::string bittering_variety;         // --bittering
-  bool no_bittering = false;             // --no-bittering
-  std::optional<double> split;           // --split
-  std::optional<double> volume_l;        // --volume (no recipe)
-  std::optional<double> gravity;         // --gravity (no recipe)
+  std::optional<double> ibu;       // --ibu
+  std::string bittering_variety;   // --bittering
+  bool no_bittering = false;       // --no-bittering
+  std::optional<double> split;     // --split
+  std::optional<double> volume_l;  // --volume (no recipe)
+  std::optional<double> gravity;   // --gravity (no recipe)
 };
 
 struct BlendPlan {
   WortContext wort;
   double target_ibu = 0.0;
-  std::string target_ibu_source;         // "recipe target_ibu", "recipe's current total", "--ibu"
+  std::string target_ibu_source;  // "recipe target_ibu", "recipe's current total", "--ibu"
   double kept_ibu = 0.0;
-  std::vector<std::size_t> kept;         // recipe additions kept (boil and first-wort, not bittering)
+  std::vector<std::size_t> kept;  // recipe additions kept (boil and first-wort, not bittering)
   std::optional<BitteringHop> bittering;
   std::optional<std::size_t> bittering_index;  // the recipe addition the charge replaces
   double whirlpool_share = 0.3;

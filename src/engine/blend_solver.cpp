@@ -49,7 +49,8 @@ using Index = Eigen::Index;
 // KKT systems have at most 2n rows (n shares, at most n equalities and active rows); a fixed
 // capacity keeps them off the heap. n is limited to kMaxShares.
 constexpr int kMaxShares = 8;
-using KktMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::ColMajor, 2 * kMaxShares, 2 * kMaxShares>;
+using KktMatrix =
+    Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::ColMajor, 2 * kMaxShares, 2 * kMaxShares>;
 using KktVector = Eigen::Matrix<double, Eigen::Dynamic, 1, Eigen::ColMajor, 2 * kMaxShares, 1>;
 
 /// Scales each inequality row so that its largest coefficient or bound is 1.
@@ -108,8 +109,7 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
   }
   const Index m = c.rows();
   const int equalities = qp.equality ? 2 : 1;
-  const double dual_tolerance =
-      kTolerance * (1.0 + qp.hessian.cwiseAbs().maxCoeff() + qp.linear.cwiseAbs().maxCoeff());
+  const double dual_tolerance = kTolerance * (1.0 + qp.hessian.cwiseAbs().maxCoeff() + qp.linear.cwiseAbs().maxCoeff());
 
   // Supports from the largest down: an interior optimum is found by the first system.
   std::vector<unsigned> supports;
@@ -126,70 +126,70 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
   std::vector<Index> rows;
   // Returns when a KKT point is found; otherwise visits every active set.
   const auto search = [&] {
-  for (const unsigned support : supports) {
-    vars.clear();
-    for (Index i = 0; i < n; ++i)
-      if (support & (1u << i)) vars.push_back(i);
-    const auto k = static_cast<Index>(vars.size());
-    for (const unsigned active : row_sets) {
-      if (std::popcount(active) + equalities > k) break;  // sorted by size: no larger set fits
-      rows.clear();
-      for (Index r = 0; r < m; ++r)
-        if (active & (1u << r)) rows.push_back(r);
-      const Index q = equalities + static_cast<Index>(rows.size());
-      KktMatrix kkt = KktMatrix::Zero(k + q, k + q);
-      KktVector rhs(k + q);
-      for (Index i = 0; i < k; ++i) {
-        for (Index j = 0; j < k; ++j) kkt(i, j) = qp.hessian(vars[i], vars[j]);
-        rhs[i] = qp.linear[vars[i]];
+    for (const unsigned support : supports) {
+      vars.clear();
+      for (Index i = 0; i < n; ++i)
+        if (support & (1u << i)) vars.push_back(i);
+      const auto k = static_cast<Index>(vars.size());
+      for (const unsigned active : row_sets) {
+        if (std::popcount(active) + equalities > k) break;  // sorted by size: no larger set fits
+        rows.clear();
+        for (Index r = 0; r < m; ++r)
+          if (active & (1u << r)) rows.push_back(r);
+        const Index q = equalities + static_cast<Index>(rows.size());
+        KktMatrix kkt = KktMatrix::Zero(k + q, k + q);
+        KktVector rhs(k + q);
+        for (Index i = 0; i < k; ++i) {
+          for (Index j = 0; j < k; ++j) kkt(i, j) = qp.hessian(vars[i], vars[j]);
+          rhs[i] = qp.linear[vars[i]];
+          Index row = k;
+          kkt(i, row) = kkt(row, i) = 1.0;  // sum(x) = 1
+          ++row;
+          if (qp.equality) {
+            kkt(i, row) = kkt(row, i) = e[vars[i]];
+            ++row;
+          }
+          for (const Index r : rows) {
+            kkt(i, row) = kkt(row, i) = c(r, vars[i]);
+            ++row;
+          }
+        }
         Index row = k;
-        kkt(i, row) = kkt(row, i) = 1.0;  // sum(x) = 1
-        ++row;
-        if (qp.equality) {
-          kkt(i, row) = kkt(row, i) = e[vars[i]];
-          ++row;
-        }
-        for (const Index r : rows) {
-          kkt(i, row) = kkt(row, i) = c(r, vars[i]);
-          ++row;
-        }
-      }
-      Index row = k;
-      rhs[row++] = 1.0;
-      if (qp.equality) rhs[row++] = e0;
-      for (const Index r : rows) rhs[row++] = d[r];
-      const KktVector z = solve_kkt(kkt, rhs);
-      ++best.systems_solved;
-      const bool solved = (kkt * z - rhs).cwiseAbs().maxCoeff() <= dual_tolerance * (1.0 + rhs.cwiseAbs().maxCoeff());
+        rhs[row++] = 1.0;
+        if (qp.equality) rhs[row++] = e0;
+        for (const Index r : rows) rhs[row++] = d[r];
+        const KktVector z = solve_kkt(kkt, rhs);
+        ++best.systems_solved;
+        const bool solved = (kkt * z - rhs).cwiseAbs().maxCoeff() <= dual_tolerance * (1.0 + rhs.cwiseAbs().maxCoeff());
 
-      Eigen::VectorXd x = Eigen::VectorXd::Zero(n);
-      for (Index i = 0; i < k; ++i) x[vars[i]] = z[i];
-      // Primal feasibility of the whole problem.
-      if (x.minCoeff() < -kTolerance || std::abs(x.sum() - 1.0) > kTolerance) continue;
-      if (m > 0 && ((c * x) - d).maxCoeff() > kTolerance) continue;
-      if (qp.equality && std::abs(e.dot(x) - e0) > kTolerance) continue;
-      const double objective = blend_qp_objective(qp, x);
-      if (objective < best_objective) {
-        best_objective = objective;
-        best.feasible = true;
-        best.shares = x;
-        best.objective = objective;
+        Eigen::VectorXd x = Eigen::VectorXd::Zero(n);
+        for (Index i = 0; i < k; ++i) x[vars[i]] = z[i];
+        // Primal feasibility of the whole problem.
+        if (x.minCoeff() < -kTolerance || std::abs(x.sum() - 1.0) > kTolerance) continue;
+        if (m > 0 && ((c * x) - d).maxCoeff() > kTolerance) continue;
+        if (qp.equality && std::abs(e.dot(x) - e0) > kTolerance) continue;
+        const double objective = blend_qp_objective(qp, x);
+        if (objective < best_objective) {
+          best_objective = objective;
+          best.feasible = true;
+          best.shares = x;
+          best.objective = objective;
+        }
+        // Dual feasibility: active rows pull with l >= 0; zeroed shares must not want to grow.
+        bool dual_ok = solved;
+        for (std::size_t a = 0; a < rows.size() && dual_ok; ++a)
+          dual_ok = z[k + equalities + static_cast<Index>(a)] >= -dual_tolerance;
+        if (dual_ok && k < n) {
+          Eigen::VectorXd gradient = qp.hessian * x - qp.linear + Eigen::VectorXd::Constant(n, z[k]);
+          if (qp.equality) gradient += z[k + 1] * e;
+          for (std::size_t a = 0; a < rows.size(); ++a)
+            gradient += z[k + equalities + static_cast<Index>(a)] * c.row(rows[a]).transpose();
+          for (Index i = 0; i < n && dual_ok; ++i)
+            if (!(support & (1u << i))) dual_ok = gradient[i] >= -dual_tolerance;
+        }
+        if (dual_ok) return;  // a KKT point of a convex problem: optimal
       }
-      // Dual feasibility: active rows pull with l >= 0; zeroed shares must not want to grow.
-      bool dual_ok = solved;
-      for (std::size_t a = 0; a < rows.size() && dual_ok; ++a)
-        dual_ok = z[k + equalities + static_cast<Index>(a)] >= -dual_tolerance;
-      if (dual_ok && k < n) {
-        Eigen::VectorXd gradient = qp.hessian * x - qp.linear + Eigen::VectorXd::Constant(n, z[k]);
-        if (qp.equality) gradient += z[k + 1] * e;
-        for (std::size_t a = 0; a < rows.size(); ++a)
-          gradient += z[k + equalities + static_cast<Index>(a)] * c.row(rows[a]).transpose();
-        for (Index i = 0; i < n && dual_ok; ++i)
-          if (!(support & (1u << i))) dual_ok = gradient[i] >= -dual_tolerance;
-      }
-      if (dual_ok) return;  // a KKT point of a convex problem: optimal
     }
-  }
   };
   search();
   if (best.feasible) {

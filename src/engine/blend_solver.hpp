@@ -3,7 +3,6 @@
 // aroma profile from a target over the oil shares of a fixed subset. See blend_solver.cpp for the
 // method (exact enumeration of active sets), why it was chosen and its limits.
 #include <Eigen/Dense>
-
 #include <optional>
 
 namespace bine {
@@ -13,21 +12,21 @@ namespace bine {
 ///   subject to x >= 0, sum(x) = 1, C x <= d (row-wise), and, when present, e^T x = e0.
 /// For J = (A x - b)^T W (A x - b): H = A^T W A, f = A^T W b, c = b^T W b (see qp_from_least_squares).
 struct BlendQp {
-  Eigen::MatrixXd hessian;           // H, n x n, symmetric positive semi-definite
-  Eigen::VectorXd linear;            // f, n
-  double constant = 0.0;             // c
-  Eigen::MatrixXd inequality;        // C, m x n (m may be 0)
-  Eigen::VectorXd inequality_bound;  // d, m
+  Eigen::MatrixXd hessian;                  // H, n x n, symmetric positive semi-definite
+  Eigen::VectorXd linear;                   // f, n
+  double constant = 0.0;                    // c
+  Eigen::MatrixXd inequality;               // C, m x n (m may be 0)
+  Eigen::VectorXd inequality_bound;         // d, m
   std::optional<Eigen::VectorXd> equality;  // e, n (besides sum(x) = 1)
-  double equality_bound = 0.0;       // e0
+  double equality_bound = 0.0;              // e0
 };
 
 /// The minimiser, or feasible == false when no x satisfies the constraints.
 struct BlendQpSolution {
   bool feasible = false;
-  Eigen::VectorXd shares;   // x, sums to 1
-  double objective = 0.0;   // J(x), >= 0 up to rounding for least-squares problems
-  int systems_solved = 0;   // KKT systems solved (for benchmarks)
+  Eigen::VectorXd shares;  // x, sums to 1
+  double objective = 0.0;  // J(x), >= 0 up to rounding for least-squares problems
+  int systems_solved = 0;  // KKT systems solved (for benchmarks)
 };
 
 /// Builds the Gram form of J = (A x - b)^T diag(w) (A x - b) with no constraints besides the simplex.

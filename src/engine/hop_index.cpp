@@ -58,16 +58,16 @@ HopIndex::HopIndex(int dimensions, const std::vector<float>& rows, const IndexSe
   if (dimensions <= 0 || rows.size() % static_cast<std::size_t>(dimensions) != 0)
     throw std::invalid_argument("HopIndex: rows do not match the dimension");
   const auto count = static_cast<faiss_id>(rows.size() / static_cast<std::size_t>(dimensions));
-  kind_ = force ? *force
-                : (static_cast<std::size_t>(count) > settings.exact_up_to ? IndexKind::hnsw : IndexKind::exact);
+  kind_ =
+      force ? *force : (static_cast<std::size_t>(count) > settings.exact_up_to ? IndexKind::hnsw : IndexKind::exact);
   if (kind_ == IndexKind::exact) {
     auto flat = std::make_unique<faiss::IndexFlatIP>(dimensions);
     flat->add(count, rows.data());
     rows_ = flat->get_xb();
     index_ = std::move(flat);
   } else {
-    auto hnsw = std::make_unique<faiss::IndexHNSWFlat>(dimensions, settings.hnsw_neighbors,
-                                                       faiss::METRIC_INNER_PRODUCT);
+    auto hnsw =
+        std::make_unique<faiss::IndexHNSWFlat>(dimensions, settings.hnsw_neighbors, faiss::METRIC_INNER_PRODUCT);
     hnsw->hnsw.efConstruction = settings.hnsw_ef_construction;
     hnsw->hnsw.efSearch = settings.hnsw_ef_search;
     hnsw->add(count, rows.data());
@@ -86,8 +86,8 @@ std::size_t HopIndex::memory_bytes() const {
   std::size_t bytes = size() * static_cast<std::size_t>(dimensions_) * sizeof(float);
   if (kind_ == IndexKind::hnsw) {
     const auto& graph = static_cast<const faiss::IndexHNSWFlat&>(*index_).hnsw;
-    bytes += graph.neighbors.size() * sizeof(faiss::HNSW::storage_idx_t) +
-             graph.offsets.size() * sizeof(std::size_t) + graph.levels.size() * sizeof(int);
+    bytes += graph.neighbors.size() * sizeof(faiss::HNSW::storage_idx_t) + graph.offsets.size() * sizeof(std::size_t) +
+             graph.levels.size() * sizeof(int);
   }
   return bytes;
 }
@@ -110,8 +110,7 @@ std::vector<IndexHit> HopIndex::search(const float* query, std::size_t k) const 
 std::vector<IndexHit> HopIndex::search_subset(const float* query, std::size_t k,
                                               const std::vector<std::int64_t>& subset) const {
   if (subset.empty() || k == 0) return {};
-  if (kind_ == IndexKind::hnsw && subset.size() <= settings_.exact_subset_up_to)
-    return exact_over(query, k, subset);
+  if (kind_ == IndexKind::hnsw && subset.size() <= settings_.exact_subset_up_to) return exact_over(query, k, subset);
   k = std::min(k, subset.size());
   std::vector<faiss_id> ids(subset.begin(), subset.end());
   faiss::IDSelectorBatch selector(ids.size(), ids.data());
@@ -143,8 +142,9 @@ std::vector<IndexHit> HopIndex::exact_over(const float* query, std::size_t k,
     hits.push_back({id, dot});
   }
   k = std::min(k, hits.size());
-  std::partial_sort(hits.begin(), hits.begin() + static_cast<std::ptrdiff_t>(k), hits.end(),
-                    [](const IndexHit& a, const IndexHit& b) { return a.score != b.score ? a.score > b.score : a.id < b.id; });
+  std::partial_sort(
+      hits.begin(), hits.begin() + static_cast<std::ptrdiff_t>(k), hits.end(),
+      [](const IndexHit& a, const IndexHit& b) { return a.score != b.score ? a.score > b.score : a.id < b.id; });
   hits.resize(k);
   return hits;
 }

@@ -51,8 +51,7 @@ class HopIndex {
   /// Fewer than k when the index (or subset) is smaller.
   std::vector<IndexHit> search(const float* query, std::size_t k) const;
   /// As search, but only over the row ids in `subset` (the lots in stock, say).
-  std::vector<IndexHit> search_subset(const float* query, std::size_t k,
-                                      const std::vector<std::int64_t>& subset) const;
+  std::vector<IndexHit> search_subset(const float* query, std::size_t k, const std::vector<std::int64_t>& subset) const;
 
   IndexKind kind() const { return kind_; }
   int dimensions() const { return dimensions_; }
@@ -61,8 +60,7 @@ class HopIndex {
   std::size_t memory_bytes() const;
 
  private:
-  std::vector<IndexHit> exact_over(const float* query, std::size_t k,
-                                   const std::vector<std::int64_t>& subset) const;
+  std::vector<IndexHit> exact_over(const float* query, std::size_t k, const std::vector<std::int64_t>& subset) const;
 
   int dimensions_ = 0;
   IndexKind kind_ = IndexKind::exact;

@@ -61,12 +61,18 @@ std::optional<std::size_t> choose_absorber(const RecipeBitterness& bitterness) {
 
 std::string_view to_string(RebalanceRule rule) {
   switch (rule) {
-    case RebalanceRule::unchanged: return "unchanged";
-    case RebalanceRule::holds_ibu: return "holds its IBU";
-    case RebalanceRule::holds_oil: return "holds its oil";
-    case RebalanceRule::holds_grams: return "holds its grams";
-    case RebalanceRule::absorbs_ibu: return "absorbs the IBU change";
-    case RebalanceRule::scaled_for_total: return "scaled to hold total IBU";
+    case RebalanceRule::unchanged:
+      return "unchanged";
+    case RebalanceRule::holds_ibu:
+      return "holds its IBU";
+    case RebalanceRule::holds_oil:
+      return "holds its oil";
+    case RebalanceRule::holds_grams:
+      return "holds its grams";
+    case RebalanceRule::absorbs_ibu:
+      return "absorbs the IBU change";
+    case RebalanceRule::scaled_for_total:
+      return "scaled to hold total IBU";
   }
   return "";
 }
@@ -185,8 +191,9 @@ RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot
   }
   for (const auto& row : result.additions)
     if (row.rule == RebalanceRule::holds_oil) {
-      result.notes.push_back("late additions hold the oil they deliver; the recipe is taken as written for the "
-                             "catalog midpoint of each variety's total oil");
+      result.notes.push_back(
+          "late additions hold the oil they deliver; the recipe is taken as written for the "
+          "catalog midpoint of each variety's total oil");
       break;
     }
   return result;
@@ -220,8 +227,8 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& s
       }
     }
     if (best == nullptr) {
-      notes.push_back(fmt::format("no stock lot of {} with a certificate alpha; its additions are kept as written",
-                                  hop.variety));
+      notes.push_back(
+          fmt::format("no stock lot of {} with a certificate alpha; its additions are kept as written", hop.variety));
       continue;
     }
     ReplacementLot lot;
@@ -247,13 +254,13 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& s
     }
     if (best->packaged && best->storage) {
       lot.days = std::max(0L, days_between(*best->packaged, on));
-      const AgedAlpha aged = age_alpha(StorageHistory{*best->alpha_acid, *lot.stability_percent, *best->storage,
-                                                      static_cast<double>(lot.days)});
+      const AgedAlpha aged = age_alpha(
+          StorageHistory{*best->alpha_acid, *lot.stability_percent, *best->storage, static_cast<double>(lot.days)});
       lot.alpha_percent = aged.alpha_percent;
       lot.remaining = aged.remaining;
     } else {
-      notes.push_back(fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged",
-                                  lot.lot_code));
+      notes.push_back(
+          fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", lot.lot_code));
     }
     chosen.push_back(std::move(lot));
   }

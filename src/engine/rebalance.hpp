@@ -13,11 +13,11 @@ namespace bine {
 
 /// The lot a variety will be brewed with, as it is on brew day.
 struct ReplacementLot {
-  std::string variety;                  // matched to recipe additions by folded name
-  double alpha_percent = 0.0;           // alpha on brew day (aged when from stock)
-  std::optional<double> total_oil;      // mL/100 g
-  std::optional<HopForm> form;          // the lot's form, when known
-  std::string lot_code;                 // empty for --lot
+  std::string variety;              // matched to recipe additions by folded name
+  double alpha_percent = 0.0;       // alpha on brew day (aged when from stock)
+  std::optional<double> total_oil;  // mL/100 g
+  std::optional<HopForm> form;      // the lot's form, when known
+  std::string lot_code;             // empty for --lot
   std::optional<double> on_hand_g;
   // How the alpha was obtained (stock lots only).
   std::optional<double> certificate_alpha;
@@ -26,8 +26,8 @@ struct ReplacementLot {
   long days = 0;
   double remaining = 1.0;
   std::optional<double> stability_percent;
-  std::string stability_source;         // "catalog", "HSI 0.31", "fair class (no catalog value)"
-  std::size_t lots_of_variety = 1;      // lots of this variety in stock; the largest is chosen
+  std::string stability_source;     // "catalog", "HSI 0.31", "fair class (no catalog value)"
+  std::size_t lots_of_variety = 1;  // lots of this variety in stock; the largest is chosen
 };
 
 /// What happened to one addition.
@@ -44,7 +44,7 @@ struct RebalancedAddition {
   double alpha_after = 0.0;
   double ibu_before = 0.0;
   double ibu_after = 0.0;
-  std::optional<double> oil_before;     // mL/100 g the recipe was written for (catalog midpoint)
+  std::optional<double> oil_before;  // mL/100 g the recipe was written for (catalog midpoint)
   std::optional<double> oil_after;
   RebalanceRule rule = RebalanceRule::unchanged;
 };
@@ -57,7 +57,7 @@ struct Shortfall {
 };
 
 struct RebalanceResult {
-  Recipe recipe_after;                  // the recipe to brew (alpha, form, lot and grams updated)
+  Recipe recipe_after;  // the recipe to brew (alpha, form, lot and grams updated)
   RecipeBitterness before;
   RecipeBitterness after;
   std::vector<RebalancedAddition> additions;

@@ -47,16 +47,17 @@ RecipeBitterness recipe_bitterness(const Recipe& recipe, const Catalog& catalog,
       line.alpha_percent = variety->alpha_acid->mid();
       line.alpha_source = AlphaSource::catalog_midpoint;
       if (hop.use != HopUse::dry_hop)
-        result.notes.push_back(fmt::format("addition {} ({}): no alpha acid in the recipe; catalog midpoint {:.1f} % used",
-                                           i + 1, line.variety, line.alpha_percent));
+        result.notes.push_back(
+            fmt::format("addition {} ({}): no alpha acid in the recipe; catalog midpoint {:.1f} % used", i + 1,
+                        line.variety, line.alpha_percent));
     } else if (hop.use == HopUse::dry_hop) {
       line.alpha_source = AlphaSource::none;  // 0 IBU whatever the alpha
     } else {
-      problems.push_back(fmt::format(
-          "{}: /hops/{}/alpha_acid: is missing and {} (give the alpha acid % the recipe was written for)",
-          recipe.source_file, i,
-          variety == nullptr ? fmt::format("\"{}\" is not a catalog variety", line.variety)
-                             : fmt::format("the catalog has no alpha acid for {}", variety->name)));
+      problems.push_back(
+          fmt::format("{}: /hops/{}/alpha_acid: is missing and {} (give the alpha acid % the recipe was written for)",
+                      recipe.source_file, i,
+                      variety == nullptr ? fmt::format("\"{}\" is not a catalog variety", line.variety)
+                                         : fmt::format("the catalog has no alpha acid for {}", variety->name)));
       continue;
     }
     line.bitterness = addition_bitterness(hop, line.alpha_percent, result.wort, settings);
@@ -68,8 +69,8 @@ RecipeBitterness recipe_bitterness(const Recipe& recipe, const Catalog& catalog,
   result.bu_gu = bu_gu_ratio(result.total_ibu, recipe.original_gravity);
   result.bu_gu_reading = bu_gu_reading(result.bu_gu);
   if (!form_assumed.empty())
-    result.notes.push_back(fmt::format("addition{} {}: form not given; pellet assumed", form_assumed.size() > 1 ? "s" : "",
-                                       list_positions(form_assumed)));
+    result.notes.push_back(fmt::format("addition{} {}: form not given; pellet assumed",
+                                       form_assumed.size() > 1 ? "s" : "", list_positions(form_assumed)));
   for (const auto& line : result.additions)
     if (line.use == HopUse::first_wort) {
       result.notes.push_back("first-wort additions count the full boil (common practice)");

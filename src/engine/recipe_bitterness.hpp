@@ -15,15 +15,15 @@ enum class AlphaSource { recipe, catalog_midpoint, none };
 
 /// One addition's line of the bitterness breakdown.
 struct AdditionLine {
-  std::size_t index = 0;           // position in recipe.hops
-  std::string variety;             // variety name, else the lot code
+  std::size_t index = 0;  // position in recipe.hops
+  std::string variety;    // variety name, else the lot code
   HopUse use = HopUse::boil;
   std::optional<double> minutes;
   std::optional<double> temperature_c;
   double grams = 0.0;
   HopForm form = HopForm::pellet;
-  bool form_assumed = false;       // no form in the recipe: pellet assumed
-  double alpha_percent = 0.0;      // alpha in the kettle (0 for a dry hop without data)
+  bool form_assumed = false;   // no form in the recipe: pellet assumed
+  double alpha_percent = 0.0;  // alpha in the kettle (0 for a dry hop without data)
   AlphaSource alpha_source = AlphaSource::recipe;
   AdditionBitterness bitterness;
 };

@@ -42,9 +42,12 @@ double temperature_factor(double celsius) { return std::exp2((celsius - 20.0) / 
 // Garetz (1994), SF values from memory.
 double package_factor(Package package) {
   switch (package) {
-    case Package::open: return 1.0;
-    case Package::sealed: return 0.75;
-    case Package::vacuum: return 0.5;
+    case Package::open:
+      return 1.0;
+    case Package::sealed:
+      return 0.75;
+    case Package::vacuum:
+      return 0.5;
   }
   return 1.0;
 }

@@ -27,19 +27,19 @@ double percent_lost_from_hsi(double hsi);
 
 /// The storage history of one lot.
 struct StorageHistory {
-  double alpha_percent = 0.0;          // certificate alpha at packaging
+  double alpha_percent = 0.0;                 // certificate alpha at packaging
   double stability_percent = kStabilityFair;  // % left after 6 months at 20 C
   Storage storage;
-  double days = 0.0;                   // days from packaging to the brew day
+  double days = 0.0;  // days from packaging to the brew day
 };
 
 struct AgedAlpha {
-  double alpha_percent = 0.0;          // estimated alpha today
-  double remaining = 1.0;              // fraction of the certificate alpha left
-  double rate_per_day = 0.0;           // k at 20 C, open
+  double alpha_percent = 0.0;  // estimated alpha today
+  double remaining = 1.0;      // fraction of the certificate alpha left
+  double rate_per_day = 0.0;   // k at 20 C, open
   double temperature_factor = 1.0;
   double package_factor = 1.0;
-  bool warm_extrapolation = false;     // stored above 20 C: the model is extrapolated
+  bool warm_extrapolation = false;  // stored above 20 C: the model is extrapolated
 };
 
 /// A(D) = A0 x exp(-k x TF x SF x D).

@@ -71,8 +71,8 @@ void age_lot(Candidate& candidate, Date on, const SubstituteSettings& settings) 
     candidate.alpha_note = "aged from the variety's storage stability";
   } else {
     history.stability_percent = settings.default_stability;
-    candidate.alpha_note = fmt::format("aged assuming fair stability ({:.0f} % left after 6 months)",
-                                       settings.default_stability);
+    candidate.alpha_note =
+        fmt::format("aged assuming fair stability ({:.0f} % left after 6 months)", settings.default_stability);
   }
   candidate.alpha_today = age_alpha(history).alpha_percent;
 }
@@ -92,7 +92,8 @@ Substitute make_substitute(const Candidate& c, const Descriptors& missing, const
   s.aroma_source = c.descriptors.aroma_source;
 
   const bool aroma_job = vectorizer.purpose() == SwapPurpose::aroma;
-  const std::optional<double> wanted = aroma_job ? mid_of(missing_variety.total_oil) : mid_of(missing_variety.alpha_acid);
+  const std::optional<double> wanted =
+      aroma_job ? mid_of(missing_variety.total_oil) : mid_of(missing_variety.alpha_acid);
   std::optional<double> offered;
   std::string offered_from = "catalog";
   if (aroma_job) {
@@ -113,11 +114,13 @@ Substitute make_substitute(const Candidate& c, const Descriptors& missing, const
 
   if (missing.has_aroma() && c.descriptors.has_aroma()) {
     for (std::size_t a = 0; a < axes.size(); ++a) {
-      const double delta = c.descriptors.aroma[static_cast<Eigen::Index>(a)] - missing.aroma[static_cast<Eigen::Index>(a)];
+      const double delta =
+          c.descriptors.aroma[static_cast<Eigen::Index>(a)] - missing.aroma[static_cast<Eigen::Index>(a)];
       if (std::abs(delta) >= settings.difference_threshold) s.differences.push_back({axes[a], delta});
     }
-    std::stable_sort(s.differences.begin(), s.differences.end(),
-                     [](const AromaDifference& x, const AromaDifference& y) { return std::abs(x.delta) > std::abs(y.delta); });
+    std::stable_sort(
+        s.differences.begin(), s.differences.end(),
+        [](const AromaDifference& x, const AromaDifference& y) { return std::abs(x.delta) > std::abs(y.delta); });
     if (s.differences.size() > settings.max_differences) s.differences.resize(settings.max_differences);
   }
   return s;
@@ -203,7 +206,8 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     for (const auto& lot : request.stock->lots) {
       const Variety* variety = find_variety(catalog, lot.variety);
       if (!variety) {
-        result.notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
+        result.notes.push_back(
+            fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
         continue;
       }
       if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
@@ -212,21 +216,23 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     for (std::size_t i = 0; i < lots_of.size(); ++i)
       if (!lots_of[i].empty()) allowed.push_back(static_cast<std::int64_t>(i));
     if (allowed.empty())
-      throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {} (add stock, or run without "
-                                   "--stock to see substitutes from the whole catalog)",
-                                   request.stock->source_file, missing.name));
+      throw Infeasible(
+          fmt::format("no lot on hand in {} is a catalog variety other than {} (add stock, or run without "
+                      "--stock to see substitutes from the whole catalog)",
+                      request.stock->source_file, missing.name));
   } else {
     for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
       if (!is_missing(catalog.varieties[i])) allowed.push_back(static_cast<std::int64_t>(i));
     if (allowed.empty())
-      throw Infeasible(fmt::format("the catalog has no variety besides {} (add one with --catalog FILE)", missing.name));
+      throw Infeasible(
+          fmt::format("the catalog has no variety besides {} (add one with --catalog FILE)", missing.name));
   }
 
   // Ask the index for candidates, then re-score exactly (missing blocks handled per pair).
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
-  const auto hits = request.stock ? index.search_subset(query.data(), k, allowed)
-                                  : index.search_subset(query.data(), k + 1, allowed);
+  const auto hits =
+      request.stock ? index.search_subset(query.data(), k, allowed) : index.search_subset(query.data(), k + 1, allowed);
   std::vector<Candidate> candidates;
   for (const auto& hit : hits) {
     const auto i = static_cast<std::size_t>(hit.id);

@@ -3,7 +3,6 @@
 // with the aroma differences in words, the amount factor that holds the job, and optionally
 // two-variety blends that match better than any single substitute.
 #include <Eigen/Dense>
-
 #include <array>
 #include <optional>
 #include <string>
@@ -24,20 +23,20 @@ struct SubstituteSettings {
   std::size_t candidate_multiplier = 4;  // ... or this many times --top
   double difference_threshold = 0.75;    // aroma intensity gap (0-5 scale) worth a word
   std::size_t max_differences = 3;
-  std::size_t pair_pool = 12;            // best single substitutes tried pairwise for --pairs
-  double min_pair_share = 0.10;          // a pair whose smaller share is below this is one hop, really
-  double min_pair_gain = 0.5;            // similarity points a pair must gain over the best single
-  double default_stability = 65.0;       // % left after 6 months when a variety has none ("fair")
+  std::size_t pair_pool = 12;       // best single substitutes tried pairwise for --pairs
+  double min_pair_share = 0.10;     // a pair whose smaller share is below this is one hop, really
+  double min_pair_gain = 0.5;       // similarity points a pair must gain over the best single
+  double default_stability = 65.0;  // % left after 6 months when a variety has none ("fair")
 };
 
 /// What to replace, for what job, from where.
 struct SwapRequest {
-  std::string missing;                    // the variety name as typed
+  std::string missing;  // the variety name as typed
   SwapPurpose purpose = SwapPurpose::aroma;
   std::size_t top = 5;
   bool pairs = false;
-  const Stock* stock = nullptr;           // restrict to lots on hand when set
-  Date on{};                              // brew day, for the lots' alpha today
+  const Stock* stock = nullptr;  // restrict to lots on hand when set
+  Date on{};                     // brew day, for the lots' alpha today
 };
 
 /// One aroma axis where the substitute differs noticeably (delta = substitute - missing, 0-5 scale).
@@ -50,23 +49,23 @@ struct AromaDifference {
 struct Substitute {
   Variety variety;
   std::optional<Lot> lot;
-  std::optional<double> alpha_today;      // lot alpha aged to the brew day (%)
-  std::string alpha_note;                 // how alpha_today was obtained, or why it was not aged
-  double similarity = 0.0;                // 0-100
-  double confidence = 0.0;                // 0-1
-  std::optional<double> amount_factor;    // grams of substitute per gram of the missing variety
-  std::string amount_basis;               // "oil 1.9 / 1.6 mL/100 g" or why there is no factor
+  std::optional<double> alpha_today;         // lot alpha aged to the brew day (%)
+  std::string alpha_note;                    // how alpha_today was obtained, or why it was not aged
+  double similarity = 0.0;                   // 0-100
+  double confidence = 0.0;                   // 0-1
+  std::optional<double> amount_factor;       // grams of substitute per gram of the missing variety
+  std::string amount_basis;                  // "oil 1.9 / 1.6 mL/100 g" or why there is no factor
   std::vector<AromaDifference> differences;  // largest first
-  Eigen::VectorXd aroma;                  // intensities 0-5 per axis
+  Eigen::VectorXd aroma;                     // intensities 0-5 per axis
   AromaSource aroma_source = AromaSource::none;
 };
 
 /// A two-variety blend (shares by weight) that matches better than the best single substitute.
 struct SubstitutePair {
   std::array<std::string, 2> varieties;
-  std::array<std::string, 2> lots;        // empty without stock
-  std::array<double, 2> shares{};         // fractions summing to 1
-  double similarity = 0.0;                // 0-100
+  std::array<std::string, 2> lots;  // empty without stock
+  std::array<double, 2> shares{};   // fractions summing to 1
+  double similarity = 0.0;          // 0-100
 };
 
 struct SwapResult {
@@ -74,15 +73,15 @@ struct SwapResult {
   SwapPurpose purpose = SwapPurpose::aroma;
   Eigen::VectorXd missing_aroma;
   AromaSource missing_source = AromaSource::none;
-  std::vector<std::string> axes;          // lexicon axis names, for the differences and charts
-  std::vector<Substitute> substitutes;    // best first
-  std::vector<SubstitutePair> pairs;      // best first; only with SwapRequest::pairs
+  std::vector<std::string> axes;        // lexicon axis names, for the differences and charts
+  std::vector<Substitute> substitutes;  // best first
+  std::vector<SubstitutePair> pairs;    // best first; only with SwapRequest::pairs
   bool from_stock = false;
   std::string stock_name;
   std::optional<Date> on;
   IndexKind index_kind = IndexKind::exact;
-  std::size_t candidates = 0;             // varieties or lots that could be ranked
-  std::vector<std::string> notes;         // skipped lots, missing data, assumptions
+  std::size_t candidates = 0;      // varieties or lots that could be ranked
+  std::vector<std::string> notes;  // skipped lots, missing data, assumptions
 };
 
 /// Ranks substitutes for request.missing. Throws InputError for an unknown variety and Infeasible

@@ -30,7 +30,8 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
   for (auto& family : families) {
     family.aroma.assign(axes, 0.0);
     const int named = 2 + static_cast<int>(unit(random) * 4.0);
-    for (int i = 0; i < named; ++i) family.aroma[static_cast<std::size_t>(unit(random) * static_cast<double>(axes)) % axes] = between(1.0, 5.0);
+    for (int i = 0; i < named; ++i)
+      family.aroma[static_cast<std::size_t>(unit(random) * static_cast<double>(axes)) % axes] = between(1.0, 5.0);
     for (const auto& [lo, hi] : oil_ranges) family.oils.push_back(between(lo, hi));
     family.alpha = between(2.5, 16.0);
     family.beta = between(2.0, 9.0);
@@ -43,11 +44,14 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
   catalog.demo = true;
   catalog.varieties.reserve(count);
   for (std::size_t n = 0; n < count; ++n) {
-    const Family& family = families[static_cast<std::size_t>(unit(random) * static_cast<double>(families.size())) % families.size()];
+    const Family& family =
+        families[static_cast<std::size_t>(unit(random) * static_cast<double>(families.size())) % families.size()];
     Variety v;
     v.name = fmt::format("Synthetic {:07d}", n + 1);
     v.source_file = "synthetic";
-    auto jitter = [&](double value, double sd, double lo, double hi) { return std::clamp(value + sd * noise(random), lo, hi); };
+    auto jitter = [&](double value, double sd, double lo, double hi) {
+      return std::clamp(value + sd * noise(random), lo, hi);
+    };
     auto range = [&](double mid, double half) { return Range{std::max(0.0, mid - half), mid + half}; };
     v.alpha_acid = range(jitter(family.alpha, 1.0, 2.5, 17.0), 0.5);
     v.beta_acid = range(jitter(family.beta, 0.6, 2.0, 10.0), 0.4);
@@ -56,7 +60,8 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
     const double kind = unit(random);
     if (kind >= 0.05) {
       for (std::size_t c = 0; c < compounds.size(); ++c) {
-        const double mid = jitter(family.oils[c], 0.1 * (oil_ranges[c].second - oil_ranges[c].first), oil_ranges[c].first, oil_ranges[c].second);
+        const double mid = jitter(family.oils[c], 0.1 * (oil_ranges[c].second - oil_ranges[c].first),
+                                  oil_ranges[c].first, oil_ranges[c].second);
         v.oils[compounds[c]] = range(mid, 0.05 * mid);
       }
     }

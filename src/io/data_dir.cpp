@@ -13,11 +13,14 @@ std::filesystem::path resolve_data_dir(const std::string& option) {
   std::error_code ec;
   auto usable = [&](const fs::path& dir) { return fs::is_regular_file(dir / "lexicon.json", ec); };
   if (!option.empty()) {
-    if (!usable(option)) throw InputError("--data " + option + ": no lexicon.json in this folder (expected a descriptor-data folder)");
+    if (!usable(option))
+      throw InputError("--data " + option + ": no lexicon.json in this folder (expected a descriptor-data folder)");
     return option;
   }
   if (const char* env = std::getenv("BINE_DATA"); env != nullptr && *env != '\0') {
-    if (!usable(env)) throw InputError(std::string("BINE_DATA=") + env + ": no lexicon.json in this folder (expected a descriptor-data folder)");
+    if (!usable(env))
+      throw InputError(std::string("BINE_DATA=") + env +
+                       ": no lexicon.json in this folder (expected a descriptor-data folder)");
     return env;
   }
   const fs::path exe = fs::read_symlink("/proc/self/exe", ec);

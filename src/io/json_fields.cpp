@@ -23,8 +23,8 @@ std::string bounds_text(const Bounds& bounds, Dimension dimension) {
     return fmt::format("more than {}{}{}", number_text(bounds.min), spacer, unit);
   if (bounds.max >= 1e300) return fmt::format("at least {}{}{}", number_text(bounds.min), spacer, unit);
   if (bounds.min_exclusive)
-    return fmt::format("more than {} and at most {}{}{}", number_text(bounds.min), number_text(bounds.max),
-                       spacer, unit);
+    return fmt::format("more than {} and at most {}{}{}", number_text(bounds.min), number_text(bounds.max), spacer,
+                       unit);
   // "-40 to 40 C" reads better than "-40-40 C".
   const char* dash = bounds.min < 0.0 ? " to " : "-";
   return fmt::format("{}{}{}{}{}", number_text(bounds.min), dash, number_text(bounds.max), spacer, unit);
@@ -37,12 +37,18 @@ std::string value_with_unit(double value, Dimension dimension) {
 
 std::string type_name(const nlohmann::json& value) {
   switch (value.type()) {
-    case nlohmann::json::value_t::null: return "null";
-    case nlohmann::json::value_t::object: return "an object";
-    case nlohmann::json::value_t::array: return "an array";
-    case nlohmann::json::value_t::string: return "a string";
-    case nlohmann::json::value_t::boolean: return "true/false";
-    default: return "a number";
+    case nlohmann::json::value_t::null:
+      return "null";
+    case nlohmann::json::value_t::object:
+      return "an object";
+    case nlohmann::json::value_t::array:
+      return "an array";
+    case nlohmann::json::value_t::string:
+      return "a string";
+    case nlohmann::json::value_t::boolean:
+      return "true/false";
+    default:
+      return "a number";
   }
 }
 
@@ -86,10 +92,12 @@ std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics
     const std::string library_text = error.what();
     const std::string_view rest = text.substr(offset);
     const auto starts = [&](std::string_view word) { return rest.substr(0, word.size()) == word; };
-    if (library_text.find("UTF-8") != std::string::npos) why = "the text is not valid UTF-8";
+    if (library_text.find("UTF-8") != std::string::npos)
+      why = "the text is not valid UTF-8";
     else if (starts("NaN") || starts("nan") || starts("Infinity") || starts("-Infinity") || starts("inf"))
       why = "NaN and Infinity are not numbers in JSON; give a finite number";
-    else if (offset >= text.size()) why = "the file ends too early";
+    else if (offset >= text.size())
+      why = "the file ends too early";
     if (text.empty() || text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
       diagnostics.add_file("the file is empty (expected a JSON document)");
     } else {
@@ -102,9 +110,12 @@ std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics
 std::string pointer_join(const std::string& pointer, std::string_view key) {
   std::string out = pointer + "/";
   for (char c : key) {
-    if (c == '~') out += "~0";
-    else if (c == '/') out += "~1";
-    else out += c;
+    if (c == '~')
+      out += "~0";
+    else if (c == '/')
+      out += "~1";
+    else
+      out += c;
   }
   return out;
 }
@@ -150,9 +161,7 @@ void FieldReader::allow_only(std::initializer_list<std::string_view> known) {
   }
 }
 
-void FieldReader::missing(std::string_view key) {
-  diagnostics_.add(at(key), "is missing (required)");
-}
+void FieldReader::missing(std::string_view key) { diagnostics_.add(at(key), "is missing (required)"); }
 
 std::optional<std::string> FieldReader::text(std::string_view key, bool required) {
   const auto* value = raw(key);
@@ -276,8 +285,8 @@ std::optional<Range> FieldReader::range(std::string_view key, Dimension dimensio
   const auto high = read_quantity((*value)[1], dimension, bounds, at(key) + "/1", diagnostics_);
   if (!low || !high) return std::nullopt;
   if (*low > *high) {
-    diagnostics_.add(at(key), fmt::format("min {} is greater than max {} (expected [min, max])",
-                                          number_text(*low), number_text(*high)));
+    diagnostics_.add(at(key), fmt::format("min {} is greater than max {} (expected [min, max])", number_text(*low),
+                                          number_text(*high)));
     return std::nullopt;
   }
   return Range{*low, *high};

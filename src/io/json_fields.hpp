@@ -2,9 +2,8 @@
 // Reading our JSON files field by field while collecting every problem with its JSON pointer.
 // Loaders describe each object with a FieldReader: which keys exist, which are required, their
 // dimension and hard bounds. Nothing here throws on bad data; problems go to Diagnostics.
-#include <nlohmann/json.hpp>
-
 #include <initializer_list>
+#include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -20,8 +19,8 @@ namespace bine {
 struct Bounds {
   double min;
   double max;
-  std::string_view what;           // "alpha acid", "batch volume" ...
-  bool min_exclusive = false;      // true: the value must be > min (amounts, volumes)
+  std::string_view what;       // "alpha acid", "batch volume" ...
+  bool min_exclusive = false;  // true: the value must be > min (amounts, volumes)
 };
 
 /// Parses JSON text; on failure reports "not valid JSON at line L, column C (...)" and returns
@@ -51,11 +50,9 @@ class FieldReader {
   std::optional<std::string> text(std::string_view key, bool required);
   std::optional<bool> boolean(std::string_view key, bool required);
   /// A number in the canonical unit or a string with a unit, checked against bounds.
-  std::optional<double> quantity(std::string_view key, Dimension dimension, const Bounds& bounds,
-                                 bool required);
+  std::optional<double> quantity(std::string_view key, Dimension dimension, const Bounds& bounds, bool required);
   /// A [min, max] pair of numbers in the canonical unit, each within bounds, min <= max.
-  std::optional<Range> range(std::string_view key, Dimension dimension, const Bounds& bounds,
-                             bool required);
+  std::optional<Range> range(std::string_view key, Dimension dimension, const Bounds& bounds, bool required);
   std::optional<Date> date(std::string_view key, bool required);
 
   Diagnostics& diagnostics() { return diagnostics_; }

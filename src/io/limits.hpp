@@ -17,9 +17,9 @@ inline constexpr Bounds stability{1.0, 100.0, "storage stability (% of alpha lef
 inline constexpr Bounds aroma_intensity{0.0, 5.0, "an aroma intensity"};
 inline constexpr Bounds hsi{0.15, 2.0, "Hop Storage Index"};
 
-inline constexpr Bounds hop_mass{0.0, 1e7, "a hop amount", true};          // up to 10 t
+inline constexpr Bounds hop_mass{0.0, 1e7, "a hop amount", true};  // up to 10 t
 inline constexpr Bounds stock_mass{0.0, 1e8, "an amount on hand"};
-inline constexpr Bounds batch_volume{0.0, 1e6, "batch volume", true};      // up to 10,000 hL
+inline constexpr Bounds batch_volume{0.0, 1e6, "batch volume", true};  // up to 10,000 hL
 inline constexpr Bounds gravity{1.0, 1.2, "original gravity"};
 inline constexpr Bounds boil_time{0.0, 600.0, "boil time"};
 inline constexpr Bounds addition_time{0.0, 60.0 * 24.0 * 60.0, "an addition time"};  // up to 60 days

@@ -8,8 +8,8 @@
 
 #include "io/file_io.hpp"
 #include "io/json_fields.hpp"
-#include "model/errors.hpp"
 #include "io/limits.hpp"
+#include "model/errors.hpp"
 #include "model/names.hpp"
 
 namespace bine {
@@ -155,13 +155,12 @@ Variety variety_from(const json& element, const std::string& pointer, const Lexi
         const auto index = lexicon.axis_index(axis);
         if (!index) {
           std::string hint = did_you_mean(axis, lexicon.axis_names());
-          diagnostics.add(aroma_reader.at(axis),
-                          fmt::format("unknown aroma axis \"{}\" ({})", axis,
-                                      hint.empty() ? "see the axes in lexicon.json" : hint));
+          diagnostics.add(aroma_reader.at(axis), fmt::format("unknown aroma axis \"{}\" ({})", axis,
+                                                             hint.empty() ? "see the axes in lexicon.json" : hint));
           continue;
         }
-        if (auto v = read_quantity(value, Dimension::number, limits::aroma_intensity, aroma_reader.at(axis),
-                                   diagnostics))
+        if (auto v =
+                read_quantity(value, Dimension::number, limits::aroma_intensity, aroma_reader.at(axis), diagnostics))
           intensities[lexicon.axes()[*index].name] = *v;
       }
       variety.aroma = std::move(intensities);
@@ -177,8 +176,7 @@ Variety variety_from(const json& element, const std::string& pointer, const Lexi
   return variety;
 }
 
-Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon,
-                     Diagnostics& diagnostics) {
+Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon, Diagnostics& diagnostics) {
   FieldReader top(document, "", diagnostics);
   top.allow_only({"catalog", "varieties"});
   Catalog catalog;
@@ -234,7 +232,8 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
     lot.lot = reader.text("lot", false).value_or("");
     if (!lot.lot.empty() && !lot_codes.insert(fold_name(lot.lot)).second)
       diagnostics.add(reader.at("lot"), fmt::format("lot \"{}\" appears twice", lot.lot));
-    lot.form = read_enum<HopForm>(reader, "form", false, form_from, "pellet, whole or powder").value_or(HopForm::pellet);
+    lot.form =
+        read_enum<HopForm>(reader, "form", false, form_from, "pellet, whole or powder").value_or(HopForm::pellet);
     lot.alpha_acid = reader.quantity("alpha_acid", Dimension::percent, limits::alpha_acid, false);
     lot.beta_acid = reader.quantity("beta_acid", Dimension::percent, limits::beta_acid, false);
     lot.total_oil = reader.quantity("total_oil", Dimension::oil_content, limits::total_oil, false);
@@ -244,7 +243,8 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
     if (const json* storage = reader.raw("storage"); storage != nullptr && !storage->is_null()) {
       FieldReader storage_reader(*storage, reader.at("storage"), diagnostics);
       storage_reader.allow_only({"temperature", "package"});
-      auto temperature = storage_reader.quantity("temperature", Dimension::temperature, limits::storage_temperature, true);
+      auto temperature =
+          storage_reader.quantity("temperature", Dimension::temperature, limits::storage_temperature, true);
       auto package = read_enum<Package>(storage_reader, "package", true, package_from, "vacuum, sealed or open");
       if (temperature && package) lot.storage = Storage{*temperature, *package};
     }
@@ -270,7 +270,8 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
     FieldReader stand_reader(*stand, top.at("hop_stand"), diagnostics);
     stand_reader.allow_only({"time", "temperature"});
     auto minutes = stand_reader.quantity("time", Dimension::time, limits::boil_time, true);
-    auto temperature = stand_reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, true);
+    auto temperature =
+        stand_reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, true);
     if (minutes && temperature) recipe.hop_stand = HopStand{*minutes, *temperature};
   }
   for_each_in_array(top, "hops", true, [&](const json& element, const std::string& pointer) {
@@ -300,8 +301,8 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
       diagnostics.add(reader.at("temperature"),
                       fmt::format("only a whirlpool addition takes a temperature (this one is {})", to_string(*use)));
     if (use == HopUse::boil && hop.minutes && recipe.boil_minutes > 0.0 && *hop.minutes > recipe.boil_minutes + 1e-9)
-      diagnostics.add(reader.at("time"), fmt::format("{:g} min is longer than the boil time of {:g} min",
-                                                     *hop.minutes, recipe.boil_minutes));
+      diagnostics.add(reader.at("time"), fmt::format("{:g} min is longer than the boil time of {:g} min", *hop.minutes,
+                                                     recipe.boil_minutes));
     recipe.hops.push_back(std::move(hop));
   });
   return recipe;
@@ -371,11 +372,16 @@ FileKind detect_file_kind(const json& document) {
 
 std::string_view to_string(FileKind kind) {
   switch (kind) {
-    case FileKind::catalog: return "catalog";
-    case FileKind::stock: return "stock";
-    case FileKind::recipe: return "recipe";
-    case FileKind::lexicon: return "lexicon";
-    case FileKind::unknown: return "unknown";
+    case FileKind::catalog:
+      return "catalog";
+    case FileKind::stock:
+      return "stock";
+    case FileKind::recipe:
+      return "recipe";
+    case FileKind::lexicon:
+      return "lexicon";
+    case FileKind::unknown:
+      return "unknown";
   }
   return "unknown";
 }
@@ -387,13 +393,22 @@ FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon) {
   const json document = parse_or_throw(text, diagnostics);
   const FileKind kind = detect_file_kind(document);
   switch (kind) {
-    case FileKind::catalog: parse_catalog(text, file, lexicon); break;
-    case FileKind::stock: parse_stock(text, file); break;
-    case FileKind::recipe: parse_recipe(text, file); break;
-    case FileKind::lexicon: parse_lexicon(text, file); break;
+    case FileKind::catalog:
+      parse_catalog(text, file, lexicon);
+      break;
+    case FileKind::stock:
+      parse_stock(text, file);
+      break;
+    case FileKind::recipe:
+      parse_recipe(text, file);
+      break;
+    case FileKind::lexicon:
+      parse_lexicon(text, file);
+      break;
     case FileKind::unknown:
-      throw InputError(file + ": /: not a bine file (expected a catalog with \"varieties\", a stock file with "
-                              "\"lots\", a recipe with \"hops\" or a lexicon with \"axes\")");
+      throw InputError(file +
+                       ": /: not a bine file (expected a catalog with \"varieties\", a stock file with "
+                       "\"lots\", a recipe with \"hops\" or a lexicon with \"axes\")");
   }
   return kind;
 }

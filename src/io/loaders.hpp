@@ -2,11 +2,10 @@
 // Loaders for our file types. Each reads from a string (the file name is only for messages),
 // collects every problem, and throws one InputError listing them all; otherwise returns the model.
 #include <filesystem>
+#include <nlohmann/json.hpp>
 #include <string>
 #include <string_view>
 #include <vector>
-
-#include <nlohmann/json.hpp>
 
 #include "model/hops.hpp"
 #include "model/lexicon.hpp"

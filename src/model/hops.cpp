@@ -8,34 +8,47 @@ namespace bine {
 
 std::string_view to_string(Purpose purpose) {
   switch (purpose) {
-    case Purpose::aroma: return "aroma";
-    case Purpose::bittering: return "bittering";
-    case Purpose::dual: return "dual";
+    case Purpose::aroma:
+      return "aroma";
+    case Purpose::bittering:
+      return "bittering";
+    case Purpose::dual:
+      return "dual";
   }
   return "";
 }
 std::string_view to_string(HopForm form) {
   switch (form) {
-    case HopForm::pellet: return "pellet";
-    case HopForm::whole: return "whole";
-    case HopForm::powder: return "powder";
+    case HopForm::pellet:
+      return "pellet";
+    case HopForm::whole:
+      return "whole";
+    case HopForm::powder:
+      return "powder";
   }
   return "";
 }
 std::string_view to_string(Package package) {
   switch (package) {
-    case Package::vacuum: return "vacuum";
-    case Package::sealed: return "sealed";
-    case Package::open: return "open";
+    case Package::vacuum:
+      return "vacuum";
+    case Package::sealed:
+      return "sealed";
+    case Package::open:
+      return "open";
   }
   return "";
 }
 std::string_view to_string(HopUse use) {
   switch (use) {
-    case HopUse::first_wort: return "first-wort";
-    case HopUse::boil: return "boil";
-    case HopUse::whirlpool: return "whirlpool";
-    case HopUse::dry_hop: return "dry-hop";
+    case HopUse::first_wort:
+      return "first-wort";
+    case HopUse::boil:
+      return "boil";
+    case HopUse::whirlpool:
+      return "whirlpool";
+    case HopUse::dry_hop:
+      return "dry-hop";
   }
   return "";
 }

@@ -23,7 +23,7 @@ enum class HopUse { first_wort, boil, whirlpool, dry_hop };
 
 /// Oil compounds the catalog format carries, in % of total oil.
 inline const std::vector<std::string>& oil_compounds() {
-  static const std::vector<std::string> names{"myrcene", "humulene", "caryophyllene",
+  static const std::vector<std::string> names{"myrcene",   "humulene", "caryophyllene",
                                               "farnesene", "linalool", "geraniol"};
   return names;
 }
@@ -33,20 +33,20 @@ struct Variety {
   std::string name;
   std::string origin;
   std::optional<Purpose> purpose;
-  std::optional<Range> alpha_acid;   // % w/w
-  std::optional<Range> beta_acid;    // % w/w
-  std::optional<Range> cohumulone;   // % of alpha
-  std::optional<Range> total_oil;    // mL/100 g
-  std::map<std::string, Range> oils; // compound -> % of total oil
-  std::optional<double> stability;   // % of alpha remaining after 6 months at 20 C
+  std::optional<Range> alpha_acid;                     // % w/w
+  std::optional<Range> beta_acid;                      // % w/w
+  std::optional<Range> cohumulone;                     // % of alpha
+  std::optional<Range> total_oil;                      // mL/100 g
+  std::map<std::string, Range> oils;                   // compound -> % of total oil
+  std::optional<double> stability;                     // % of alpha remaining after 6 months at 20 C
   std::optional<std::map<std::string, double>> aroma;  // axis -> 0..5; unnamed axes are 0
   std::vector<std::string> tags;
-  std::string source_file;           // the catalog it came from, for messages
+  std::string source_file;  // the catalog it came from, for messages
 };
 
 struct Catalog {
   std::vector<Variety> varieties;
-  std::vector<std::string> names;    // catalog names merged in, in load order
+  std::vector<std::string> names;  // catalog names merged in, in load order
   bool demo = false;
 };
 
@@ -64,11 +64,11 @@ struct Lot {
   HopForm form = HopForm::pellet;
   std::optional<double> alpha_acid;  // % w/w on the certificate
   std::optional<double> beta_acid;
-  std::optional<double> total_oil;   // mL/100 g
+  std::optional<double> total_oil;  // mL/100 g
   std::optional<Date> packaged;
   std::optional<Storage> storage;
   std::optional<double> on_hand_g;
-  std::optional<double> hsi;         // Hop Storage Index, measured
+  std::optional<double> hsi;  // Hop Storage Index, measured
 };
 
 struct Stock {
@@ -79,13 +79,13 @@ struct Stock {
 
 /// One hop addition in a recipe.
 struct HopAddition {
-  std::string variety;                 // empty when only a lot is named
-  std::string lot;                     // lot code in a stock file, optional
+  std::string variety;  // empty when only a lot is named
+  std::string lot;      // lot code in a stock file, optional
   double grams = 0.0;
-  std::optional<double> alpha_acid;    // % the recipe was written for
+  std::optional<double> alpha_acid;  // % the recipe was written for
   HopUse use = HopUse::boil;
-  std::optional<double> minutes;       // boil minutes, stand minutes, or dry-hop contact time
-  std::optional<double> temperature_c; // whirlpool only
+  std::optional<double> minutes;        // boil minutes, stand minutes, or dry-hop contact time
+  std::optional<double> temperature_c;  // whirlpool only
   std::optional<HopForm> form;
 };
 
@@ -98,11 +98,11 @@ struct HopStand {
 
 struct Recipe {
   std::string name;
-  double batch_volume_l = 0.0;         // volume at the end of the boil
-  double original_gravity = 1.0;       // SG
+  double batch_volume_l = 0.0;    // volume at the end of the boil
+  double original_gravity = 1.0;  // SG
   double boil_minutes = 60.0;
   std::optional<double> target_ibu;
-  std::optional<HopStand> hop_stand;   // hot stand after flame-out, before chilling
+  std::optional<HopStand> hop_stand;  // hot stand after flame-out, before chilling
   std::vector<HopAddition> hops;
   std::string source_file;
 };

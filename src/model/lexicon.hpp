@@ -15,8 +15,8 @@ struct AromaAxis {
 };
 
 struct CompoundAssociation {
-  std::string compound;                 // "linalool"
-  std::map<std::string, double> axes;   // axis -> weight 0..1
+  std::string compound;                // "linalool"
+  std::map<std::string, double> axes;  // axis -> weight 0..1
   std::string source;
 };
 

@@ -9,10 +9,9 @@ namespace {
 
 // Latin-1 Supplement letters U+00C0..U+00FF folded to ASCII (index = code point - 0xC0).
 constexpr std::string_view kLatin1Fold[64] = {
-    "a", "a", "a", "a", "a", "a", "ae", "c", "e", "e", "e", "e", "i", "i", "i", "i",
-    "d", "n", "o", "o", "o", "o", "o", "x", "o", "u", "u", "u", "u", "y", "th", "ss",
-    "a", "a", "a", "a", "a", "a", "ae", "c", "e", "e", "e", "e", "i", "i", "i", "i",
-    "d", "n", "o", "o", "o", "o", "o", "/", "o", "u", "u", "u", "u", "y", "th", "y"};
+    "a", "a", "a", "a", "a", "a", "ae", "c", "e",  "e",  "e", "e", "i", "i", "i", "i", "d",  "n", "o",  "o", "o", "o",
+    "o", "x", "o", "u", "u", "u", "u",  "y", "th", "ss", "a", "a", "a", "a", "a", "a", "ae", "c", "e",  "e", "e", "e",
+    "i", "i", "i", "i", "d", "n", "o",  "o", "o",  "o",  "o", "/", "o", "u", "u", "u", "u",  "y", "th", "y"};
 
 // Latin Extended-A (U+0100..U+017F): base letters in pairs of upper/lower case, mostly.
 char fold_extended_a(unsigned code) {
@@ -91,8 +90,7 @@ std::vector<std::string> closest_names(std::string_view wanted, const std::vecto
     if (!folded.empty() && candidate.rfind(folded, 0) == 0) distance = std::min<std::size_t>(distance, 1);
     scored.emplace_back(distance, name);
   }
-  std::stable_sort(scored.begin(), scored.end(),
-                   [](const auto& x, const auto& y) { return x.first < y.first; });
+  std::stable_sort(scored.begin(), scored.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
   const std::size_t threshold = std::max<std::size_t>(3, folded.size() / 2);
   std::vector<std::string> out;
   for (const auto& [distance, name] : scored) {

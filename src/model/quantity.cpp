@@ -15,18 +15,21 @@ struct Unit {
   double factor;  // canonical = value * factor (+ offset handled separately for temperature)
 };
 
-constexpr std::array kMassUnits{Unit{"g", 1.0},          Unit{"gram", 1.0},
-                                Unit{"grams", 1.0},      Unit{"kg", 1000.0},
-                                Unit{"mg", 0.001},       Unit{"oz", kGramsPerOunce},
-                                Unit{"lb", kGramsPerPound}, Unit{"lbs", kGramsPerPound}};
-constexpr std::array kVolumeUnits{
-    Unit{"l", 1.0},   Unit{"litre", 1.0}, Unit{"liter", 1.0}, Unit{"litres", 1.0},
-    Unit{"liters", 1.0}, Unit{"hl", 100.0}, Unit{"ml", 0.001}, Unit{"gal", kLitresPerUsGallon},
-    Unit{"bbl", kUsGallonsPerBeerBarrel * kLitresPerUsGallon}};
-constexpr std::array kTimeUnits{Unit{"min", 1.0},    Unit{"mins", 1.0},  Unit{"minute", 1.0},
-                                Unit{"minutes", 1.0}, Unit{"h", 60.0},   Unit{"hr", 60.0},
-                                Unit{"hour", 60.0},  Unit{"hours", 60.0}, Unit{"d", 1440.0},
-                                Unit{"day", 1440.0}, Unit{"days", 1440.0}};
+constexpr std::array kMassUnits{
+    Unit{"g", 1.0},    Unit{"gram", 1.0},          Unit{"grams", 1.0},         Unit{"kg", 1000.0},
+    Unit{"mg", 0.001}, Unit{"oz", kGramsPerOunce}, Unit{"lb", kGramsPerPound}, Unit{"lbs", kGramsPerPound}};
+constexpr std::array kVolumeUnits{Unit{"l", 1.0},
+                                  Unit{"litre", 1.0},
+                                  Unit{"liter", 1.0},
+                                  Unit{"litres", 1.0},
+                                  Unit{"liters", 1.0},
+                                  Unit{"hl", 100.0},
+                                  Unit{"ml", 0.001},
+                                  Unit{"gal", kLitresPerUsGallon},
+                                  Unit{"bbl", kUsGallonsPerBeerBarrel* kLitresPerUsGallon}};
+constexpr std::array kTimeUnits{Unit{"min", 1.0},  Unit{"mins", 1.0},   Unit{"minute", 1.0}, Unit{"minutes", 1.0},
+                                Unit{"h", 60.0},   Unit{"hr", 60.0},    Unit{"hour", 60.0},  Unit{"hours", 60.0},
+                                Unit{"d", 1440.0}, Unit{"day", 1440.0}, Unit{"days", 1440.0}};
 constexpr std::array kPercentUnits{Unit{"%", 1.0}};
 constexpr std::array kOilUnits{Unit{"ml/100g", 1.0}, Unit{"ml/100 g", 1.0}};
 
@@ -56,42 +59,66 @@ ParsedQuantity fail(std::string message) { return {std::nullopt, std::move(messa
 
 std::string_view canonical_unit(Dimension dimension) {
   switch (dimension) {
-    case Dimension::mass: return "g";
-    case Dimension::volume: return "L";
-    case Dimension::temperature: return "C";
-    case Dimension::time: return "min";
-    case Dimension::percent: return "%";
-    case Dimension::oil_content: return "mL/100 g";
-    case Dimension::gravity: return "SG";
-    case Dimension::number: return "";
+    case Dimension::mass:
+      return "g";
+    case Dimension::volume:
+      return "L";
+    case Dimension::temperature:
+      return "C";
+    case Dimension::time:
+      return "min";
+    case Dimension::percent:
+      return "%";
+    case Dimension::oil_content:
+      return "mL/100 g";
+    case Dimension::gravity:
+      return "SG";
+    case Dimension::number:
+      return "";
   }
   return "";
 }
 
 std::string_view accepted_units(Dimension dimension) {
   switch (dimension) {
-    case Dimension::mass: return "use g, kg, oz or lb";
-    case Dimension::volume: return "use L, hL, mL, gal (US) or bbl (US beer barrel)";
-    case Dimension::temperature: return "use C or F";
-    case Dimension::time: return "use min, h or d";
-    case Dimension::percent: return "use a number in %";
-    case Dimension::oil_content: return "use a number in mL/100 g";
-    case Dimension::gravity: return "use a specific gravity such as 1.050 or degrees Plato such as 12.4 P";
-    case Dimension::number: return "use a plain number";
+    case Dimension::mass:
+      return "use g, kg, oz or lb";
+    case Dimension::volume:
+      return "use L, hL, mL, gal (US) or bbl (US beer barrel)";
+    case Dimension::temperature:
+      return "use C or F";
+    case Dimension::time:
+      return "use min, h or d";
+    case Dimension::percent:
+      return "use a number in %";
+    case Dimension::oil_content:
+      return "use a number in mL/100 g";
+    case Dimension::gravity:
+      return "use a specific gravity such as 1.050 or degrees Plato such as 12.4 P";
+    case Dimension::number:
+      return "use a plain number";
   }
   return "";
 }
 
 std::string_view dimension_noun(Dimension dimension) {
   switch (dimension) {
-    case Dimension::mass: return "a mass";
-    case Dimension::volume: return "a volume";
-    case Dimension::temperature: return "a temperature";
-    case Dimension::time: return "a time";
-    case Dimension::percent: return "a percentage";
-    case Dimension::oil_content: return "an oil content";
-    case Dimension::gravity: return "a gravity";
-    case Dimension::number: return "a number";
+    case Dimension::mass:
+      return "a mass";
+    case Dimension::volume:
+      return "a volume";
+    case Dimension::temperature:
+      return "a temperature";
+    case Dimension::time:
+      return "a time";
+    case Dimension::percent:
+      return "a percentage";
+    case Dimension::oil_content:
+      return "an oil content";
+    case Dimension::gravity:
+      return "a gravity";
+    case Dimension::number:
+      return "a number";
   }
   return "";
 }
@@ -99,9 +126,7 @@ std::string_view dimension_noun(Dimension dimension) {
 double fahrenheit_to_celsius(double fahrenheit) { return (fahrenheit - 32.0) * 5.0 / 9.0; }
 double celsius_to_fahrenheit(double celsius) { return celsius * 9.0 / 5.0 + 32.0; }
 
-double plato_from_sg(double sg) {
-  return -616.868 + 1111.14 * sg - 630.272 * sg * sg + 135.997 * sg * sg * sg;
-}
+double plato_from_sg(double sg) { return -616.868 + 1111.14 * sg - 630.272 * sg * sg + 135.997 * sg * sg * sg; }
 
 double sg_from_plato(double plato) {
   // Start from the common rule of thumb SG ~ 1 + P / 250 and polish with Newton's method on the
@@ -148,12 +173,24 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
     return {canonical, {}};
   };
   switch (dimension) {
-    case Dimension::mass: factor = unit.empty() ? 1.0 : factor_for(kMassUnits, unit); break;
-    case Dimension::volume: factor = unit.empty() ? 1.0 : factor_for(kVolumeUnits, unit); break;
-    case Dimension::time: factor = unit.empty() ? 1.0 : factor_for(kTimeUnits, unit); break;
-    case Dimension::percent: factor = unit.empty() ? 1.0 : factor_for(kPercentUnits, unit); break;
-    case Dimension::oil_content: factor = unit.empty() ? 1.0 : factor_for(kOilUnits, unit); break;
-    case Dimension::number: factor = unit.empty() ? std::optional<double>(1.0) : std::nullopt; break;
+    case Dimension::mass:
+      factor = unit.empty() ? 1.0 : factor_for(kMassUnits, unit);
+      break;
+    case Dimension::volume:
+      factor = unit.empty() ? 1.0 : factor_for(kVolumeUnits, unit);
+      break;
+    case Dimension::time:
+      factor = unit.empty() ? 1.0 : factor_for(kTimeUnits, unit);
+      break;
+    case Dimension::percent:
+      factor = unit.empty() ? 1.0 : factor_for(kPercentUnits, unit);
+      break;
+    case Dimension::oil_content:
+      factor = unit.empty() ? 1.0 : factor_for(kOilUnits, unit);
+      break;
+    case Dimension::number:
+      factor = unit.empty() ? std::optional<double>(1.0) : std::nullopt;
+      break;
     case Dimension::temperature:
       if (unit.empty() || unit == "c") return {number, {}};
       if (unit == "f") return checked(fahrenheit_to_celsius(number));
@@ -161,8 +198,7 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
     case Dimension::gravity:
       if (unit.empty() || unit == "sg") return {number, {}};
       if (unit == "p" || unit == "plato") {
-        if (number < 0.0 || number > 40.0)
-          return fail(fmt::format("{} is outside 0-40 degrees Plato", quoted));
+        if (number < 0.0 || number > 40.0) return fail(fmt::format("{} is outside 0-40 degrees Plato", quoted));
         return {sg_from_plato(number), {}};
       }
       return not_unit();

@@ -46,9 +46,12 @@ namespace {
 
 std::string_view alpha_source_text(AlphaSource source) {
   switch (source) {
-    case AlphaSource::recipe: return "recipe";
-    case AlphaSource::catalog_midpoint: return "catalog midpoint";
-    case AlphaSource::none: return "none";
+    case AlphaSource::recipe:
+      return "recipe";
+    case AlphaSource::catalog_midpoint:
+      return "catalog midpoint";
+    case AlphaSource::none:
+      return "none";
   }
   return "";
 }
@@ -79,8 +82,7 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
     table.add_row({std::to_string(line.index + 1), line.variety,
                    describe_use(line.use, line.minutes, line.temperature_c, units),
                    dry ? "-" : fmt::format("{:.1f} min", line.bitterness.effective_minutes),
-                   format_mass(line.grams, units),
-                   std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
+                   format_mass(line.grams, units), std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
                    line.alpha_source == AlphaSource::none ? "-" : fmt::format("{:.1f} %", line.alpha_percent),
                    dry ? "-" : fmt::format("{:.1f} %", 100.0 * line.bitterness.utilization),
                    fmt::format("{:.1f} IBU", line.bitterness.ibu)});
@@ -92,11 +94,11 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
          "calibration factors)\n";
 
   if (recipe.hop_stand)
-    out << fmt::format("\nHop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort "
-                       "additions (Malowicki & Shellhammer 2005 rates).\n",
-                       format_minutes(recipe.hop_stand->minutes),
-                       format_temperature(recipe.hop_stand->temperature_c, units),
-                       bitterness.wort.stand_equivalent_minutes);
+    out << fmt::format(
+        "\nHop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort "
+        "additions (Malowicki & Shellhammer 2005 rates).\n",
+        format_minutes(recipe.hop_stand->minutes), format_temperature(recipe.hop_stand->temperature_c, units),
+        bitterness.wort.stand_equivalent_minutes);
   if (recipe.target_ibu)
     out << fmt::format("\nTarget {:.1f} IBU; computed {:.1f} IBU ({:+.1f} IBU).\n", *recipe.target_ibu,
                        bitterness.total_ibu, bitterness.total_ibu - *recipe.target_ibu);

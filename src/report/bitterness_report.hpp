@@ -2,7 +2,6 @@
 // Rendering a recipe's bitterness breakdown (bine ibu) as a text table or JSON, plus the small
 // pieces the rebalance renderer shares (times, cautions).
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 #include <string>
 

@@ -1,12 +1,11 @@
 #include "report/blend_report.hpp"
 
-#include "report/output_format.hpp"
-
 #include <fmt/format.h>
 
 #include <cmath>
 #include <sstream>
 
+#include "report/output_format.hpp"
 #include "report/table.hpp"
 
 namespace bine {
@@ -39,15 +38,20 @@ std::vector<std::string> blend_cautions(const BlendResult& result) {
   return cautions;
 }
 
-void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
+void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context,
+                       UnitSystem units) {
   const auto axes = context.lexicon->axis_names();
   out << "Late-hop blend" << (context.recipe_name.empty() ? "" : " for " + context.recipe_name) << '\n';
-  out << fmt::format("  {} of late hops, {:.1f} mL of oil; {:.0f} % in the whirlpool", format_mass(result.late_grams, units),
-                     result.oil_ml, 100.0 * context.plan->whirlpool_share);
+  out << fmt::format("  {} of late hops, {:.1f} mL of oil; {:.0f} % in the whirlpool",
+                     format_mass(result.late_grams, units), result.oil_ml, 100.0 * context.plan->whirlpool_share);
   out << fmt::format(" ({} for {:.0f} min), the rest dry hop\n\n",
                      format_temperature(context.plan->whirlpool_temperature_c, units), context.plan->whirlpool_minutes);
-  TextTable blend({{context.stock_mode ? "lot" : "variety"}, {"whirlpool", Align::right}, {"dry hop", Align::right},
-                   {"total", Align::right}, {"oil share", Align::right}, {"IBU", Align::right}});
+  TextTable blend({{context.stock_mode ? "lot" : "variety"},
+                   {"whirlpool", Align::right},
+                   {"dry hop", Align::right},
+                   {"total", Align::right},
+                   {"oil share", Align::right},
+                   {"IBU", Align::right}});
   for (const auto& part : result.parts)
     blend.add_row({part_name(part), format_mass(part.whirlpool_g, units), format_mass(part.dry_hop_g, units),
                    format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
@@ -66,10 +70,12 @@ void render_blend_text(std::ostream& out, const BlendResult& result, const Blend
   out << fmt::format("\nBitterness held at {:.1f} IBU ({})\n", result.target_ibu, context.plan->target_ibu_source);
   TextTable ibu({{"part"}, {"amount", Align::right}, {"IBU", Align::right}});
   if (result.bittering)
-    ibu.add_row({fmt::format("bittering: {} at {:.1f} % alpha, {:.0f} min", result.bittering->lot.empty()
-                                 ? result.bittering->variety : result.bittering->variety + " (" + result.bittering->lot + ")",
-                             result.bittering->alpha_percent, result.bittering->minutes),
-                 format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
+    ibu.add_row(
+        {fmt::format("bittering: {} at {:.1f} % alpha, {:.0f} min",
+                     result.bittering->lot.empty() ? result.bittering->variety
+                                                   : result.bittering->variety + " (" + result.bittering->lot + ")",
+                     result.bittering->alpha_percent, result.bittering->minutes),
+         format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
   if (!context.plan->kept.empty() || result.kept_ibu > 0.0)
     ibu.add_row({"other boil additions (kept)", "", fmt::format("{:.1f} IBU", result.kept_ibu)});
   ibu.add_row({"whirlpool (blend)", format_mass(result.late_grams * context.plan->whirlpool_share, units),
@@ -89,7 +95,8 @@ void render_blend_text(std::ostream& out, const BlendResult& result, const Blend
       bool listed = false;
       for (const auto& part : result.parts) listed = listed || (!part.lot.empty() && part.lot == result.bittering->lot);
       if (!listed)
-        left.add_row({result.bittering->variety + " (" + result.bittering->lot + ")", format_mass(*result.bittering_left_g, units)});
+        left.add_row({result.bittering->variety + " (" + result.bittering->lot + ")",
+                      format_mass(*result.bittering_left_g, units)});
     }
     left.render(out, "  ");
   }
@@ -115,31 +122,48 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
   }
   json varieties = json::array();
   for (const auto& part : result.parts) {
-    json v{{"variety", part.variety}, {"grams", rounded(part.grams, 2)}, {"share", rounded(part.oil_share, 4)},
-           {"whirlpool_g", rounded(part.whirlpool_g, 2)}, {"dry_hop_g", rounded(part.dry_hop_g, 2)},
-           {"whirlpool_ibu", rounded(part.whirlpool_ibu, 2)}, {"alpha_acid", rounded(part.alpha_percent, 2)}};
+    json v{{"variety", part.variety},
+           {"grams", rounded(part.grams, 2)},
+           {"share", rounded(part.oil_share, 4)},
+           {"whirlpool_g", rounded(part.whirlpool_g, 2)},
+           {"dry_hop_g", rounded(part.dry_hop_g, 2)},
+           {"whirlpool_ibu", rounded(part.whirlpool_ibu, 2)},
+           {"alpha_acid", rounded(part.alpha_percent, 2)}};
     if (!part.lot.empty()) v["lot"] = part.lot;
     if (part.left_g) v["left_g"] = rounded(*part.left_g, 2);
     varieties.push_back(v);
   }
   json bittering = nullptr;
   if (result.bittering) {
-    bittering = {{"variety", result.bittering->variety}, {"grams", rounded(result.bittering_grams, 2)},
-                 {"ibu", rounded(result.bittering_ibu, 2)}, {"alpha_acid", rounded(result.bittering->alpha_percent, 2)},
+    bittering = {{"variety", result.bittering->variety},
+                 {"grams", rounded(result.bittering_grams, 2)},
+                 {"ibu", rounded(result.bittering_ibu, 2)},
+                 {"alpha_acid", rounded(result.bittering->alpha_percent, 2)},
                  {"minutes", rounded(result.bittering->minutes, 1)}};
     if (!result.bittering->lot.empty()) bittering["lot"] = result.bittering->lot;
     if (result.bittering_left_g) bittering["left_g"] = rounded(*result.bittering_left_g, 2);
   }
-  json doc{{"target", target}, {"weights", weight}, {"varieties", varieties}, {"profile", profile},
-           {"fit", rounded(result.fit, 4)}, {"objective", rounded(result.objective, 6)}, {"bittering", bittering},
-           {"late_grams", rounded(result.late_grams, 2)}, {"oil_ml", rounded(result.oil_ml, 3)},
+  json doc{{"target", target},
+           {"weights", weight},
+           {"varieties", varieties},
+           {"profile", profile},
+           {"fit", rounded(result.fit, 4)},
+           {"objective", rounded(result.objective, 6)},
+           {"bittering", bittering},
+           {"late_grams", rounded(result.late_grams, 2)},
+           {"oil_ml", rounded(result.oil_ml, 3)},
            {"whirlpool_share", rounded(context.plan->whirlpool_share, 4)},
            {"whirlpool_temperature_c", rounded(context.plan->whirlpool_temperature_c, 2)},
            {"whirlpool_minutes", rounded(context.plan->whirlpool_minutes, 2)},
-           {"ibu", {{"target", rounded(result.target_ibu, 2)}, {"source", context.plan->target_ibu_source},
-                    {"kept", rounded(result.kept_ibu, 2)}, {"late", rounded(result.late_ibu, 2)},
-                    {"bittering", rounded(result.bittering_ibu, 2)}}},
-           {"total_ibu", rounded(result.total_ibu, 2)}, {"notes", context.notes}, {"cautions", blend_cautions(result)}};
+           {"ibu",
+            {{"target", rounded(result.target_ibu, 2)},
+             {"source", context.plan->target_ibu_source},
+             {"kept", rounded(result.kept_ibu, 2)},
+             {"late", rounded(result.late_ibu, 2)},
+             {"bittering", rounded(result.bittering_ibu, 2)}}},
+           {"total_ibu", rounded(result.total_ibu, 2)},
+           {"notes", context.notes},
+           {"cautions", blend_cautions(result)}};
   return doc;
 }
 
@@ -149,20 +173,28 @@ std::string blend_to_html(const BlendResult& result, const BlendReportContext& c
   const int bar = 14, group = 2 * bar + 14, left = 40, top = 20, height = 200;
   const int width = left + n * group + 20;
   std::ostringstream svg;
-  svg << fmt::format("<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{}\" height=\"{}\" role=\"img\" "
-                     "aria-label=\"target and blend per aroma axis\">\n", width, top + height + 90);
+  svg << fmt::format(
+      "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{}\" height=\"{}\" role=\"img\" "
+      "aria-label=\"target and blend per aroma axis\">\n",
+      width, top + height + 90);
   for (int level = 0; level <= 5; ++level) {
     const double y = top + height - height * level / 5.0;
-    svg << fmt::format("<line x1=\"{}\" x2=\"{}\" y1=\"{:.1f}\" y2=\"{:.1f}\" class=\"grid\"/>"
-                       "<text x=\"{}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n", left, width - 10, y, y, left - 8, y + 4, level);
+    svg << fmt::format(
+        "<line x1=\"{}\" x2=\"{}\" y1=\"{:.1f}\" y2=\"{:.1f}\" class=\"grid\"/>"
+        "<text x=\"{}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n",
+        left, width - 10, y, y, left - 8, y + 4, level);
   }
   for (int a = 0; a < n; ++a) {
     const double x = left + a * group + 6;
     const double t = result.target[a], p = result.profile[a];
-    svg << fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target {:.1f}</title></rect>",
-                       x, top + height - height * t / 5.0, bar, height * t / 5.0, axes[static_cast<std::size_t>(a)], t);
-    svg << fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"blend\"><title>{} blend {:.1f}</title></rect>",
-                       x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, axes[static_cast<std::size_t>(a)], p);
+    svg << fmt::format(
+        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target "
+        "{:.1f}</title></rect>",
+        x, top + height - height * t / 5.0, bar, height * t / 5.0, axes[static_cast<std::size_t>(a)], t);
+    svg << fmt::format(
+        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"blend\"><title>{} blend "
+        "{:.1f}</title></rect>",
+        x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, axes[static_cast<std::size_t>(a)], p);
     svg << fmt::format("<text transform=\"translate({:.1f},{}) rotate(50)\" class=\"axis\">{}</text>\n", x + 4,
                        top + height + 12, html_escape(axes[static_cast<std::size_t>(a)]));
   }
@@ -176,8 +208,10 @@ std::string blend_to_html(const BlendResult& result, const BlendReportContext& c
       ".key span{{display:inline-block;width:1em;height:1em;margin:0 .3em 0 1em;vertical-align:middle}}\n"
       "pre{{background:#f6f6f4;padding:1em;overflow:auto}}\n</style></head><body>\n"
       "<h1>Late-hop blend{}</h1>\n<p class=\"key\"><span style=\"background:#9a9a9a\"></span>target"
-      "<span style=\"background:#3b6e8f\"></span>blend (intensity 0-5 per axis; fit {:.2f})</p>\n{}\n<pre>{}</pre>\n</body></html>\n",
-      context.recipe_name.empty() ? "" : " for " + html_escape(context.recipe_name), result.fit, svg.str(), html_escape(text.str()));
+      "<span style=\"background:#3b6e8f\"></span>blend (intensity 0-5 per axis; fit "
+      "{:.2f})</p>\n{}\n<pre>{}</pre>\n</body></html>\n",
+      context.recipe_name.empty() ? "" : " for " + html_escape(context.recipe_name), result.fit, svg.str(),
+      html_escape(text.str()));
 }
 
 }  // namespace bine

@@ -2,7 +2,6 @@
 // Rendering a blend: text tables for the terminal, one JSON document, and a self-contained HTML page
 // with an inline SVG chart (grouped bars of target versus blend per aroma axis).
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 #include <string>
 #include <vector>
@@ -18,13 +17,14 @@ namespace bine {
 struct BlendReportContext {
   const Lexicon* lexicon = nullptr;
   const BlendPlan* plan = nullptr;
-  std::string recipe_name;           // empty without --recipe
+  std::string recipe_name;  // empty without --recipe
   bool stock_mode = false;
   std::vector<std::string> notes;
 };
 
 /// Blend, profile versus target, fit, bittering charge, IBU breakdown, stock left, cautions.
-void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units);
+void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context,
+                       UnitSystem units);
 
 /// Canonical units (g, C, min, %); keys: target, varieties, profile, fit, bittering, total_ibu ...
 nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext& context);

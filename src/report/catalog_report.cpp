@@ -95,14 +95,15 @@ void render_variety(std::ostream& out, const Variety& variety, const Lexicon& le
     auto it = variety.oils.find(compound);
     line(compound, it == variety.oils.end() ? "n/a" : range_text(it->second, "% of oil"));
   }
-  line("storage stability", variety.stability ? fmt::format("{:.0f}% of alpha left after 6 months at 20 C", *variety.stability)
-                                                : "n/a");
+  line("storage stability",
+       variety.stability ? fmt::format("{:.0f}% of alpha left after 6 months at 20 C", *variety.stability) : "n/a");
   if (variety.aroma) {
     out << "  aroma (0-5)\n";
     for (const auto& axis : lexicon.axes()) {
       auto it = variety.aroma->find(axis.name);
       const double value = it == variety.aroma->end() ? 0.0 : it->second;
-      out << fmt::format("    {:<14}{:>4.1f}  {}\n", axis.name, value, std::string(static_cast<std::size_t>(value * 4 + 0.5), '#'));
+      out << fmt::format("    {:<14}{:>4.1f}  {}\n", axis.name, value,
+                         std::string(static_cast<std::size_t>(value * 4 + 0.5), '#'));
     }
   } else {
     line("aroma", "no intensities given");

@@ -1,7 +1,6 @@
 #pragma once
 // Rendering catalog entries: a list table, one variety in full, and their JSON forms.
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 
 #include "model/hops.hpp"

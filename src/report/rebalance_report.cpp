@@ -16,12 +16,12 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
     text += "; ";
   }
   if (lot.certificate_alpha && lot.packaged && lot.storage) {
-    text += fmt::format("{:.1f} % packaged {}, {} days at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
-                        "day ({:.1f} % left)",
-                        *lot.certificate_alpha, format_date(*lot.packaged), lot.days,
-                        format_temperature(lot.storage->temperature_c, units), to_string(lot.storage->package),
-                        lot.stability_percent.value_or(0.0), lot.stability_source, lot.alpha_percent,
-                        100.0 * lot.remaining);
+    text += fmt::format(
+        "{:.1f} % packaged {}, {} days at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
+        "day ({:.1f} % left)",
+        *lot.certificate_alpha, format_date(*lot.packaged), lot.days,
+        format_temperature(lot.storage->temperature_c, units), to_string(lot.storage->package),
+        lot.stability_percent.value_or(0.0), lot.stability_source, lot.alpha_percent, 100.0 * lot.remaining);
   } else {
     text += fmt::format("{:.2f} % alpha", lot.alpha_percent);
   }
@@ -56,7 +56,8 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& row : result.additions) {
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
-    table.add_row({std::to_string(row.index + 1), row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
+    table.add_row({std::to_string(row.index + 1), row.variety,
+                   describe_use(row.use, hop.minutes, hop.temperature_c, units),
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
                    dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
@@ -71,14 +72,16 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   if (result.absorber) {
     const auto& row = result.additions[*result.absorber];
     const HopAddition& hop = recipe.hops[row.index];
-    out << fmt::format("Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
-                       "total holds at {:.1f} IBU.\n",
-                       row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
-                       result.ibu_change_absorbed, result.after.total_ibu);
+    out << fmt::format(
+        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
+        "total holds at {:.1f} IBU.\n",
+        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
+        result.ibu_change_absorbed, result.after.total_ibu);
   } else if (result.whirlpool_scaled) {
-    out << fmt::format("No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "
-                       "holds at {:.1f} IBU but their aroma changes.\n",
-                       result.ibu_change_absorbed, result.after.total_ibu);
+    out << fmt::format(
+        "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "
+        "holds at {:.1f} IBU but their aroma changes.\n",
+        result.ibu_change_absorbed, result.after.total_ibu);
   } else {
     out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
   }
@@ -87,8 +90,9 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   } else {
     out << "Stock shortfalls:\n";
     for (const auto& s : result.shortfalls)
-      out << fmt::format("  {} (lot {}): need {}, have {}, short {}\n", s.variety, s.lot, format_mass(s.needed_g, units),
-                         format_mass(s.on_hand_g, units), format_mass(s.needed_g - s.on_hand_g, units));
+      out << fmt::format("  {} (lot {}): need {}, have {}, short {}\n", s.variety, s.lot,
+                         format_mass(s.needed_g, units), format_mass(s.on_hand_g, units),
+                         format_mass(s.needed_g - s.on_hand_g, units));
   }
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());

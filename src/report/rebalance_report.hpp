@@ -2,7 +2,6 @@
 // Rendering a rebalance (bine rebalance): the lots used, a before/after table, which addition took
 // the IBU change, stock shortfalls; text or JSON.
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 #include <vector>
 
@@ -16,7 +15,7 @@ struct RebalanceContext {
   std::vector<ReplacementLot> lots;
   bool from_stock = false;
   Date on;
-  bool on_from_clock = false;     // --on not given: today's date from the system clock
+  bool on_from_clock = false;  // --on not given: today's date from the system clock
 };
 
 void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,

@@ -1,7 +1,6 @@
 #pragma once
 // Rendering an alpha-acid storage estimate (bine age) as text or JSON.
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 #include <string>
 #include <vector>
@@ -17,7 +16,7 @@ struct AgeQuery {
   Date packaged;
   Date on;
   bool on_from_clock = false;
-  std::string stability_source;     // "--stability", "catalog: NAME", "--hsi 0.31", "fair class ..."
+  std::string stability_source;  // "--stability", "catalog: NAME", "--hsi 0.31", "fair class ..."
   std::vector<std::string> notes;
 };
 

@@ -1,13 +1,12 @@
 #include "report/swap_report.hpp"
 
-#include "report/output_format.hpp"
-
 #include <fmt/format.h>
 
 #include <cmath>
 #include <sstream>
 
 #include "report/catalog_report.hpp"
+#include "report/output_format.hpp"
 #include "report/table.hpp"
 
 namespace bine {
@@ -38,7 +37,9 @@ std::vector<std::string> difference_words(const Substitute& s) {
   return words;
 }
 
-std::string name_of(const Substitute& s) { return s.lot ? fmt::format("{} ({})", s.variety.name, s.lot->lot) : s.variety.name; }
+std::string name_of(const Substitute& s) {
+  return s.lot ? fmt::format("{} ({})", s.variety.name, s.lot->lot) : s.variety.name;
+}
 
 std::string factor_text(const Substitute& s) {
   if (!s.amount_factor) return s.amount_basis;
@@ -61,25 +62,27 @@ std::string aroma_chart(const SwapResult& r, const Substitute& s) {
       width, top + height + 70.0, html_escape(r.missing.name), html_escape(name_of(s)));
   for (int level = 0; level <= 5; ++level) {
     const double y = top + height - height * level / 5.0;
-    svg += fmt::format("<line x1=\"{:.0f}\" y1=\"{:.1f}\" x2=\"{:.0f}\" y2=\"{:.1f}\" class=\"grid\"/>"
-                       "<text x=\"{:.0f}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n",
-                       left, y, width - 10.0, y, left - 6.0, y + 4.0, level);
+    svg += fmt::format(
+        "<line x1=\"{:.0f}\" y1=\"{:.1f}\" x2=\"{:.0f}\" y2=\"{:.1f}\" class=\"grid\"/>"
+        "<text x=\"{:.0f}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n",
+        left, y, width - 10.0, y, left - 6.0, y + 4.0, level);
   }
   for (std::size_t a = 0; a < r.axes.size(); ++a) {
     const auto i = static_cast<Eigen::Index>(a);
     const double x = left + group * static_cast<double>(a) + 5.0;
     const double want = i < r.missing_aroma.size() ? r.missing_aroma[i] : 0.0;
     const double got = i < s.aroma.size() ? s.aroma[i] : 0.0;
-    svg += fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"want\">"
-                       "<title>{} {}: {:.1f}</title></rect>\n",
-                       x, top + height - height * want / 5.0, bar, height * want / 5.0, html_escape(r.missing.name),
-                       r.axes[a], want);
-    svg += fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"got\">"
-                       "<title>{} {}: {:.1f}</title></rect>\n",
-                       x + bar, top + height - height * got / 5.0, bar, height * got / 5.0, html_escape(name_of(s)),
-                       r.axes[a], got);
-    svg += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" class=\"axis\" transform=\"rotate(40 {:.1f} {:.1f})\">{}</text>\n",
-                       x + 4.0, top + height + 14.0, x + 4.0, top + height + 14.0, r.axes[a]);
+    svg += fmt::format(
+        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"want\">"
+        "<title>{} {}: {:.1f}</title></rect>\n",
+        x, top + height - height * want / 5.0, bar, height * want / 5.0, html_escape(r.missing.name), r.axes[a], want);
+    svg += fmt::format(
+        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"got\">"
+        "<title>{} {}: {:.1f}</title></rect>\n",
+        x + bar, top + height - height * got / 5.0, bar, height * got / 5.0, html_escape(name_of(s)), r.axes[a], got);
+    svg +=
+        fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" class=\"axis\" transform=\"rotate(40 {:.1f} {:.1f})\">{}</text>\n",
+                    x + 4.0, top + height + 14.0, x + 4.0, top + height + 14.0, r.axes[a]);
   }
   svg += "</svg>\n";
   return svg;
@@ -108,7 +111,8 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
     nlohmann::json item;
     item["variety"] = s.variety.name;
     item["lot"] = s.lot ? nlohmann::json(s.lot->lot) : nlohmann::json(nullptr);
-    item["on_hand_g"] = (s.lot && s.lot->on_hand_g) ? nlohmann::json(rounded(*s.lot->on_hand_g, 1)) : nlohmann::json(nullptr);
+    item["on_hand_g"] =
+        (s.lot && s.lot->on_hand_g) ? nlohmann::json(rounded(*s.lot->on_hand_g, 1)) : nlohmann::json(nullptr);
     item["alpha_today_percent"] = s.alpha_today ? nlohmann::json(rounded(*s.alpha_today, 2)) : nlohmann::json(nullptr);
     if (s.lot) item["alpha_note"] = s.alpha_note;
     item["similarity"] = rounded(s.similarity, 1);
@@ -142,7 +146,8 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
 
 void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool with_pairs) {
   out << fmt::format("Substitutes for {} ({} swap", r.missing.name, to_string(r.purpose));
-  if (r.from_stock) out << fmt::format("; lots on hand in {}, alpha aged to {}", r.stock_name, r.on ? format_date(*r.on) : "?");
+  if (r.from_stock)
+    out << fmt::format("; lots on hand in {}, alpha aged to {}", r.stock_name, r.on ? format_date(*r.on) : "?");
   out << ")\n";
   out << fmt::format("Amount factor: grams of substitute per gram of {} that hold the {}.\n\n", r.missing.name,
                      r.purpose == SwapPurpose::aroma ? "oil delivered (aroma)" : "IBU (alpha acid)");
@@ -191,7 +196,9 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
     out << "\nTwo-variety blends that match better than the best single substitute (shares by weight)\n";
     TextTable pairs({{"Blend", Align::left}, {"Shares", Align::right}, {"Similarity", Align::right}});
     for (const auto& p : r.pairs) {
-      const auto label = [&](int i) { return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]); };
+      const auto label = [&](int i) {
+        return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]);
+      };
       pairs.add_row({label(0) + " + " + label(1),
                      fmt::format("{:.0f} % + {:.0f} %", 100.0 * p.shares[0], 100.0 * p.shares[1]),
                      fmt::format("{:.0f}/100", p.similarity)});
@@ -222,14 +229,16 @@ std::string swap_html(const SwapResult& r, UnitSystem units, bool with_pairs) {
       ".axis{font-size:11px;fill:#333}.want{fill:#4d4d4d}.got{fill:#9bb0a5}\n"
       ".key span{display:inline-block;width:.9em;height:.9em;margin:0 .3em 0 1em;vertical-align:middle}\n"
       "</style>\n</head>\n<body>\n";
-  html += "<h1>Substitutes for " + html_escape(r.missing.name) + " (" + std::string(to_string(r.purpose)) + " swap)</h1>\n";
+  html +=
+      "<h1>Substitutes for " + html_escape(r.missing.name) + " (" + std::string(to_string(r.purpose)) + " swap)</h1>\n";
   const std::size_t charts = std::min<std::size_t>(3, r.substitutes.size());
   for (std::size_t i = 0; i < charts; ++i) {
     const Substitute& s = r.substitutes[i];
     html += fmt::format("<h2>{}. {}: similarity {:.0f}/100</h2>\n", i + 1, html_escape(name_of(s)), s.similarity);
-    html += fmt::format("<p class=\"key\"><span class=\"want\" style=\"background:#4d4d4d\"></span>{} "
-                        "<span style=\"background:#9bb0a5\"></span>{} (aroma intensity 0-5)</p>\n",
-                        html_escape(r.missing.name), html_escape(name_of(s)));
+    html += fmt::format(
+        "<p class=\"key\"><span class=\"want\" style=\"background:#4d4d4d\"></span>{} "
+        "<span style=\"background:#9bb0a5\"></span>{} (aroma intensity 0-5)</p>\n",
+        html_escape(r.missing.name), html_escape(name_of(s)));
     html += aroma_chart(r, s);
   }
   html += "<h2>Details</h2>\n<pre>" + html_escape(text.str()) + "</pre>\n</body>\n</html>\n";

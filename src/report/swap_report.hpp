@@ -2,7 +2,6 @@
 // Rendering a swap: text tables for the terminal, one JSON document, and a self-contained HTML page
 // with grouped bars (missing variety vs substitute per aroma axis).
 #include <nlohmann/json.hpp>
-
 #include <ostream>
 #include <string>
 

@@ -32,8 +32,10 @@ void TextTable::render(std::ostream& out, const std::string& indent) const {
     for (std::size_t c = 0; c < columns_.size(); ++c) {
       const std::size_t pad = widths[c] - display_width(cells[c]);
       if (c > 0) line += "  ";
-      if (columns_[c].align == Align::right) line += std::string(pad, ' ') + cells[c];
-      else line += cells[c] + (c + 1 < columns_.size() ? std::string(pad, ' ') : "");
+      if (columns_[c].align == Align::right)
+        line += std::string(pad, ' ') + cells[c];
+      else
+        line += cells[c] + (c + 1 < columns_.size() ? std::string(pad, ' ') : "");
     }
     while (!line.empty() && line.back() == ' ') line.pop_back();
     out << line << '\n';
@@ -46,8 +48,10 @@ void TextTable::render(std::ostream& out, const std::string& indent) const {
   const std::string rule = indent + std::string(total, '-');
   out << rule << '\n';
   for (const auto& row : rows_) {
-    if (row.empty()) out << rule << '\n';
-    else emit(row);
+    if (row.empty())
+      out << rule << '\n';
+    else
+      emit(row);
   }
 }
 

@@ -3,9 +3,9 @@
 // infeasible), print one "bine: " line per problem naming the file and JSON pointer, contain the
 // case's message fragment, and leak no exception or sanitizer text.
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
 
 #include <fstream>
+#include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
@@ -41,7 +41,7 @@ fs::path make_big_file(const fs::path& folder) {
   return path;
 }
 
-const std::vector<std::string> kLeaks{"what()", "terminate", "exception", "nlohmann", "Assertion",
+const std::vector<std::string> kLeaks{"what()",           "terminate",     "exception",      "nlohmann", "Assertion",
                                       "AddressSanitizer", "runtime error", "internal error", "[json."};
 
 }  // namespace
@@ -66,7 +66,8 @@ TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem"
   int run = 0;
   for (const auto& item : load_cases()) {
     const std::string name = item.at("name");
-    const std::string file = item.contains("file") ? (kCases / "files" / item.at("file").get<std::string>()).string() : "";
+    const std::string file =
+        item.contains("file") ? (kCases / "files" / item.at("file").get<std::string>()).string() : "";
     auto expand = [&](std::string text) {
       text = replace_all(text, "{file}", file);
       text = replace_all(text, "{big}", big.string());
@@ -84,7 +85,8 @@ TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem"
     CHECK(result.err.find(expand(item.at("message").get<std::string>())) != std::string::npos);
     for (const auto& leak : kLeaks) CHECK(result.err.find(leak) == std::string::npos);
     if (item.contains("names"))
-      for (const auto& needle : item.at("names")) CHECK(result.err.find(expand(needle.get<std::string>())) != std::string::npos);
+      for (const auto& needle : item.at("names"))
+        CHECK(result.err.find(expand(needle.get<std::string>())) != std::string::npos);
     std::istringstream lines(result.err);
     std::string line;
     int count = 0;

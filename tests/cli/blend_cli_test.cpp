@@ -1,14 +1,13 @@
 // End-to-end tests of `bine blend` on the example files: exit codes, JSON keys, IBU held (checked
 // again through `bine ibu` on the --write output), stock limits, determinism.
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
-
 #include <sys/wait.h>
 #include <unistd.h>
 
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
 
@@ -82,7 +81,8 @@ TEST_CASE("bine blend: infeasible requests exit 3, bad options exit 2") {
   // 2 IBU is below what the kept 10-minute addition alone gives.
   CHECK(bine_blend("blend --target floral=4 --recipe " + ex + "pale-ale.json' --ibu 2").status == 3);
   // Without bittering, 10 % of 80 g in the whirlpool cannot give 150 IBU.
-  CHECK(bine_blend("blend --target floral=4 --recipe " + ex + "pale-ale.json' --no-bittering --ibu 150 --split 0.1").status == 3);
+  CHECK(bine_blend("blend --target floral=4 --recipe " + ex + "pale-ale.json' --no-bittering --ibu 150 --split 0.1")
+            .status == 3);
   CHECK(bine_blend("blend --target floral=4 --split 2 --recipe " + ex + "pale-ale.json'").status == 2);
   CHECK(bine_blend("blend --target 'flowery=4' --recipe " + ex + "pale-ale.json'").status == 2);
   CHECK(bine_blend("blend --target floral=4").status == 2);  // no recipe and no --volume/--ibu

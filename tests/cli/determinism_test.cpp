@@ -2,8 +2,8 @@
 // two outputs must be equal, non-empty, valid JSON. JSON stays in canonical units, so --units us
 // must not change it either.
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
 
+#include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
@@ -38,8 +38,8 @@ TEST_CASE("catalog list --json is byte-identical run to run and unit-system inde
   const std::string us = check_twice({"--units", "us", "catalog", "list", "--json"});
   CHECK(metric == us);
   // A user catalog merged in changes the document, deterministically.
-  const std::string merged =
-      check_twice({"--catalog", std::string(BINE_TEST_DIR) + "/bad-input/files/catalog-good.json", "catalog", "list", "--json"});
+  const std::string merged = check_twice(
+      {"--catalog", std::string(BINE_TEST_DIR) + "/bad-input/files/catalog-good.json", "catalog", "list", "--json"});
   CHECK(merged != metric);
 }
 

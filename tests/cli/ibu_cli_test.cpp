@@ -1,6 +1,7 @@
 // End-to-end: bine ibu and bine age on small fixture files; expected values are METHODS.md check
 // values or hand arithmetic written beside them.
 #include <doctest/doctest.h>
+
 #include <nlohmann/json.hpp>
 
 #include "cli/command_output.hpp"
@@ -87,9 +88,10 @@ TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (METHODS.
 }
 
 TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catalog: 70 %)") {
-  const auto result = run_command("--catalog '" + fixture("h3-catalog.json") +
-                                  "' age --alpha 10 --packaged 2026-01-01 --stored '68 F,open' --variety 'fixture aroma' "
-                                  "--on 2026-06-30 --json");
+  const auto result =
+      run_command("--catalog '" + fixture("h3-catalog.json") +
+                  "' age --alpha 10 --packaged 2026-01-01 --stored '68 F,open' --variety 'fixture aroma' "
+                  "--on 2026-06-30 --json");
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
@@ -99,10 +101,12 @@ TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catal
 }
 
 TEST_CASE("age rejects a packaging date after --on, bad storage and missing stability, exit 2") {
-  const auto future = run_command("age --alpha 6 --packaged 2026-12-02 --stored '-2 C,vacuum' --stability 50 --on 2026-12-01");
+  const auto future =
+      run_command("age --alpha 6 --packaged 2026-12-02 --stored '-2 C,vacuum' --stability 50 --on 2026-12-01");
   CHECK(future.status == 2);
   CHECK(future.err.find("--packaged: 2026-12-02: after the date --on 2026-12-01") != std::string::npos);
-  const auto storage = run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,jar' --stability 50 --on 2026-12-01");
+  const auto storage =
+      run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,jar' --stability 50 --on 2026-12-01");
   CHECK(storage.status == 2);
   CHECK(storage.err.find("unknown package \"jar\"") != std::string::npos);
   const auto none = run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,vacuum' --on 2026-12-01");

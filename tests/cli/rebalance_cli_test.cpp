@@ -1,9 +1,9 @@
 // End-to-end: bine rebalance on fixture files; expected values by hand arithmetic and the METHODS.md
 // check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
 
 #include <filesystem>
+#include <nlohmann/json.hpp>
 
 #include "cli/command_output.hpp"
 
@@ -58,9 +58,9 @@ TEST_CASE("rebalance --stock: alpha aged to --on and the shortfall reported") {
 
 TEST_CASE("rebalance --write saves a recipe that ibu reads back at the same total") {
   const auto out = std::filesystem::temp_directory_path() / ("bine-h3-written-" + std::to_string(::getpid()) + ".json");
-  const auto result = run_command(with_catalog("rebalance --json '" + fixture("h3-rebalance.json") +
-                                               "' --lot 'Fixture Bitter=9.5%' --on 2026-12-01 --write '" +
-                                               out.string() + "'"));
+  const auto result =
+      run_command(with_catalog("rebalance --json '" + fixture("h3-rebalance.json") +
+                               "' --lot 'Fixture Bitter=9.5%' --on 2026-12-01 --write '" + out.string() + "'"));
   REQUIRE(result.status == 0);
   const double held = nlohmann::json::parse(result.out)["total_ibu_after"].get<double>();
   const auto reread = run_command(with_catalog("ibu --json '" + out.string() + "'"));
@@ -71,7 +71,8 @@ TEST_CASE("rebalance --write saves a recipe that ibu reads back at the same tota
 }
 
 TEST_CASE("rebalance rejects a lot the recipe does not use, a lot packaged after --on, and no lots; exit 2") {
-  const auto unused = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --lot 'Keelstone=9%'"));
+  const auto unused =
+      run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --lot 'Keelstone=9%'"));
   CHECK(unused.status == 2);
   CHECK(unused.err.find("--lot: \"Keelstone=9%\": the recipe does not use Keelstone") != std::string::npos);
   const auto future = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --stock '" +
@@ -80,7 +81,8 @@ TEST_CASE("rebalance rejects a lot the recipe does not use, a lot packaged after
   CHECK(future.err.find("/lots/0/packaged: 2025-12-01 is after the brew day --on 2025-11-30") != std::string::npos);
   const auto neither = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "'"));
   CHECK(neither.status == 2);
-  const auto alpha = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --lot 'Fixture Bitter=0.07'"));
+  const auto alpha =
+      run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --lot 'Fixture Bitter=0.07'"));
   CHECK(alpha.status == 2);
 }
 
@@ -95,8 +97,8 @@ TEST_CASE("rebalance --json is byte-identical run to run") {
 
 TEST_CASE("rebalance: late hops that alone exceed the total are infeasible, exit 3 with a way out") {
   // Whirlpool 200 g going from 5 % to 15 % triples its IBU, beyond the recipe's total.
-  const auto result = run_command(with_catalog("rebalance '" + fixture("h3-infeasible.json") +
-                                               "' --lot 'Fixture Aroma=15%' --on 2026-12-01"));
+  const auto result = run_command(
+      with_catalog("rebalance '" + fixture("h3-infeasible.json") + "' --lot 'Fixture Aroma=15%' --on 2026-12-01"));
   CHECK(result.status == 3);
   CHECK(result.err.find("cut the whirlpool amounts") != std::string::npos);
 }

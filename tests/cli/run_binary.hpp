@@ -1,9 +1,9 @@
 #pragma once
 // Runs the built bine binary as a child process (fork/exec, no shell), capturing stdout, stderr
 // and how it ended, for the end-to-end tests.
+#include <fcntl.h>
 #include <sys/types.h>
 #include <sys/wait.h>
-#include <fcntl.h>
 #include <unistd.h>
 
 #include <cstdlib>

@@ -1,9 +1,9 @@
 // End-to-end: bine swap on the demo catalog and stock. Expected values come from the input files
 // (lot codes on hand) and from hand arithmetic, never from a previous run's output.
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
 
 #include <fstream>
+#include <nlohmann/json.hpp>
 #include <set>
 
 #include "cli/run_binary.hpp"
@@ -96,8 +96,8 @@ TEST_CASE("a renamed copy given with --catalog is the first substitute; bitterin
 TEST_CASE("swap text honours --units us, and --html writes a page with charts") {
   const bine::test::TempDir dir;
   const fs::path html = dir.path() / "swap.html";
-  const auto run = run_bine({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--html",
-                             html.string()});
+  const auto run =
+      run_bine({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--html", html.string()});
   REQUIRE(run.status == 0);
   // Seawick SW-25-021 is "3 lb" and Warmstrand WS-25-040 "12 oz" on hand in the stock file.
   CHECK(run.out.find("3.00 lb") != std::string::npos);

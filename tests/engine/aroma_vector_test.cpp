@@ -1,11 +1,12 @@
 // The descriptor vectorizer: similarity by hand arithmetic on tiny catalogs, symmetry and range on the
 // demo catalog, missing-block re-weighting, confidence, and that the index vectors' inner product is
 // the exact similarity when nothing is missing.
+#include "engine/aroma_vector.hpp"
+
 #include <doctest/doctest.h>
 
 #include <cmath>
 
-#include "engine/aroma_vector.hpp"
 #include "io/data_dir.hpp"
 
 namespace {

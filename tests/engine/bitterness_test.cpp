@@ -1,8 +1,9 @@
 // Bitterness models against the published formulas and the check values of METHODS.md
 // ("Check values", derived with double precision from the cited formulas).
+#include "engine/bitterness.hpp"
+
 #include <doctest/doctest.h>
 
-#include "engine/bitterness.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/errors.hpp"
 
@@ -160,7 +161,8 @@ TEST_CASE("first-wort counts the full boil, dry hops add nothing, a hop stand ex
   CHECK(w.stand_equivalent_minutes == doctest::Approx(3.31).epsilon(2e-3));
   const auto late = bine::addition_bitterness(boil(28, 10), 10, w, {});
   CHECK(late.effective_minutes == doctest::Approx(13.31).epsilon(1e-3));
-  CHECK(late.ibu == doctest::Approx(bine::addition_bitterness(boil(28, 13.307), 10, wort(1.050), {}).ibu).epsilon(1e-3));
+  CHECK(late.ibu ==
+        doctest::Approx(bine::addition_bitterness(boil(28, 13.307), 10, wort(1.050), {}).ibu).epsilon(1e-3));
 }
 
 TEST_CASE("BU:GU = IBU / gravity units, with the common-practice reading") {

@@ -1,16 +1,16 @@
 // Tests of the exact blend QP solver: hand-worked small cases, and 200 random problems checked
 // against SciPy's SLSQP (tests/engine/qp_reference.py, Debian python3-scipy) to 1e-6 in objective.
+#include "engine/blend_solver.hpp"
+
 #include <doctest/doctest.h>
-#include <nlohmann/json.hpp>
+#include <unistd.h>
 
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <nlohmann/json.hpp>
 #include <random>
 #include <string>
-#include <unistd.h>
-
-#include "engine/blend_solver.hpp"
 
 namespace {
 
@@ -51,8 +51,8 @@ nlohmann::json vector_json(const Eigen::VectorXd& v) { return std::vector<double
 
 TEST_CASE("one axis, two varieties: the exact mix and a binding limit (hand arithmetic)") {
   // Profiles 0 and 4 on one axis, target 3: P = 4 x2, so x2 = 3/4, x1 = 1/4 and J = 0.
-  BlendQp qp = qp_from_least_squares(row_matrix({0.0, 4.0}), Eigen::VectorXd::Constant(1, 3.0),
-                                     Eigen::VectorXd::Ones(1));
+  BlendQp qp =
+      qp_from_least_squares(row_matrix({0.0, 4.0}), Eigen::VectorXd::Constant(1, 3.0), Eigen::VectorXd::Ones(1));
   auto free = solve_blend_qp(qp);
   REQUIRE(free.feasible);
   CHECK(free.shares[0] == doctest::Approx(0.25));
@@ -70,8 +70,8 @@ TEST_CASE("one axis, two varieties: the exact mix and a binding limit (hand arit
 TEST_CASE("an equality that pins the shares (hand arithmetic)") {
   // Profiles 2 and 5, target 5 would want x2 = 1, but 3 x1 + 1 x2 = 2 with x1 + x2 = 1 gives
   // x1 = 1/2, x2 = 1/2: P = 3.5, J = 1.5^2 = 2.25.
-  BlendQp qp = qp_from_least_squares(row_matrix({2.0, 5.0}), Eigen::VectorXd::Constant(1, 5.0),
-                                     Eigen::VectorXd::Ones(1));
+  BlendQp qp =
+      qp_from_least_squares(row_matrix({2.0, 5.0}), Eigen::VectorXd::Constant(1, 5.0), Eigen::VectorXd::Ones(1));
   qp.equality = Eigen::Vector2d(3.0, 1.0);
   qp.equality_bound = 2.0;
   auto solution = solve_blend_qp(qp);
@@ -82,8 +82,8 @@ TEST_CASE("an equality that pins the shares (hand arithmetic)") {
 
 TEST_CASE("identical profiles (singular Hessian) still give the exact minimum") {
   // Two lots of one variety, profile 4, target 4: J = 0 for any split; a limit x1 <= 0.2 holds.
-  BlendQp qp = qp_from_least_squares(row_matrix({4.0, 4.0}), Eigen::VectorXd::Constant(1, 4.0),
-                                     Eigen::VectorXd::Ones(1));
+  BlendQp qp =
+      qp_from_least_squares(row_matrix({4.0, 4.0}), Eigen::VectorXd::Constant(1, 4.0), Eigen::VectorXd::Ones(1));
   qp.inequality = row_matrix({1.0, 0.0});
   qp.inequality_bound = Eigen::VectorXd::Constant(1, 0.2);
   auto solution = solve_blend_qp(qp);
@@ -94,8 +94,8 @@ TEST_CASE("identical profiles (singular Hessian) still give the exact minimum") 
 
 TEST_CASE("contradictory limits are reported infeasible") {
   // x1 <= -0.1 cannot hold with x >= 0.
-  BlendQp qp = qp_from_least_squares(row_matrix({1.0, 2.0}), Eigen::VectorXd::Constant(1, 1.0),
-                                     Eigen::VectorXd::Ones(1));
+  BlendQp qp =
+      qp_from_least_squares(row_matrix({1.0, 2.0}), Eigen::VectorXd::Constant(1, 1.0), Eigen::VectorXd::Ones(1));
   qp.inequality = row_matrix({1.0, 0.0});
   qp.inequality_bound = Eigen::VectorXd::Constant(1, -0.1);
   CHECK_FALSE(solve_blend_qp(qp).feasible);
@@ -113,7 +113,8 @@ TEST_CASE("200 random blend QPs agree with SciPy SLSQP to 1e-6 in objective") {
     const Eigen::Index n = share_count(random);
     Eigen::MatrixXd a(axes, n);
     for (Eigen::Index i = 0; i < axes; ++i)
-      for (Eigen::Index j = 0; j < n; ++j) a(i, j) = unit(random) < 0.5 ? 0.0 : intensity(random) * (0.5 + unit(random));
+      for (Eigen::Index j = 0; j < n; ++j)
+        a(i, j) = unit(random) < 0.5 ? 0.0 : intensity(random) * (0.5 + unit(random));
     if (n >= 2 && unit(random) < 0.15) a.col(1) = a.col(0);  // two lots of one variety
     Eigen::VectorXd b(axes), w(axes);
     for (Eigen::Index i = 0; i < axes; ++i) {
@@ -148,8 +149,11 @@ TEST_CASE("200 random blend QPs agree with SciPy SLSQP to 1e-6 in objective") {
       qp.inequality.row(static_cast<Eigen::Index>(r)) = rows[r].transpose();
       qp.inequality_bound[static_cast<Eigen::Index>(r)] = bounds[r];
     }
-    nlohmann::json document{{"A", matrix_json(a)}, {"b", vector_json(b)}, {"w", vector_json(w)},
-                            {"C", matrix_json(qp.inequality)}, {"d", vector_json(qp.inequality_bound)}};
+    nlohmann::json document{{"A", matrix_json(a)},
+                            {"b", vector_json(b)},
+                            {"w", vector_json(w)},
+                            {"C", matrix_json(qp.inequality)},
+                            {"d", vector_json(qp.inequality_bound)}};
     if (n >= 2 && unit(random) < 0.2) {  // no bittering charge: late IBU pinned
       Eigen::VectorXd e(n);
       for (Eigen::Index j = 0; j < n; ++j) e[j] = 10.0 * unit(random);
@@ -161,8 +165,8 @@ TEST_CASE("200 random blend QPs agree with SciPy SLSQP to 1e-6 in objective") {
     problems.push_back(qp);
     documents.push_back(document);
   }
-  const auto input = std::filesystem::temp_directory_path() /
-                     ("bine-qp-problems-" + std::to_string(::getpid()) + ".json");
+  const auto input =
+      std::filesystem::temp_directory_path() / ("bine-qp-problems-" + std::to_string(::getpid()) + ".json");
   std::ofstream(input) << documents.dump();
   const std::string output =
       run_command(std::string(BINE_PYTHON) + " " + BINE_TEST_DIR + "/engine/qp_reference.py " + input.string());

@@ -1,13 +1,14 @@
 // Tests of the blend engine: amounts and IBU held exactly, stock limits, a single-variety target,
 // and infeasible requests. Candidates are hand-made vectors (not demo data); expected values are
 // worked by hand in the comments or come from the bitterness engine's own published formulas.
+#include "engine/blend.hpp"
+
 #include <doctest/doctest.h>
 
 #include <random>
 #include <string>
 
 #include "engine/bitterness.hpp"
-#include "engine/blend.hpp"
 #include "model/errors.hpp"
 
 namespace {
@@ -119,9 +120,12 @@ TEST_CASE("local search finds a complementary pair that the pool leaves out (han
   // 4 + 4 = 8) and the 8 strongest per axis (the strong ones come first in the list and tie A and B
   // at score 5), so neither A nor B is in it.
   BlendRequest request = brew();
-  for (int i = 0; i < 30; ++i) request.candidates.push_back(candidate("near" + std::to_string(i), axes({{0, 3.0}, {1, 3.0}, {2, 1.0}}), 1.5, 5.0));
-  for (int i = 0; i < 10; ++i) request.candidates.push_back(candidate("citrus" + std::to_string(i), axes({{0, 5.0}, {1, 4.5}}), 1.5, 5.0));
-  for (int i = 0; i < 10; ++i) request.candidates.push_back(candidate("floral" + std::to_string(i), axes({{0, 4.5}, {1, 5.0}}), 1.5, 5.0));
+  for (int i = 0; i < 30; ++i)
+    request.candidates.push_back(candidate("near" + std::to_string(i), axes({{0, 3.0}, {1, 3.0}, {2, 1.0}}), 1.5, 5.0));
+  for (int i = 0; i < 10; ++i)
+    request.candidates.push_back(candidate("citrus" + std::to_string(i), axes({{0, 5.0}, {1, 4.5}}), 1.5, 5.0));
+  for (int i = 0; i < 10; ++i)
+    request.candidates.push_back(candidate("floral" + std::to_string(i), axes({{0, 4.5}, {1, 5.0}}), 1.5, 5.0));
   request.candidates.push_back(candidate("A", axes({{0, 5.0}, {1, 1.0}}), 1.5, 5.0));
   request.candidates.push_back(candidate("B", axes({{0, 1.0}, {1, 5.0}}), 1.5, 5.0));
   request.target = bine::target_from_spec(axes({{0, 3.0}, {1, 3.0}}), named({0, 1}), 0.25);
@@ -150,14 +154,15 @@ TEST_CASE("total IBU equals the target to 0.05 IBU in every blend (100 random re
     for (int i = 0; i < 30; ++i) {
       Eigen::VectorXd aroma = Eigen::VectorXd::Zero(14);
       for (int k = 0; k < 3; ++k) aroma[static_cast<Eigen::Index>(unit(random) * 14)] = 1.0 + 4.0 * unit(random);
-      request.candidates.push_back(candidate("v" + std::to_string(i), aroma, 0.5 + 2.5 * unit(random), 3.0 + 12.0 * unit(random)));
+      request.candidates.push_back(
+          candidate("v" + std::to_string(i), aroma, 0.5 + 2.5 * unit(random), 3.0 + 12.0 * unit(random)));
     }
     request.target_ibu = 10.0 + 50.0 * unit(random);
     request.kept_ibu = unit(random) < 0.5 ? 4.0 * unit(random) : 0.0;
     request.whirlpool_share = unit(random);
     request.amount = 20.0 * (1.0 + 9.0 * unit(random));  // 1-10 g/L
-    request.target = bine::target_from_spec(axes({{static_cast<int>(unit(random) * 14), 4.0}, {0, 2.0}}),
-                                            named({0}), 0.25);
+    request.target =
+        bine::target_from_spec(axes({{static_cast<int>(unit(random) * 14), 4.0}, {0, 2.0}}), named({0}), 0.25);
     request.target.named[0] = true;
     // Least whirlpool IBU any blend can give: every gram in the least bitter candidate.
     double least = 1e300;

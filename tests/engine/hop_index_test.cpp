@@ -1,15 +1,15 @@
 // The neighbour index against a plain Eigen brute-force ranking (the reference: every inner product
 // computed in double precision and sorted), and HNSW recall on a synthetic catalog.
+#include "engine/hop_index.hpp"
+
 #include <doctest/doctest.h>
 
 #include <Eigen/Dense>
-
 #include <algorithm>
 #include <random>
 #include <set>
 
 #include "engine/aroma_vector.hpp"
-#include "engine/hop_index.hpp"
 #include "engine/synthetic_catalog.hpp"
 #include "io/data_dir.hpp"
 
@@ -34,12 +34,12 @@ std::vector<std::int64_t> brute_force(const Eigen::MatrixXd& m, const std::vecto
   for (Eigen::Index j = 0; j < m.cols(); ++j) q[j] = query[static_cast<std::size_t>(j)];
   const Eigen::VectorXd scores = m * q;
   std::vector<std::int64_t> ids;
-  if (subset) ids = *subset;
+  if (subset)
+    ids = *subset;
   else
     for (Eigen::Index i = 0; i < m.rows(); ++i) ids.push_back(i);
-  std::sort(ids.begin(), ids.end(), [&](std::int64_t a, std::int64_t b) {
-    return scores[a] != scores[b] ? scores[a] > scores[b] : a < b;
-  });
+  std::sort(ids.begin(), ids.end(),
+            [&](std::int64_t a, std::int64_t b) { return scores[a] != scores[b] ? scores[a] > scores[b] : a < b; });
   ids.resize(std::min(k, ids.size()));
   return ids;
 }
@@ -84,7 +84,8 @@ TEST_CASE("exact index ranks the demo catalog as Eigen brute force does") {
       // Float scores may tie differently from double ones only when two scores agree to ~1e-6.
       REQUIRE(hits.size() == expected.size());
       for (std::size_t r = 0; r < hits.size(); ++r) {
-        CHECK(hits[r].score == doctest::Approx(m.row(expected[r]).dot(m.row(static_cast<Eigen::Index>(q)))).epsilon(1e-5));
+        CHECK(hits[r].score ==
+              doctest::Approx(m.row(expected[r]).dot(m.row(static_cast<Eigen::Index>(q)))).epsilon(1e-5));
       }
       // Same ids in the same order, except that rows whose exact scores tie (duplicated descriptors)
       // may come in either order: then the reference scores at each rank must agree.

@@ -1,8 +1,9 @@
 // Rebalancing recipes to new lots: the rules of rebalance.cpp checked by hand arithmetic and the
 // METHODS.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
+#include "engine/rebalance.hpp"
+
 #include <doctest/doctest.h>
 
-#include "engine/rebalance.hpp"
 #include "model/errors.hpp"
 
 namespace {
@@ -77,9 +78,9 @@ TEST_CASE("a 60-minute addition rebalanced to a new lot holds its IBU (30 g at 7
 }
 
 TEST_CASE("whirlpool holds its oil and the largest boil addition absorbs the IBU change") {
-  const auto recipe = recipe_of({addition("Bitter", 10, 7.0, HopUse::boil, 15),
-                                 addition("Bitter", 30, 7.0, HopUse::boil, 60),
-                                 addition("Aroma", 40, 5.0, HopUse::whirlpool, 20, 80.0)});
+  const auto recipe =
+      recipe_of({addition("Bitter", 10, 7.0, HopUse::boil, 15), addition("Bitter", 30, 7.0, HopUse::boil, 60),
+                 addition("Aroma", 40, 5.0, HopUse::whirlpool, 20, 80.0)});
   const auto result = bine::rebalance(recipe, {lot("Aroma", 8.0, 2.0)}, test_catalog(), {});
   // Oil held: 40 g x 1.5 / 2.0 = 30 g (catalog midpoint 1.5 mL/100 g).
   CHECK(result.additions[2].grams_after == doctest::Approx(30.0));
@@ -95,8 +96,8 @@ TEST_CASE("whirlpool holds its oil and the largest boil addition absorbs the IBU
 }
 
 TEST_CASE("without oil data late additions hold their grams") {
-  const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60),
-                                 addition("Aroma", 50, 5.0, HopUse::dry_hop, 4 * 1440)});
+  const auto recipe =
+      recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60), addition("Aroma", 50, 5.0, HopUse::dry_hop, 4 * 1440)});
   const auto result = bine::rebalance(recipe, {lot("Aroma", 6.0)}, test_catalog(), {});
   CHECK(result.additions[1].grams_after == 50.0);
   CHECK(result.additions[1].rule == bine::RebalanceRule::holds_grams);
@@ -115,8 +116,8 @@ TEST_CASE("with no boil addition the whirlpool additions scale to hold total IBU
 }
 
 TEST_CASE("late additions that alone exceed the total are infeasible") {
-  const auto recipe = recipe_of({addition("Bitter", 1, 7.0, HopUse::boil, 60),
-                                 addition("Aroma", 200, 5.0, HopUse::whirlpool, 20, 80.0)});
+  const auto recipe = recipe_of(
+      {addition("Bitter", 1, 7.0, HopUse::boil, 60), addition("Aroma", 200, 5.0, HopUse::whirlpool, 20, 80.0)});
   CHECK_THROWS_AS(bine::rebalance(recipe, {lot("Aroma", 15.0)}, test_catalog(), {}), bine::Infeasible);
 }
 
@@ -130,8 +131,8 @@ TEST_CASE("a change of form is held through the pellet factor") {
 }
 
 TEST_CASE("stock shortfalls sum every addition drawn from the lot") {
-  const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60),
-                                 addition("Bitter", 10, 7.0, HopUse::boil, 10)});
+  const auto recipe =
+      recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60), addition("Bitter", 10, 7.0, HopUse::boil, 10)});
   auto scarce = lot("Bitter", 7.0);
   scarce.lot_code = "B-1";
   scarce.on_hand_g = 35.0;

@@ -1,9 +1,9 @@
 // Alpha-acid storage loss against Garetz (1994) and the check values of METHODS.md.
+#include "engine/storage_loss.hpp"
+
 #include <doctest/doctest.h>
 
 #include <cmath>
-
-#include "engine/storage_loss.hpp"
 
 namespace {
 

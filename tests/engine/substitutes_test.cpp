@@ -1,12 +1,12 @@
 // Substitute ranking: a renamed copy comes first, stock restriction, amount factors and pair shares by
 // hand arithmetic, aged lot alpha against the METHODS.md check value (Garetz 1994).
+#include "engine/substitutes.hpp"
+
 #include <doctest/doctest.h>
 
 #include <nlohmann/json.hpp>
-
 #include <set>
 
-#include "engine/substitutes.hpp"
 #include "io/data_dir.hpp"
 #include "io/file_io.hpp"
 #include "io/loaders.hpp"
@@ -92,12 +92,12 @@ TEST_CASE("amount factors by hand") {
   const bine::DataSet data = demo_data();
   bine::Catalog catalog;
   bine::Variety missing = variety("Gone", {{"citrus", 4.0}});
-  missing.total_oil = bine::Range{1.0, 1.4};     // midpoint 1.2 mL/100 g
-  missing.alpha_acid = bine::Range{6.0, 8.0};    // midpoint 7.0 %
+  missing.total_oil = bine::Range{1.0, 1.4};   // midpoint 1.2 mL/100 g
+  missing.alpha_acid = bine::Range{6.0, 8.0};  // midpoint 7.0 %
   bine::Variety other = variety("Other", {{"citrus", 3.0}});
-  other.total_oil = bine::Range{1.6, 2.0};       // midpoint 1.8 mL/100 g
-  other.alpha_acid = bine::Range{13.0, 15.0};    // midpoint 14.0 %
-  other.stability = 50.0;                        // % left after 6 months: PL 50
+  other.total_oil = bine::Range{1.6, 2.0};                // midpoint 1.8 mL/100 g
+  other.alpha_acid = bine::Range{13.0, 15.0};             // midpoint 14.0 %
+  other.stability = 50.0;                                 // % left after 6 months: PL 50
   bine::Variety dry = variety("Dry", {{"citrus", 2.0}});  // no oil, no alpha
   catalog.varieties = {missing, other, dry};
 

@@ -15,7 +15,8 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     for (const auto& variety : catalog.varieties) {
       bine::fuzz::require(!variety.name.empty());
       if (variety.alpha_acid)
-        bine::fuzz::require(std::isfinite(variety.alpha_acid->min) && variety.alpha_acid->min <= variety.alpha_acid->max);
+        bine::fuzz::require(std::isfinite(variety.alpha_acid->min) &&
+                            variety.alpha_acid->min <= variety.alpha_acid->max);
     }
   } catch (const bine::InputError& error) {
     bine::fuzz::check_error_lines(error, file);

@@ -2,7 +2,6 @@
 // (the new content goes to a temporary file in the same folder, which is renamed over the target
 // only once complete and flushed).
 #include <doctest/doctest.h>
-
 #include <signal.h>
 #include <sys/wait.h>
 #include <unistd.h>

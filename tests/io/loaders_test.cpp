@@ -1,11 +1,12 @@
 // Validation rules of our file formats: one bad input per rule, each must be reported as
 // `FILE: /json/pointer: what is wrong (what is expected)`. Hard bounds are those of METHODS.md
 // ("Hop chemistry for data validation", from memory and general literature).
+#include "io/loaders.hpp"
+
 #include <doctest/doctest.h>
 
 #include <algorithm>
 
-#include "io/loaders.hpp"
 #include "model/errors.hpp"
 
 namespace {
@@ -90,8 +91,10 @@ TEST_CASE("unknown keys are reported with a suggestion") {
 }
 
 TEST_CASE("wrong types say what was expected") {
-  CHECK(any_line_has(catalog_errors(R"({"varieties": {"name": "A"}})"), "/varieties: {\"name\":\"A\"} is not an array"));
-  CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": 5}]})"), "/varieties/0/name: 5 is a number (expected a string)"));
+  CHECK(
+      any_line_has(catalog_errors(R"({"varieties": {"name": "A"}})"), "/varieties: {\"name\":\"A\"} is not an array"));
+  CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": 5}]})"),
+                     "/varieties/0/name: 5 is a number (expected a string)"));
   CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": "A", "alpha_acid": [5, true]}]})"),
                      "/varieties/0/alpha_acid/1: true is true/false"));
 }
@@ -108,7 +111,8 @@ TEST_CASE("hard bounds of hop chemistry are enforced") {
 
 TEST_CASE("an alpha of 0.12 where 12 % was meant is called a fraction") {
   const auto lines = stock_errors(R"({"lots": [{"variety": "A", "alpha_acid": 0.12}]})");
-  CHECK(any_line_has(lines, "stock.json: /lots/0/alpha_acid: 0.12 looks like a fraction; alpha acid is in % (write 12 for 12 %)"));
+  CHECK(any_line_has(
+      lines, "stock.json: /lots/0/alpha_acid: 0.12 looks like a fraction; alpha acid is in % (write 12 for 12 %)"));
 }
 
 TEST_CASE("a range needs min <= max") {
@@ -118,8 +122,9 @@ TEST_CASE("a range needs min <= max") {
 }
 
 TEST_CASE("oil fractions may not sum past 100 %") {
-  CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": "A", "oils": {"myrcene": [70, 75], "humulene": [35, 40]}}]})"),
-                     "/varieties/0/oils: oil fractions sum to 105.0 %"));
+  CHECK(any_line_has(
+      catalog_errors(R"({"varieties": [{"name": "A", "oils": {"myrcene": [70, 75], "humulene": [35, 40]}}]})"),
+      "/varieties/0/oils: oil fractions sum to 105.0 %"));
 }
 
 TEST_CASE("unknown oil compounds and aroma axes are reported") {
@@ -137,8 +142,9 @@ TEST_CASE("unknown enum values list the choices") {
                      "\"flavour\" is not one of aroma, bittering or dual"));
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "mash"}]})"),
                      "/hops/0/use: \"mash\" is not one of first-wort, boil, whirlpool or dry-hop"));
-  CHECK(any_line_has(stock_errors(R"({"lots": [{"variety": "A", "storage": {"temperature": "-2 C", "package": "jar"}}]})"),
-                     "/lots/0/storage/package: \"jar\" is not one of vacuum, sealed or open"));
+  CHECK(any_line_has(
+      stock_errors(R"({"lots": [{"variety": "A", "storage": {"temperature": "-2 C", "package": "jar"}}]})"),
+      "/lots/0/storage/package: \"jar\" is not one of vacuum, sealed or open"));
 }
 
 TEST_CASE("duplicate names in one catalog and across catalogs") {
@@ -159,8 +165,9 @@ TEST_CASE("an empty catalog is an error") {
 TEST_CASE("unknown units name the field and the accepted units") {
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "28 gr", "use": "dry-hop"}]})"),
                      "recipe.json: /hops/0/amount: \"28 gr\" is not a mass (use g, kg, oz or lb)"));
-  CHECK(any_line_has(recipe_errors(R"({"batch_volume": "20 litters", "original_gravity": 1.05, "boil_time": 60, "hops": []})"),
-                     "/batch_volume: \"20 litters\" is not a volume"));
+  CHECK(any_line_has(
+      recipe_errors(R"({"batch_volume": "20 litters", "original_gravity": 1.05, "boil_time": 60, "hops": []})"),
+      "/batch_volume: \"20 litters\" is not a volume"));
 }
 
 TEST_CASE("dates must exist") {
@@ -187,14 +194,18 @@ TEST_CASE("missing required fields are named") {
 }
 
 TEST_CASE("additions need what their use requires") {
-  CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "whirlpool", "time": 20}]})"),
-                     "/hops/0/temperature: is missing (a whirlpool addition needs its temperature)"));
+  CHECK(any_line_has(
+      recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "whirlpool", "time": 20}]})"),
+      "/hops/0/temperature: is missing (a whirlpool addition needs its temperature)"));
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "boil"}]})"),
                      "/hops/0/time: is missing (a boil addition needs its minutes before flame-out)"));
-  CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "boil", "time": 90}]})"),
-                     "/hops/0/time: 90 min is longer than the boil time of 60 min"));
-  CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "boil", "time": 60, "temperature": 80}]})"),
-                     "only a whirlpool addition takes a temperature"));
+  CHECK(any_line_has(
+      recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "5 g", "use": "boil", "time": 90}]})"),
+      "/hops/0/time: 90 min is longer than the boil time of 60 min"));
+  CHECK(any_line_has(
+      recipe_errors(kGoodRecipeHead +
+                    R"([{"variety": "A", "amount": "5 g", "use": "boil", "time": 60, "temperature": 80}]})"),
+      "only a whirlpool addition takes a temperature"));
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"amount": "5 g", "use": "dry-hop"}]})"),
                      "/hops/0/variety: is missing (give a variety or a lot)"));
 }

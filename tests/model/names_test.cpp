@@ -1,8 +1,9 @@
 // Name matching: case- and accent-insensitive, with did-you-mean by Levenshtein distance.
+#include "model/names.hpp"
+
 #include <doctest/doctest.h>
 
 #include "model/hops.hpp"
-#include "model/names.hpp"
 
 TEST_CASE("names fold case, accents and separators") {
   CHECK(bine::fold_name("Étoile Pâle") == "etoile pale");
@@ -28,7 +29,7 @@ TEST_CASE("unknown names get the closest known names") {
 }
 
 TEST_CASE("dates must exist") {
-  CHECK(bine::parse_date("2024-02-29").has_value());   // leap year
+  CHECK(bine::parse_date("2024-02-29").has_value());  // leap year
   CHECK_FALSE(bine::parse_date("2026-02-29").has_value());
   CHECK_FALSE(bine::parse_date("2026-13-01").has_value());
   CHECK_FALSE(bine::parse_date("26-1-1").has_value());

@@ -1,9 +1,9 @@
 // Unit conversions against exact definitions (NIST Handbook 44, Appendix C, "General tables of units
 // of measurement"): 1 oz = 28.349523125 g, 1 lb = 453.59237 g, 1 US gal = 3.785411784 L,
 // 1 US beer barrel = 31 US gal; temperature F = C x 9/5 + 32 (definition of the Fahrenheit scale).
-#include <doctest/doctest.h>
-
 #include "model/quantity.hpp"
+
+#include <doctest/doctest.h>
 
 using bine::Dimension;
 using bine::parse_quantity;
@@ -21,7 +21,7 @@ TEST_CASE("mass units convert to grams by exact definitions") {
   CHECK(value_of("1.5 kg", Dimension::mass) == doctest::Approx(1500.0).epsilon(1e-15));
   CHECK(value_of("1 oz", Dimension::mass) == doctest::Approx(28.349523125).epsilon(1e-15));  // NIST HB44
   CHECK(value_of("2oz", Dimension::mass) == doctest::Approx(56.69904625).epsilon(1e-15));
-  CHECK(value_of("1 lb", Dimension::mass) == doctest::Approx(453.59237).epsilon(1e-15));     // NIST HB44
+  CHECK(value_of("1 lb", Dimension::mass) == doctest::Approx(453.59237).epsilon(1e-15));  // NIST HB44
   CHECK(value_of("3 lb", Dimension::mass) == doctest::Approx(1360.77711).epsilon(1e-15));
   CHECK(value_of("250 mg", Dimension::mass) == doctest::Approx(0.25).epsilon(1e-15));
   CHECK(value_of("12", Dimension::mass) == doctest::Approx(12.0));  // bare number: canonical unit g
@@ -47,7 +47,9 @@ TEST_CASE("temperatures convert to Celsius") {
   CHECK(value_of("32F", Dimension::temperature) == doctest::Approx(0.0));
   CHECK(value_of("0 F", Dimension::temperature) == doctest::Approx(-17.7777777778));  // -160/9
   CHECK(value_of("-2 C", Dimension::temperature) == doctest::Approx(-2.0));
-  CHECK(value_of("80 \xC2\xB0" "C", Dimension::temperature) == doctest::Approx(80.0));  // degree sign
+  CHECK(value_of("80 \xC2\xB0"
+                 "C",
+                 Dimension::temperature) == doctest::Approx(80.0));  // degree sign
   CHECK(bine::celsius_to_fahrenheit(-40.0) == doctest::Approx(-40.0));
 }
 

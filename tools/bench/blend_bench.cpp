@@ -96,11 +96,16 @@ int main(int argc, char** argv) {
   std::string cache_path;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string option = argv[i];
-    if (option == "--targets") targets = std::stoul(argv[i + 1]);
-    else if (option == "--exhaustive-targets") exhaustive_targets = std::stoul(argv[i + 1]);
-    else if (option == "--seed") seed = static_cast<unsigned>(std::stoul(argv[i + 1]));
-    else if (option == "--swap-rounds") swap_rounds = std::stoul(argv[i + 1]);
-    else if (option == "--exhaustive-cache") cache_path = argv[i + 1];
+    if (option == "--targets")
+      targets = std::stoul(argv[i + 1]);
+    else if (option == "--exhaustive-targets")
+      exhaustive_targets = std::stoul(argv[i + 1]);
+    else if (option == "--seed")
+      seed = static_cast<unsigned>(std::stoul(argv[i + 1]));
+    else if (option == "--swap-rounds")
+      swap_rounds = std::stoul(argv[i + 1]);
+    else if (option == "--exhaustive-cache")
+      cache_path = argv[i + 1];
   }
   std::setvbuf(stdout, nullptr, _IOLBF, 0);  // lines appear as they are measured
   std::printf("blend_bench --targets %zu --exhaustive-targets %zu --seed %u --swap-rounds %zu\n", targets,
@@ -157,12 +162,13 @@ int main(int argc, char** argv) {
       within += gap <= 0.01 ? 1 : 0;
       ++compared;
     }
-    std::printf("300 varieties: pool search within 1 %% of exhaustive on %zu of %zu targets (%.1f %%), "
-                "median gap %.4f %%, p90 %.4f %%, worst %.2f %%; exhaustive median %.2f s per blend (%zu searched, "
-                "the rest from the cache)\n",
-                within, compared, 100.0 * static_cast<double>(within) / static_cast<double>(compared),
-                100.0 * median(gaps), 100.0 * percentile(gaps, 90.0), 100.0 * *std::max_element(gaps.begin(), gaps.end()),
-                exhaustive_times.empty() ? 0.0 : median(exhaustive_times), exhaustive_times.size());
+    std::printf(
+        "300 varieties: pool search within 1 %% of exhaustive on %zu of %zu targets (%.1f %%), "
+        "median gap %.4f %%, p90 %.4f %%, worst %.2f %%; exhaustive median %.2f s per blend (%zu searched, "
+        "the rest from the cache)\n",
+        within, compared, 100.0 * static_cast<double>(within) / static_cast<double>(compared), 100.0 * median(gaps),
+        100.0 * percentile(gaps, 90.0), 100.0 * *std::max_element(gaps.begin(), gaps.end()),
+        exhaustive_times.empty() ? 0.0 : median(exhaustive_times), exhaustive_times.size());
   }
   return 0;
 }
