@@ -1,15 +1,14 @@
 // bine age: how much alpha acid a lot still has after months in the cold store.
 #include <fmt/format.h>
 
-#include <iostream>
 #include <memory>
 
-#include "cli/brew_day_option.hpp"
 #include "cli/commands.hpp"
+#include "cli/option_values.hpp"
 #include "engine/storage_loss.hpp"
 #include "io/limits.hpp"
 #include "model/catalog_lookup.hpp"
-#include "model/errors.hpp"
+#include "model/names.hpp"
 #include "report/storage_report.hpp"
 
 namespace bine::cli {
@@ -26,102 +25,93 @@ struct AgeOptions {
   bool json = false;
 };
 
-std::optional<Storage> read_storage(const std::string& text, std::vector<std::string>& problems) {
+/// The question with every value read; the stability still to be looked up when a variety is named.
+struct AgeArgs {
+  AgeQuery query;
+  std::string variety;  // --variety: stability from the catalog
+  bool json = false;
+};
+
+std::optional<Storage> read_storage(OptionReader& reader, const std::string& text) {
   const auto comma = text.rfind(',');
   const std::string expected = "\"TEMP,PACKAGE\" such as \"-2 C,vacuum\"; package vacuum, sealed or open";
   if (comma == std::string::npos) {
-    problems.push_back(fmt::format("--stored: \"{}\": no package given (expected {})", text, expected));
+    reader.add(fmt::format("--stored: \"{}\": no package given (expected {})", text, expected));
     return std::nullopt;
   }
-  std::string word = text.substr(comma + 1);
-  word.erase(0, word.find_first_not_of(' '));
-  word.erase(word.find_last_not_of(' ') + 1);
+  const std::string word(trim_space(std::string_view(text).substr(comma + 1)));
   const auto package = package_from(word);
-  if (!package)
-    problems.push_back(fmt::format("--stored: \"{}\": unknown package \"{}\" (expected {})", text, word, expected));
-  const auto temperature = read_option_quantity("--stored", text.substr(0, comma), Dimension::temperature,
-                                                limits::storage_temperature, problems);
+  if (!package) reader.add(fmt::format("--stored: \"{}\": unknown package \"{}\" (expected {})", text, word, expected));
+  const auto temperature =
+      reader.quantity("--stored", text.substr(0, comma), Dimension::temperature, limits::storage_temperature);
   if (!package || !temperature) return std::nullopt;
   return Storage{*temperature, *package};
 }
 
-/// Checks every option, collects every problem, and returns the question to answer.
-AgeQuery validate(const GlobalOptions& globals, const AgeOptions& options) {
-  std::vector<std::string> problems;
-  AgeQuery query;
-  const auto alpha = read_option_quantity("--alpha", options.alpha, Dimension::percent, limits::alpha_acid, problems);
-  const auto storage = read_storage(options.stored, problems);
-  std::optional<Date> packaged;
-  std::optional<BrewDay> on;
-  try {
-    packaged = date_from_option("--packaged", options.packaged);
-  } catch (const InputError& e) {
-    problems.insert(problems.end(), e.lines().begin(), e.lines().end());
-  }
-  try {
-    on = brew_day_from_option(options.on);
-  } catch (const InputError& e) {
-    problems.insert(problems.end(), e.lines().begin(), e.lines().end());
-  }
-  const int sources = !options.variety.empty() + !options.stability.empty() + !options.hsi.empty();
-  if (sources != 1)
-    problems.push_back(
-        fmt::format("--variety, --stability, --hsi: {} given (expected exactly one, to say how well the "
-                    "variety keeps)",
-                    sources));
-  std::optional<double> stability;
+/// --stability (a % or a class word) or --hsi: how well the variety keeps, with where it came from.
+std::optional<double> read_stability(OptionReader& reader, const AgeOptions& options, std::string& source) {
   if (!options.stability.empty()) {
     if (auto word = stability_of_class(options.stability)) {
-      stability = *word;
-      query.stability_source = fmt::format("--stability {}, common-practice class", options.stability);
-    } else {
-      stability =
-          read_option_quantity("--stability", options.stability, Dimension::percent, limits::stability, problems);
-      query.stability_source = "--stability";
+      source = fmt::format("--stability {}, common-practice class", options.stability);
+      return word;
     }
+    source = "--stability";
+    return reader.quantity("--stability", options.stability, Dimension::percent, limits::stability);
   }
   if (!options.hsi.empty()) {
-    if (auto hsi = read_option_quantity("--hsi", options.hsi, Dimension::number, limits::hsi, problems)) {
-      stability = 100.0 - percent_lost_from_hsi(*hsi);
-      query.stability_source =
-          fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi, percent_lost_from_hsi(*hsi));
+    if (auto hsi = reader.quantity("--hsi", options.hsi, Dimension::number, limits::hsi)) {
+      source = fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi, percent_lost_from_hsi(*hsi));
+      return 100.0 - percent_lost_from_hsi(*hsi);
     }
   }
-  if (!options.variety.empty() && sources == 1) {
-    const DataSet data = globals.load();
-    const Variety& variety = require_variety(data.catalog, options.variety, "--variety");
-    if (variety.stability) {
-      stability = *variety.stability;
-      query.stability_source = fmt::format("catalog: {}", variety.name);
-    } else {
-      stability = kStabilityFair;
-      query.stability_source = fmt::format("{} has no stability in the catalog; fair class assumed", variety.name);
-    }
-  }
-  if (packaged && on && *packaged > on->date)
-    problems.push_back(fmt::format("--packaged: {}: after the date --on {} (expected a packaging date on or before it)",
-                                   options.packaged, format_date(on->date)));
-  if (!problems.empty()) throw InputError(problems);
-  query.packaged = *packaged;
-  query.on = on->date;
-  query.on_from_clock = on->from_clock;
-  query.history = StorageHistory{*alpha, *stability, *storage, static_cast<double>(days_between(*packaged, on->date))};
-  return query;
+  return std::nullopt;
 }
 
-void run_age(const GlobalOptions& globals, const AgeOptions& options) {
-  // 1. Read the question; 2. age the alpha; 3. render.
-  const AgeQuery query = validate(globals, options);
-  const AgedAlpha aged = age_alpha(query.history);
-  if (options.json)
-    std::cout << age_to_json(query, aged).dump(2) << '\n';
-  else
-    render_age(std::cout, query, aged, globals.unit_system());
+AgeArgs parse_age_args(const AgeOptions& options) {
+  OptionReader reader;
+  AgeArgs args;
+  args.json = options.json;
+  args.variety = options.variety;
+  const auto alpha = reader.quantity("--alpha", options.alpha, Dimension::percent, limits::alpha_acid);
+  const auto storage = read_storage(reader, options.stored);
+  const auto packaged = reader.date("--packaged", options.packaged);
+  const auto on = reader.brew_day(options.on);
+  const int sources = !options.variety.empty() + !options.stability.empty() + !options.hsi.empty();
+  reader.require(sources == 1, fmt::format("--variety, --stability, --hsi: {} given (expected exactly one, to say "
+                                           "how well the variety keeps)",
+                                           sources));
+  const auto stability = read_stability(reader, options, args.query.stability_source);
+  if (packaged && on && *packaged > on->date)
+    reader.add(fmt::format("--packaged: {}: after the date --on {} (expected a packaging date on or before it)",
+                           options.packaged, format_date(on->date)));
+  reader.throw_if_any();
+  args.query.packaged = *packaged;
+  args.query.on = on->date;
+  args.query.on_from_clock = on->from_clock;
+  args.query.history = StorageHistory{*alpha, stability.value_or(kStabilityFair), *storage,
+                                      static_cast<double>(days_between(*packaged, on->date))};
+  return args;
+}
+
+void run_age(const Console& console, const GlobalOptions& globals, AgeArgs args) {
+  // 1. The variety's stability from the catalog, when named; 2. age the alpha; 3. render.
+  if (!args.variety.empty()) {
+    const DataSet data = load_data(globals, console);
+    const Variety& variety = require_variety(data.catalog, args.variety, "--variety");
+    args.query.history.stability_percent = variety.stability.value_or(kStabilityFair);
+    args.query.stability_source =
+        variety.stability ? fmt::format("catalog: {}", variety.name)
+                          : fmt::format("{} has no stability in the catalog; fair class assumed", variety.name);
+  }
+  const AgedAlpha aged = age_alpha(args.query.history);
+  print_result(
+      console, args.json, [&] { return age_to_json(args.query, aged); },
+      [&](std::ostream& out) { render_age(out, args.query, aged, globals.unit_system()); });
 }
 
 }  // namespace
 
-void setup_age_command(CLI::App& app, const GlobalOptions& globals) {
+void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<AgeOptions>();
   auto* age = app.add_subcommand("age", "estimate a lot's alpha acid today from its certificate and its storage");
   age->add_option("--alpha", options->alpha, "alpha acid % on the certificate at packaging")->required();
@@ -140,7 +130,8 @@ void setup_age_command(CLI::App& app, const GlobalOptions& globals) {
       "  bine age --alpha 6.0 --packaged 2025-12-01 --stored \"0 F,vacuum\" --stability 50 --json\n"
       "  bine age --alpha 9 --packaged 2026-01-10 --stored \"4 C,sealed\" --hsi 0.31\n"
       "Model: first-order loss after Garetz (1994); rate halves per 15 C colder; vacuum 0.5, sealed 0.75, open 1.0.");
-  age->callback([&globals, options] { run_age(globals, *options); });
+  commands.add(age,
+               [&globals, options](const Console& console) { run_age(console, globals, parse_age_args(*options)); });
 }
 
 }  // namespace bine::cli

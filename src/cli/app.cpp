@@ -2,72 +2,112 @@
 // errors become exit statuses and single lines for the brewer.
 #include "cli/app.hpp"
 
+#include <fmt/format.h>
+
 #include <CLI/CLI.hpp>
+#include <algorithm>
+#include <cstdlib>
 #include <exception>
-#include <iostream>
 #include <new>
 
 #include "cli/commands.hpp"
+#include "cli/remedies.hpp"
 #include "model/errors.hpp"
+#include "model/names.hpp"
 
 namespace bine::cli {
 namespace {
 
-/// Commands print to std::cout (and warnings or timings to std::cerr); while run() is active those
-/// point at the caller's streams, so tests and the fuzzer can capture or drop them in-process.
-/// Restored on every exit path.
-class Redirect {
- public:
-  Redirect(std::ostream& standard, std::ostream& to)
-      : standard_(standard), saved_(&standard == &to ? nullptr : standard.rdbuf(to.rdbuf())) {}
-  ~Redirect() {
-    if (saved_ != nullptr) standard_.rdbuf(saved_);
+constexpr std::string_view kAbout =
+    "bine: find hop substitutes, design late-hop blends to a target aroma, and hold a recipe's IBU\n"
+    "when lots, alpha acids or storage change. All computations run on your CPU; results are\n"
+    "estimates from published models. Hot wort scalds: take care around the kettle and whirlpool.";
+
+void add_global_options(CLI::App& app, GlobalOptions& globals) {
+  app.add_option("--data", globals.data.folder,
+                 "descriptor-data folder (default: $BINE_DATA, else the installed or source-tree data)");
+  app.add_option("--catalog", globals.catalogs,
+                 "a catalog file of your own, merged with the shipped ones (repeatable)");
+  app.add_option("--units", globals.units, "units for text output: metric (g, L, C) or us (oz, gal, F)")
+      ->check(CLI::IsMember({"metric", "us"}));
+  app.add_flag("--timings", globals.timings, "print phase timings to stderr");
+}
+
+/// The data folder: --data, else $BINE_DATA (the only place bine reads it).
+void choose_data_folder(GlobalOptions& globals) {
+  if (!globals.data.folder.empty()) {
+    globals.data.named_by = "--data " + globals.data.folder;
+    return;
   }
-  Redirect(const Redirect&) = delete;
-  Redirect& operator=(const Redirect&) = delete;
+  if (const char* env = std::getenv("BINE_DATA"); env != nullptr && *env != '\0') {
+    globals.data.folder = env;
+    globals.data.named_by = std::string("BINE_DATA=") + env;
+  }
+}
 
- private:
-  std::ostream& standard_;
-  std::streambuf* saved_;
-};
+/// The first word of argv that is not an option or an option's value: the command the brewer typed.
+std::string typed_command(int argc, char** argv) {
+  for (int i = 1; i < argc; ++i) {
+    const std::string_view word = argv[i];
+    if (word == "--data" || word == "--catalog" || word == "--units") {
+      ++i;
+      continue;
+    }
+    if (!word.empty() && word[0] != '-') return std::string(word);
+  }
+  return {};
+}
 
-int print_error_lines(std::ostream& err, const std::vector<std::string>& lines) {
-  for (const auto& line : lines) err << "bine: error: " << line << '\n';
-  return kExitBadInput;
+/// A parse error in words a brewer can act on; an unknown or missing command names the commands.
+std::string parse_problem(const CLI::App& app, const CLI::ParseError& error, int argc, char** argv) {
+  std::vector<std::string> names;
+  for (const CLI::App* command : app.get_subcommands({})) names.push_back(command->get_name());
+  std::string listed;
+  for (const auto& name : names) listed += (listed.empty() ? "" : ", ") + name;
+  if (app.get_subcommands().empty()) {
+    const std::string typed = typed_command(argc, argv);
+    if (typed.empty()) return fmt::format("no command given (expected one of {})", listed);
+    if (std::find(names.begin(), names.end(), typed) == names.end()) {
+      const std::string hint = did_you_mean(typed, names);
+      return fmt::format("unknown command \"{}\" ({}expected one of {})", typed, hint.empty() ? "" : hint + "; ",
+                         listed);
+    }
+  }
+  return std::string(error.what());
 }
 
 }  // namespace
 
+bool CommandTable::run_chosen(const Console& console) const {
+  for (const auto& [command, run] : commands_) {
+    if (!command->parsed()) continue;
+    run(console);
+    return true;
+  }
+  return false;
+}
+
+DataSet load_data(const GlobalOptions& globals, const Console& console) {
+  const auto timer = console.time("load data");
+  return load_data(globals.data, globals.catalogs);
+}
+
 int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
-  const Redirect redirect_out(std::cout, out);
-  const Redirect redirect_err(std::cerr, err);
   try {
-    CLI::App app{
-        "bine: find hop substitutes, design late-hop blends to a target aroma, and hold a recipe's IBU\n"
-        "when lots, alpha acids or storage change. All computations run on your CPU; results are\n"
-        "estimates from published models. Hot wort scalds: take care around the kettle and whirlpool."};
+    CLI::App app{std::string(kAbout)};
     app.name("bine");
     app.set_version_flag("--version", std::string("bine ") + BINE_VERSION);
     app.require_subcommand(1);
     app.fallthrough();
-
     GlobalOptions globals;
-    app.add_option("--data", globals.data_dir,
-                   "descriptor-data folder (default: $BINE_DATA, else the installed or source-tree data)")
-        ->envname("BINE_DATA");
-    app.add_option("--catalog", globals.catalogs,
-                   "a catalog file of your own, merged with the shipped ones (repeatable)");
-    app.add_option("--units", globals.units, "units for text output: metric (g, L, C) or us (oz, gal, F)")
-        ->check(CLI::IsMember({"metric", "us"}));
-    app.add_flag("--timings", globals.timings, "print phase timings to stderr");
-
-    setup_catalog_command(app, globals);
-    setup_ibu_command(app, globals);
-    setup_age_command(app, globals);
-    setup_rebalance_command(app, globals);
-    setup_swap_command(app, globals);
-    setup_blend_command(app, globals);
-
+    add_global_options(app, globals);
+    CommandTable commands;
+    setup_catalog_command(app, globals, commands);
+    setup_ibu_command(app, globals, commands);
+    setup_age_command(app, globals, commands);
+    setup_rebalance_command(app, globals, commands);
+    setup_swap_command(app, globals, commands);
+    setup_blend_command(app, globals, commands);
     try {
       app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -77,13 +117,17 @@ int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
     } catch (const CLI::CallForVersion& e) {
       return app.exit(e, out, err);
     } catch (const CLI::ParseError& e) {
-      err << "bine: error: " << e.what() << " (run 'bine --help' or 'bine COMMAND --help')\n";
+      err << "bine: error: " << parse_problem(app, e, argc, argv) << " (run 'bine --help' or 'bine COMMAND --help')\n";
       return kExitBadInput;
     }
+    choose_data_folder(globals);
+    const Console console{out, err, globals.timings};
+    commands.run_chosen(console);
   } catch (const InputError& e) {
-    return print_error_lines(err, e.lines());
+    for (const auto& line : e.lines()) err << "bine: error: " << with_remedies(line, e.remedies()) << '\n';
+    return kExitBadInput;
   } catch (const Infeasible& e) {
-    err << "bine: cannot do that: " << e.what() << '\n';
+    err << "bine: cannot do that: " << with_remedies(e.what(), e.remedies()) << '\n';
     return kExitInfeasible;
   } catch (const std::bad_alloc&) {
     err << "bine: error: out of memory (is an input unreasonably large?)\n";

@@ -1,21 +1,20 @@
 // bine blend: design late hops (whirlpool + dry hop) to a target aroma while holding the recipe's IBU.
 #include <fmt/format.h>
 
-#include <charconv>
 #include <cmath>
-#include <iostream>
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "cli/option_values.hpp"
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
 #include "engine/blend_plan.hpp"
 #include "io/file_io.hpp"
+#include "io/limits.hpp"
 #include "io/loaders.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "report/blend_report.hpp"
-#include "report/timings.hpp"
 
 namespace bine::cli {
 namespace {
@@ -25,14 +24,14 @@ struct BlendOptions {
   std::string like;
   std::string recipe;
   std::string stock;
-  std::size_t max_varieties = 3;
+  std::string max_varieties;
   std::string rate;      // g/L, default 4
   std::string oil_dose;  // mL/hL
-  std::optional<double> split;
-  std::optional<double> ibu;
+  std::string split;
+  std::string ibu;
   std::string bittering;
   bool no_bittering = false;
-  double others = 0.25;
+  std::string others;
   std::string volume;
   std::string gravity;
   bool json = false;
@@ -40,87 +39,66 @@ struct BlendOptions {
   std::string write;
 };
 
-/// A number with an optional unit suffix ("4", "4 g/L", "4g/l"); nullopt when malformed.
-std::optional<double> number_with_unit(std::string text, std::string_view unit) {
-  const auto fold = [](std::string s) {
-    std::string out;
-    for (char c : s)
-      if (c != ' ') out += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-    return out;
-  };
-  text = fold(text);
-  const std::string suffix = fold(std::string(unit));
-  if (text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0)
-    text.resize(text.size() - suffix.size());
-  double value = 0.0;
-  const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
-  if (error != std::errc() || end != text.data() + text.size() || text.empty()) return std::nullopt;
-  if (!std::isfinite(value)) return std::nullopt;  // from_chars reads "nan" and "inf"
-  return value;
-}
-
-/// Every conflict among the options, one line each.
-void validate(const BlendOptions& o) {
-  std::vector<std::string> problems;
-  if (o.target.empty() == o.like.empty())
-    problems.push_back("--target/--like: give exactly one (e.g. --target \"floral=4,citrus=4\" or --like VARIETY)");
-  if (o.max_varieties < 1 || o.max_varieties > 6)
-    problems.push_back(fmt::format("--max-varieties: {}: out of range (expected 1-6)", o.max_varieties));
-  if (!o.rate.empty() && !o.oil_dose.empty()) problems.push_back("--rate/--oil-dose: give one, not both");
-  if (!o.rate.empty()) {
-    const auto rate = number_with_unit(o.rate, "g/L");
-    if (!rate || *rate <= 0.0 || *rate > 40.0)
-      problems.push_back(
-          fmt::format("--rate: {}: not a rate (expected g/L above 0 and at most 40, e.g. 4g/L)", o.rate));
-  }
-  if (!o.oil_dose.empty()) {
-    const auto dose = number_with_unit(o.oil_dose, "mL/hL");
-    if (!dose || *dose <= 0.0 || *dose > 100.0)
-      problems.push_back(fmt::format(
-          "--oil-dose: {}: not an oil dose (expected mL/hL above 0 and at most 100, e.g. 1.5mL/hL)", o.oil_dose));
-  }
-  if (o.split && !(*o.split >= 0.0 && *o.split <= 1.0))
-    problems.push_back(fmt::format("--split: {:g}: out of range (expected the whirlpool share 0-1)", *o.split));
-  if (o.ibu && !(*o.ibu >= 0.0 && *o.ibu <= 200.0))
-    problems.push_back(fmt::format("--ibu: {:g}: out of range (expected 0-200 IBU)", *o.ibu));
-  if (!(o.others >= 0.0 && o.others <= 1.0))
-    problems.push_back(fmt::format("--others: {:g}: out of range (expected 0-1)", o.others));
-  if (o.no_bittering && !o.bittering.empty()) problems.push_back("--bittering/--no-bittering: give one, not both");
-  if (o.recipe.empty()) {
-    if (o.volume.empty()) problems.push_back("--volume: required without --recipe (e.g. --volume 20L)");
-    if (!o.ibu) problems.push_back("--ibu: required without --recipe (the IBU to hold)");
-    if (o.bittering.empty() && !o.no_bittering)
-      problems.push_back("--bittering: required without --recipe (or give --no-bittering)");
-  } else if (!o.volume.empty() || !o.gravity.empty()) {
-    problems.push_back("--volume/--gravity: only without --recipe (the recipe gives them)");
-  }
-  if (!o.volume.empty()) {
-    const auto v = parse_quantity(o.volume, Dimension::volume);
-    if (!v.value || *v.value <= 0.0 || *v.value > 100000.0)
-      problems.push_back(fmt::format("--volume: {}: {} (expected a volume above 0, e.g. 20L or 5.5gal)", o.volume,
-                                     v.value ? "out of range" : v.error));
-  }
-  if (!o.gravity.empty()) {
-    const auto g = parse_quantity(o.gravity, Dimension::gravity);
-    if (!g.value || *g.value < 1.0 || *g.value > 1.2)
-      problems.push_back(fmt::format("--gravity: {}: {} (expected 1.000-1.200 or degrees Plato, e.g. 1.050 or 12.4P)",
-                                     o.gravity, g.value ? "out of range" : g.error));
-  }
-  if (!problems.empty()) throw InputError(problems);
-}
-
-BlendChoices choices_from(const BlendOptions& o) {
+/// Every blend option as a value; the target spec is read against the lexicon once data are loaded.
+struct BlendArgs {
+  std::string target;
+  std::string like;
+  std::string recipe;
+  std::string stock;
+  std::size_t max_varieties = 3;
+  std::optional<double> rate_g_per_l;
+  std::optional<double> oil_dose_ml_per_hl;
+  double others = 0.25;
   BlendChoices choices;
-  choices.ibu = o.ibu;
+  bool json = false;
+  std::string html;
+  std::string write;
+};
+
+void check_conflicts(OptionReader& reader, const BlendOptions& o) {
+  reader.require(o.target.empty() != o.like.empty(),
+                 "--target/--like: give exactly one (e.g. --target \"floral=4,citrus=4\" or --like VARIETY)");
+  reader.require(o.rate.empty() || o.oil_dose.empty(), "--rate/--oil-dose: give one, not both");
+  reader.require(!o.no_bittering || o.bittering.empty(), "--bittering/--no-bittering: give one, not both");
+  if (o.recipe.empty()) {
+    reader.require(!o.volume.empty(), "--volume: required without --recipe (e.g. --volume 20L)");
+    reader.require(!o.ibu.empty(), "--ibu: required without --recipe (the IBU to hold)");
+    reader.require(!o.bittering.empty() || o.no_bittering,
+                   "--bittering: required without --recipe (or give --no-bittering)");
+  } else {
+    reader.require(o.volume.empty() && o.gravity.empty(),
+                   "--volume/--gravity: only without --recipe (the recipe gives them)");
+  }
+}
+
+BlendArgs parse_blend_args(const BlendOptions& o) {
+  OptionReader reader;
+  check_conflicts(reader, o);
+  BlendArgs args;
+  args.target = o.target;
+  args.like = o.like;
+  args.recipe = o.recipe;
+  args.stock = o.stock;
+  args.json = o.json;
+  args.html = o.html;
+  args.write = o.write;
+  if (auto k = reader.count("--max-varieties", o.max_varieties, limits::blend_varieties, 3)) args.max_varieties = *k;
+  args.rate_g_per_l = reader.optional_quantity("--rate", o.rate, Dimension::hop_rate, limits::late_hop_rate);
+  args.oil_dose_ml_per_hl = reader.optional_quantity("--oil-dose", o.oil_dose, Dimension::oil_dose, limits::oil_dose);
+  if (auto others = reader.optional_quantity("--others", o.others, Dimension::number, limits::axis_weight))
+    args.others = *others;
+  BlendChoices& choices = args.choices;
+  choices.split = reader.optional_quantity("--split", o.split, Dimension::number, limits::share);
+  choices.ibu = reader.optional_quantity("--ibu", o.ibu, Dimension::number, limits::target_ibu);
+  choices.volume_l = reader.optional_quantity("--volume", o.volume, Dimension::volume, limits::batch_volume);
+  choices.gravity = reader.optional_quantity("--gravity", o.gravity, Dimension::gravity, limits::gravity);
   choices.bittering_variety = o.bittering;
   choices.no_bittering = o.no_bittering;
-  choices.split = o.split;
-  if (!o.volume.empty()) choices.volume_l = parse_quantity(o.volume, Dimension::volume).value;
-  if (!o.gravity.empty()) choices.gravity = parse_quantity(o.gravity, Dimension::gravity).value;
-  return choices;
+  reader.throw_if_any();
+  return args;
 }
 
-BlendTarget target_from(const BlendOptions& o, const DataSet& data) {
+BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
   if (!o.like.empty()) {
     const Variety& variety = require_variety(data.catalog, o.like, "--like");
     const AromaProfile profile = aroma_profile(variety, data.lexicon);
@@ -133,14 +111,10 @@ BlendTarget target_from(const BlendOptions& o, const DataSet& data) {
   return target_from_spec(intensity, named, o.others);
 }
 
-void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
-  validate(options);
+void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& options) {
   const UnitSystem units = globals.unit_system();
   // 1. Load the catalogs, the stock and the recipe.
-  const DataSet data = [&] {
-    PhaseTimer timer(globals.timings, "load data");
-    return globals.load();
-  }();
+  const DataSet data = load_data(globals, console);
   const std::optional<Stock> stock = options.stock.empty() ? std::nullopt : std::optional(load_stock(options.stock));
   const std::optional<Recipe> recipe =
       options.recipe.empty() ? std::nullopt : std::optional(load_recipe(options.recipe));
@@ -151,7 +125,7 @@ void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
   const BlendPlan plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr,
-                                    choices_from(options), request.bitterness);
+                                    options.choices, request.bitterness);
   request.candidates = std::move(candidates.candidates);
   request.max_varieties = options.max_varieties;
   request.wort = plan.wort;
@@ -162,15 +136,15 @@ void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
   request.whirlpool_temperature_c = plan.whirlpool_temperature_c;
   request.whirlpool_minutes = plan.whirlpool_minutes;
   // Amount: --oil-dose mL/hL x hL, else --rate g/L (default 4) x L.
-  if (!options.oil_dose.empty()) {
+  if (options.oil_dose_ml_per_hl) {
     request.amount_kind = LateAmount::oil_ml;
-    request.amount = *number_with_unit(options.oil_dose, "mL/hL") * plan.wort.volume_l / 100.0;
+    request.amount = *options.oil_dose_ml_per_hl * plan.wort.volume_l / 100.0;
   } else {
-    request.amount = (options.rate.empty() ? 4.0 : *number_with_unit(options.rate, "g/L")) * plan.wort.volume_l;
+    request.amount = options.rate_g_per_l.value_or(4.0) * plan.wort.volume_l;
   }
   // 3. Solve: choose the pool, solve every subset, hold IBU.
   const BlendResult result = [&] {
-    PhaseTimer timer(globals.timings, "blend search");
+    const auto timer = console.time("blend search");
     return design_blend(request);
   }();
   // 4. Render and write.
@@ -182,15 +156,14 @@ void run_blend(const GlobalOptions& globals, const BlendOptions& options) {
   if (!options.html.empty()) write_file_atomically(options.html, blend_to_html(result, context, units));
   if (!options.write.empty() && recipe)
     write_file_atomically(options.write, recipe_to_json(blended_recipe(*recipe, plan, result)).dump(2) + "\n");
-  if (options.json)
-    std::cout << blend_to_json(result, context).dump(2) << '\n';
-  else
-    render_blend_text(std::cout, result, context, units);
+  print_result(
+      console, options.json, [&] { return blend_to_json(result, context); },
+      [&](std::ostream& out) { render_blend_text(out, result, context, units); });
 }
 
 }  // namespace
 
-void setup_blend_command(CLI::App& app, const GlobalOptions& globals) {
+void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<BlendOptions>();
   auto* blend = app.add_subcommand("blend", "design late hops to a target aroma while holding the recipe's IBU");
   blend->add_option("--target", options->target, "aroma to aim at, axis=intensity 0-5 (e.g. \"floral=4,citrus=4\")");
@@ -218,7 +191,8 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals) {
       "  bine blend --like Tidewell --recipe pale-ale.json --max-varieties 2 --json\n"
       "  bine blend --target \"tropical=4,stone-fruit=3\" --volume 20L --ibu 30 --no-bittering --rate 6g/L\n"
       "The blend's aroma is the oil-weighted mean of its hops' profiles (a linear first approximation).");
-  blend->callback([&globals, options] { run_blend(globals, *options); });
+  commands.add(
+      blend, [&globals, options](const Console& console) { run_blend(console, globals, parse_blend_args(*options)); });
 }
 
 }  // namespace bine::cli

@@ -1,7 +1,6 @@
 // bine catalog list|show|check: browse the variety data and validate any of our files.
 #include <fmt/format.h>
 
-#include <iostream>
 #include <memory>
 
 #include "cli/commands.hpp"
@@ -19,25 +18,39 @@ struct CatalogOptions {
   std::vector<std::string> files;
 };
 
-int run_check(const GlobalOptions& globals, const CatalogOptions& options) {
+void run_list(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
+  const DataSet data = load_data(globals, console);
+  print_result(
+      console, options.json, [&] { return catalog_to_json(data.catalog); },
+      [&](std::ostream& out) { render_catalog_list(out, data.catalog, data.lexicon); });
+}
+
+void run_show(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
+  const DataSet data = load_data(globals, console);
+  const Variety& variety = require_variety(data.catalog, options.name, "catalog show");
+  print_result(
+      console, options.json, [&] { return variety_to_json(variety); },
+      [&](std::ostream& out) { render_variety(out, variety, data.lexicon); });
+}
+
+void run_check(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   // The lexicon is needed to check aroma axes; the catalogs themselves are not loaded.
-  const Lexicon lexicon = load_lexicon(resolve_data_dir(globals.data_dir) / "lexicon.json");
+  const Lexicon lexicon = load_lexicon(resolve_data_dir(globals.data) / "lexicon.json");
   std::vector<std::string> problems;
   for (const auto& file : options.files) {
     try {
       const FileKind kind = check_file(file, lexicon);
-      std::cout << fmt::format("{}: ok ({})\n", file, to_string(kind));
+      console.out << fmt::format("{}: ok ({})\n", file, to_string(kind));
     } catch (const InputError& error) {
       problems.insert(problems.end(), error.lines().begin(), error.lines().end());
     }
   }
   if (!problems.empty()) throw InputError(problems);
-  return 0;
 }
 
 }  // namespace
 
-void setup_catalog_command(CLI::App& app, const GlobalOptions& globals) {
+void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<CatalogOptions>();
   auto* catalog = app.add_subcommand("catalog", "browse the variety catalogs and check files");
   catalog->require_subcommand(1);
@@ -49,30 +62,16 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals) {
 
   auto* list = catalog->add_subcommand("list", "list every variety (shipped and --catalog files)");
   list->add_flag("--json", options->json, "print JSON: {\"varieties\": [...]}");
-  list->callback([&globals, options] {
-    const DataSet data = globals.load();
-    if (options->json) {
-      std::cout << catalog_to_json(data.catalog).dump(2) << '\n';
-    } else {
-      render_catalog_list(std::cout, data.catalog, data.lexicon);
-    }
-  });
+  commands.add(list, [&globals, options](const Console& console) { run_list(console, globals, *options); });
 
   auto* show = catalog->add_subcommand("show", "show one variety in full");
   show->add_option("NAME", options->name, "variety name (case and accents do not matter)")->required();
   show->add_flag("--json", options->json, "print JSON");
-  show->callback([&globals, options] {
-    const DataSet data = globals.load();
-    const Variety& variety = require_variety(data.catalog, options->name, "catalog show");
-    if (options->json)
-      std::cout << variety_to_json(variety).dump(2) << '\n';
-    else
-      render_variety(std::cout, variety, data.lexicon);
-  });
+  commands.add(show, [&globals, options](const Console& console) { run_show(console, globals, *options); });
 
   auto* check = catalog->add_subcommand("check", "validate catalog, stock, recipe or lexicon files");
   check->add_option("FILE", options->files, "files to check")->required();
-  check->callback([&globals, options] { run_check(globals, *options); });
+  commands.add(check, [&globals, options](const Console& console) { run_check(console, globals, *options); });
 }
 
 }  // namespace bine::cli

@@ -1,10 +1,15 @@
 #pragma once
-// Each command lives in its own file with one options struct, a setup that binds it to CLI11, and a
-// run that calls engines and renders. Engines never see argv.
+// Each command lives in its own file: an options struct of strings and flags bound to CLI11 by its
+// setup, one parse_<command>_args that turns them into typed values (the only place strings become
+// quantities) and reports every problem at once, and a run that loads data, calls engines and
+// renders through the Console. Engines never see argv.
 #include <CLI/CLI.hpp>
+#include <functional>
 #include <string>
+#include <utility>
 #include <vector>
 
+#include "cli/console.hpp"
 #include "io/data_dir.hpp"
 #include "model/quantity.hpp"
 
@@ -12,19 +17,33 @@ namespace bine::cli {
 
 /// Options every command shares.
 struct GlobalOptions {
-  std::string data_dir;               // --data, env BINE_DATA
+  DataFolderChoice data;              // --data DIR, else $BINE_DATA (read once, in app.cpp)
   std::vector<std::string> catalogs;  // --catalog FILE (repeatable)
   std::string units = "metric";       // --units metric|us
   bool timings = false;               // --timings
   UnitSystem unit_system() const { return units == "us" ? UnitSystem::us : UnitSystem::metric; }
-  DataSet load() const { return load_data(data_dir, catalogs); }
 };
 
-void setup_catalog_command(CLI::App& app, const GlobalOptions& globals);
-void setup_ibu_command(CLI::App& app, const GlobalOptions& globals);
-void setup_age_command(CLI::App& app, const GlobalOptions& globals);
-void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals);
-void setup_swap_command(CLI::App& app, const GlobalOptions& globals);
-void setup_blend_command(CLI::App& app, const GlobalOptions& globals);
+/// The lexicon and every catalog (shipped and --catalog), timed as "load data".
+DataSet load_data(const GlobalOptions& globals, const Console& console);
+
+/// The commands the parser knows, each with what to run when the parse chose it.
+class CommandTable {
+ public:
+  using Run = std::function<void(const Console&)>;
+  void add(CLI::App* command, Run run) { commands_.emplace_back(command, std::move(run)); }
+  /// Runs the command the parse chose; false when none was chosen.
+  bool run_chosen(const Console& console) const;
+
+ private:
+  std::vector<std::pair<CLI::App*, Run>> commands_;
+};
+
+void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 
 }  // namespace bine::cli

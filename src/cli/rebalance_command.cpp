@@ -2,12 +2,11 @@
 // was written for.
 #include <fmt/format.h>
 
-#include <filesystem>
-#include <iostream>
+#include <algorithm>
 #include <memory>
 
-#include "cli/brew_day_option.hpp"
 #include "cli/commands.hpp"
+#include "cli/option_values.hpp"
 #include "engine/rebalance.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
@@ -15,7 +14,6 @@
 #include "model/errors.hpp"
 #include "model/names.hpp"
 #include "report/rebalance_report.hpp"
-#include "report/timings.hpp"
 
 namespace bine::cli {
 namespace {
@@ -30,144 +28,137 @@ struct RebalanceOptions {
   std::string write;
 };
 
+/// A --lot as typed, with its values read.
+struct LotOption {
+  std::string text;
+  ReplacementLot lot;
+};
+
+struct RebalanceArgs {
+  std::string recipe;
+  std::vector<LotOption> lots;
+  std::string stock;
+  BrewDay on;
+  BitternessSettings settings;
+  bool json = false;
+  std::string write;
+};
+
 constexpr std::string_view kLotForm = "VARIETY=ALPHA%[,oil=ML], such as \"Tidewell=7.9%,oil=1.4\"";
 
-std::string trim(std::string text) {
-  text.erase(0, text.find_first_not_of(' '));
-  text.erase(text.find_last_not_of(' ') + 1);
-  return text;
-}
-
-// One --lot value; problems go to `problems`.
-std::optional<ReplacementLot> parse_lot(const std::string& text, const Recipe& recipe,
-                                        std::vector<std::string>& problems) {
+/// One --lot value: the variety, then its alpha, then optional parts.
+std::optional<LotOption> read_lot(OptionReader& reader, const std::string& text) {
   const auto equals = text.find('=');
-  if (equals == std::string::npos || trim(text.substr(0, equals)).empty()) {
-    problems.push_back(fmt::format("--lot: \"{}\": no variety or no alpha acid (expected {})", text, kLotForm));
+  const std::string variety(trim_space(std::string_view(text).substr(0, std::min(equals, text.size()))));
+  if (equals == std::string::npos || variety.empty()) {
+    reader.add(fmt::format("--lot: \"{}\": no variety or no alpha acid (expected {})", text, kLotForm));
     return std::nullopt;
   }
-  ReplacementLot lot;
-  lot.variety = trim(text.substr(0, equals));
-  if (!recipe_uses_variety(recipe, lot.variety)) {
-    std::vector<std::string> used;
-    for (const auto& hop : recipe.hops)
-      if (!hop.variety.empty() && std::find(used.begin(), used.end(), hop.variety) == used.end())
-        used.push_back(hop.variety);
-    const std::string hint = did_you_mean(lot.variety, used);
-    problems.push_back(fmt::format("--lot: \"{}\": the recipe does not use {} ({}the recipe uses {})", text,
-                                   lot.variety, hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
-    return std::nullopt;
-  }
-  std::string rest = text.substr(equals + 1);
+  LotOption option{text, {}};
+  option.lot.variety = variety;
+  const std::string label = "--lot \"" + text + "\"";
+  std::string_view rest = std::string_view(text).substr(equals + 1);
   bool ok = true;
-  bool first = true;
-  while (true) {
+  for (bool first = true;; first = false) {
     const auto comma = rest.find(',');
-    const std::string part = trim(rest.substr(0, comma));
+    const std::string_view part = trim_space(rest.substr(0, comma));
     if (first) {
-      if (auto alpha =
-              read_option_quantity("--lot \"" + text + "\"", part, Dimension::percent, limits::alpha_acid, problems))
-        lot.alpha_percent = *alpha;
-      else
-        ok = false;
-      first = false;
+      const auto alpha = reader.quantity(label, part, Dimension::percent, limits::alpha_acid);
+      ok = ok && alpha.has_value();
+      option.lot.alpha_percent = alpha.value_or(0.0);
     } else if (part.rfind("oil=", 0) == 0) {
-      if (auto oil = read_option_quantity("--lot \"" + text + "\"", part.substr(4), Dimension::oil_content,
-                                          limits::total_oil, problems))
-        lot.total_oil = *oil;
-      else
-        ok = false;
+      option.lot.total_oil = reader.quantity(label, part.substr(4), Dimension::oil_content, limits::total_oil);
+      ok = ok && option.lot.total_oil.has_value();
     } else {
-      problems.push_back(fmt::format("--lot: \"{}\": unknown part \"{}\" (expected {})", text, part, kLotForm));
+      reader.add(fmt::format("--lot: \"{}\": unknown part \"{}\" (expected {})", text, part, kLotForm));
       ok = false;
     }
-    if (comma == std::string::npos) break;
+    if (comma == std::string_view::npos) break;
     rest = rest.substr(comma + 1);
   }
   if (!ok) return std::nullopt;
-  return lot;
+  return option;
 }
 
-struct Plan {
-  BitternessSettings settings;
-  BrewDay on;
-};
-
-/// Every option conflict, one line each.
-Plan validate(const RebalanceOptions& options) {
-  std::vector<std::string> problems;
-  Plan plan;
+RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
+  OptionReader reader;
+  RebalanceArgs args;
+  args.recipe = options.recipe;
+  args.stock = options.stock;
+  args.json = options.json;
+  args.write = options.write;
   if (auto model = ibu_model_from(options.model))
-    plan.settings.model = *model;
+    args.settings.model = *model;
   else
-    problems.push_back(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
+    reader.add(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
   if (options.lots.empty() == options.stock.empty())
-    problems.emplace_back(options.lots.empty()
-                              ? "--lot, --stock: neither given (expected --lot VARIETY=ALPHA% ... or --stock FILE)"
-                              : "--lot, --stock: both given (expected one: --lot for lots you name, --stock to take "
-                                "them from your cold store)");
-  try {
-    plan.on = brew_day_from_option(options.on);
-  } catch (const InputError& e) {
-    problems.insert(problems.end(), e.lines().begin(), e.lines().end());
-  }
-  if (!problems.empty()) throw InputError(problems);
-  return plan;
+    reader.add(options.lots.empty()
+                   ? "--lot, --stock: neither given (expected --lot VARIETY=ALPHA% ... or --stock FILE)"
+                   : "--lot, --stock: both given (expected one: --lot for lots you name, --stock to take "
+                     "them from your cold store)");
+  for (const auto& text : options.lots)
+    if (auto lot = read_lot(reader, text)) args.lots.push_back(std::move(*lot));
+  if (auto on = reader.brew_day(options.on)) args.on = *on;
+  reader.throw_if_any();
+  return args;
 }
 
-std::vector<ReplacementLot> lots_from_options(const RebalanceOptions& options, const Recipe& recipe) {
-  std::vector<std::string> problems;
+/// The --lot values against the recipe: each names a variety it uses, once.
+std::vector<ReplacementLot> lots_for_recipe(const std::vector<LotOption>& options, const Recipe& recipe) {
+  std::vector<std::string> used;
+  for (const auto& hop : recipe.hops)
+    if (!hop.variety.empty() && std::find(used.begin(), used.end(), hop.variety) == used.end())
+      used.push_back(hop.variety);
+  OptionReader reader;
   std::vector<ReplacementLot> lots;
-  for (const auto& text : options.lots) {
-    auto lot = parse_lot(text, recipe, problems);
-    if (!lot) continue;
+  for (const auto& [text, lot] : options) {
+    if (!recipe_uses_variety(recipe, lot.variety)) {
+      const std::string hint = did_you_mean(lot.variety, used);
+      reader.add(fmt::format("--lot: \"{}\": the recipe does not use {} ({}the recipe uses {})", text, lot.variety,
+                             hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
+      continue;
+    }
     for (const auto& earlier : lots)
-      if (fold_name(earlier.variety) == fold_name(lot->variety))
-        problems.push_back(
-            fmt::format("--lot: \"{}\": {} is given twice (expected one --lot per variety)", text, lot->variety));
-    lots.push_back(std::move(*lot));
+      if (fold_name(earlier.variety) == fold_name(lot.variety))
+        reader.add(fmt::format("--lot: \"{}\": {} is given twice (expected one --lot per variety)", text, lot.variety));
+    lots.push_back(lot);
   }
-  if (!problems.empty()) throw InputError(problems);
+  reader.throw_if_any();
   return lots;
 }
 
-void run_rebalance(const GlobalOptions& globals, const RebalanceOptions& options) {
-  const Plan plan = validate(options);
+void run_rebalance(const Console& console, const GlobalOptions& globals, const RebalanceArgs& args) {
   // 1. Load: catalogs, the recipe, and the lots (named, or from the stock file aged to brew day).
-  const DataSet data = [&] {
-    PhaseTimer timer(globals.timings, "load data");
-    return globals.load();
-  }();
-  const Recipe recipe = load_recipe(options.recipe);
+  const DataSet data = load_data(globals, console);
+  const Recipe recipe = load_recipe(args.recipe);
   RebalanceContext context;
-  context.on = plan.on.date;
-  context.on_from_clock = plan.on.from_clock;
-  context.from_stock = !options.stock.empty();
+  context.on = args.on.date;
+  context.on_from_clock = args.on.from_clock;
+  context.from_stock = !args.stock.empty();
   std::vector<std::string> stock_notes;
   if (context.from_stock)
-    context.lots = lots_from_stock(recipe, load_stock(options.stock), data.catalog, plan.on.date, stock_notes);
+    context.lots = lots_from_stock(recipe, load_stock(args.stock), data.catalog, args.on.date, stock_notes);
   else
-    context.lots = lots_from_options(options, recipe);
+    context.lots = lots_for_recipe(args.lots, recipe);
   // 2. Rebalance.
   RebalanceResult result = [&] {
-    PhaseTimer timer(globals.timings, "rebalance");
-    return rebalance(recipe, context.lots, data.catalog, plan.settings);
+    const auto timer = console.time("rebalance");
+    return rebalance(recipe, context.lots, data.catalog, args.settings);
   }();
   result.notes.insert(result.notes.begin(), stock_notes.begin(), stock_notes.end());
   // 3. Save the recipe to brew, if asked, then render.
-  if (!options.write.empty()) {
-    write_file_atomically(options.write, recipe_to_json(result.recipe_after).dump(2) + "\n");
-    result.notes.push_back(fmt::format("rebalanced recipe written to {}", options.write));
+  if (!args.write.empty()) {
+    write_file_atomically(args.write, recipe_to_json(result.recipe_after).dump(2) + "\n");
+    result.notes.push_back(fmt::format("rebalanced recipe written to {}", args.write));
   }
-  if (options.json)
-    std::cout << rebalance_to_json(recipe, context, result).dump(2) << '\n';
-  else
-    render_rebalance(std::cout, recipe, context, result, globals.unit_system());
+  print_result(
+      console, args.json, [&] { return rebalance_to_json(recipe, context, result); },
+      [&](std::ostream& out) { render_rebalance(out, recipe, context, result, globals.unit_system()); });
 }
 
 }  // namespace
 
-void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals) {
+void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<RebalanceOptions>();
   auto* rebalance = app.add_subcommand("rebalance",
                                        "new grams for a recipe when the lots' alpha (or oil) differ, "
@@ -186,7 +177,9 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals) {
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-dec.json\n"
       "Boil and first-wort additions hold their IBU; whirlpool and dry-hop additions hold their oil (else\n"
       "grams) and the largest boil addition absorbs the IBU change.");
-  rebalance->callback([&globals, options] { run_rebalance(globals, *options); });
+  commands.add(rebalance, [&globals, options](const Console& console) {
+    run_rebalance(console, globals, parse_rebalance_args(*options));
+  });
 }
 
 }  // namespace bine::cli

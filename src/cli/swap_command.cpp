@@ -2,18 +2,16 @@
 // and how much of it.
 #include <fmt/format.h>
 
-#include <iostream>
 #include <memory>
 
-#include "cli/brew_day_option.hpp"
 #include "cli/commands.hpp"
+#include "cli/option_values.hpp"
 #include "engine/hop_index.hpp"
 #include "engine/substitutes.hpp"
 #include "io/file_io.hpp"
+#include "io/limits.hpp"
 #include "io/loaders.hpp"
-#include "model/errors.hpp"
 #include "report/swap_report.hpp"
-#include "report/timings.hpp"
 
 namespace bine::cli {
 namespace {
@@ -23,82 +21,75 @@ struct SwapOptions {
   std::string purpose = "aroma";
   std::string stock;
   std::string on;
-  int top = 5;
+  std::string top;
   bool pairs = false;
   bool json = false;
   std::string html;
 };
 
-/// Checks every option, collects every problem, and returns the request (without catalog data).
-SwapRequest validate(const SwapOptions& options, BrewDay& brew_day) {
-  std::vector<std::string> problems;
-  SwapRequest request;
-  request.missing = options.variety;
+struct SwapArgs {
+  SwapRequest request;  // without catalog data; the stock is attached once loaded
+  BrewDay brew_day;
+  std::string stock;
+  bool json = false;
+  std::string html;
+};
+
+SwapArgs parse_swap_args(const SwapOptions& options) {
+  OptionReader reader;
+  SwapArgs args;
+  args.stock = options.stock;
+  args.json = options.json;
+  args.html = options.html;
+  args.request.missing = options.variety;
+  args.request.pairs = options.pairs;
   if (const auto purpose = swap_purpose_from(options.purpose))
-    request.purpose = *purpose;
+    args.request.purpose = *purpose;
   else
-    problems.push_back(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
-  if (options.top < 1 || options.top > 100)
-    problems.push_back(fmt::format("--top: {}: out of range (expected a whole number from 1 to 100)", options.top));
-  else
-    request.top = static_cast<std::size_t>(options.top);
-  request.pairs = options.pairs;
-  try {
-    brew_day = brew_day_from_option(options.on);
-    request.on = brew_day.date;
-  } catch (const InputError& e) {
-    problems.insert(problems.end(), e.lines().begin(), e.lines().end());
+    reader.add(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
+  if (auto top = reader.count("--top", options.top, limits::substitutes_listed, 5)) args.request.top = *top;
+  if (auto on = reader.brew_day(options.on)) {
+    args.brew_day = *on;
+    args.request.on = on->date;
   }
-  if (!options.on.empty() && options.stock.empty())
-    problems.push_back(
-        fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.on));
-  if (!problems.empty()) throw InputError(problems);
-  return request;
+  reader.require(options.on.empty() || !options.stock.empty(),
+                 fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.on));
+  reader.throw_if_any();
+  return args;
 }
 
-int run_swap(const GlobalOptions& globals, const SwapOptions& options) {
-  BrewDay brew_day;
-  SwapRequest request = validate(options, brew_day);
+void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs args) {
   use_single_thread();  // one query: threads would only add start-up time
-
   // 1. Load: lexicon and catalogs, and the stock file when given.
-  DataSet data;
+  const DataSet data = load_data(globals, console);
   Stock stock;
-  {
-    PhaseTimer timer(globals.timings, "load data");
-    data = globals.load();
-    if (!options.stock.empty()) {
-      stock = load_stock(options.stock);
-      if (stock.name.empty()) stock.name = options.stock;
-      request.stock = &stock;
-    }
+  if (!args.stock.empty()) {
+    stock = load_stock(args.stock);
+    if (stock.name.empty()) stock.name = args.stock;
+    args.request.stock = &stock;
   }
   // 2. Compute: vectorise, index, search, re-score, amount factors, pairs.
-  SwapResult result;
-  {
-    PhaseTimer timer(globals.timings, "vectorise, index and rank");
-    result = find_substitutes(data.catalog, data.lexicon, request);
-  }
-  if (result.from_stock && brew_day.from_clock)
+  SwapResult result = [&] {
+    const auto timer = console.time("vectorise, index and rank");
+    return find_substitutes(data.catalog, data.lexicon, args.request);
+  }();
+  if (result.from_stock && args.brew_day.from_clock)
     result.notes.push_back(
-        fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(brew_day.date)));
+        fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(args.brew_day.date)));
   if (data.catalog.demo)
     result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
-
   // 3. Render.
-  PhaseTimer timer(globals.timings, "render");
-  if (!options.html.empty())
-    write_file_atomically(options.html, swap_html(result, globals.unit_system(), options.pairs));
-  if (options.json)
-    std::cout << swap_to_json(result, options.pairs).dump(2) << '\n';
-  else
-    render_swap(std::cout, result, globals.unit_system(), options.pairs);
-  return 0;
+  const auto timer = console.time("render");
+  const bool pairs = args.request.pairs;
+  if (!args.html.empty()) write_file_atomically(args.html, swap_html(result, globals.unit_system(), pairs));
+  print_result(
+      console, args.json, [&] { return swap_to_json(result, pairs); },
+      [&](std::ostream& out) { render_swap(out, result, globals.unit_system(), pairs); });
 }
 
 }  // namespace
 
-void setup_swap_command(CLI::App& app, const GlobalOptions& globals) {
+void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<SwapOptions>();
   auto* swap = app.add_subcommand("swap", "find substitutes for a variety you cannot get, and how much to use");
   swap->add_option("VARIETY", options->variety, "the variety to replace (case and accents do not matter)")->required();
@@ -118,7 +109,8 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals) {
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs\n"
       "  bine swap Keelstone --for bittering --top 3 --json\n"
       "  bine --units us swap Tidewell --html tidewell.html");
-  swap->callback([&globals, options] { run_swap(globals, *options); });
+  commands.add(swap,
+               [&globals, options](const Console& console) { run_swap(console, globals, parse_swap_args(*options)); });
 }
 
 }  // namespace bine::cli

@@ -217,8 +217,8 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& s
       const Lot& lot = stock.lots[i];
       if (fold_name(lot.variety) != folded) continue;
       if (lot.packaged && *lot.packaged > on)
-        problems.push_back(fmt::format("{}: /lots/{}/packaged: {} is after the brew day --on {} (give a later --on)",
-                                       stock.source_file, i, format_date(*lot.packaged), format_date(on)));
+        problems.push_back(fmt::format("{}: /lots/{}/packaged: {} is after the brew day {}", stock.source_file, i,
+                                       format_date(*lot.packaged), format_date(on)));
       if (!lot.alpha_acid) continue;
       ++count;
       if (best == nullptr || lot.on_hand_g.value_or(0.0) > best->on_hand_g.value_or(0.0)) {
@@ -264,7 +264,7 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& s
     }
     chosen.push_back(std::move(lot));
   }
-  if (!problems.empty()) throw InputError(problems);
+  if (!problems.empty()) throw InputError(problems, {Remedy::later_brew_day});
   return chosen;
 }
 

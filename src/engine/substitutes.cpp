@@ -216,16 +216,14 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     for (std::size_t i = 0; i < lots_of.size(); ++i)
       if (!lots_of[i].empty()) allowed.push_back(static_cast<std::int64_t>(i));
     if (allowed.empty())
-      throw Infeasible(
-          fmt::format("no lot on hand in {} is a catalog variety other than {} (add stock, or run without "
-                      "--stock to see substitutes from the whole catalog)",
-                      request.stock->source_file, missing.name));
+      throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}",
+                                   request.stock->source_file, missing.name),
+                       {Remedy::add_stock, Remedy::whole_catalog});
   } else {
     for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
       if (!is_missing(catalog.varieties[i])) allowed.push_back(static_cast<std::int64_t>(i));
     if (allowed.empty())
-      throw Infeasible(
-          fmt::format("the catalog has no variety besides {} (add one with --catalog FILE)", missing.name));
+      throw Infeasible(fmt::format("the catalog has no variety besides {}", missing.name), {Remedy::add_catalog});
   }
 
   // Ask the index for candidates, then re-score exactly (missing blocks handled per pair).

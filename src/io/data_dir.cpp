@@ -1,27 +1,20 @@
 #include "io/data_dir.hpp"
 
 #include <algorithm>
-#include <cstdlib>
 
 #include "io/loaders.hpp"
 #include "model/errors.hpp"
 
 namespace bine {
 
-std::filesystem::path resolve_data_dir(const std::string& option) {
+std::filesystem::path resolve_data_dir(const DataFolderChoice& choice) {
   namespace fs = std::filesystem;
   std::error_code ec;
   auto usable = [&](const fs::path& dir) { return fs::is_regular_file(dir / "lexicon.json", ec); };
-  if (!option.empty()) {
-    if (!usable(option))
-      throw InputError("--data " + option + ": no lexicon.json in this folder (expected a descriptor-data folder)");
-    return option;
-  }
-  if (const char* env = std::getenv("BINE_DATA"); env != nullptr && *env != '\0') {
-    if (!usable(env))
-      throw InputError(std::string("BINE_DATA=") + env +
-                       ": no lexicon.json in this folder (expected a descriptor-data folder)");
-    return env;
+  if (!choice.folder.empty()) {
+    if (!usable(choice.folder))
+      throw InputError(choice.named_by + ": no lexicon.json in this folder (expected a descriptor-data folder)");
+    return choice.folder;
   }
   const fs::path exe = fs::read_symlink("/proc/self/exe", ec);
   if (!ec) {
@@ -33,10 +26,10 @@ std::filesystem::path resolve_data_dir(const std::string& option) {
   throw InputError("no descriptor data found (use --data DIR or set BINE_DATA)");
 }
 
-DataSet load_data(const std::string& data_option, const std::vector<std::string>& user_catalogs) {
+DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs) {
   namespace fs = std::filesystem;
   DataSet data;
-  data.data_dir = resolve_data_dir(data_option);
+  data.data_dir = resolve_data_dir(choice);
   data.lexicon = load_lexicon(data.data_dir / "lexicon.json");
   std::vector<fs::path> files;
   std::error_code ec;

@@ -15,12 +15,19 @@ struct DataSet {
   Catalog catalog;  // the data dir's catalogs, then --catalog files, merged
 };
 
-/// The data folder: the --data option, else $BINE_DATA, else ../share/bine/descriptor-data next to
-/// the installed executable, else the source tree's descriptor-data. Throws InputError when the
-/// chosen folder has no lexicon.json.
-std::filesystem::path resolve_data_dir(const std::string& option);
+/// Where the brewer named a data folder, for messages: `folder` and the words that named it
+/// ("--data DIR", "BINE_DATA=DIR"). An empty folder means "not named".
+struct DataFolderChoice {
+  std::string folder;
+  std::string named_by;
+};
+
+/// The data folder: the one the brewer named, else ../share/bine/descriptor-data next to the
+/// installed executable, else the source tree's descriptor-data. Throws InputError when the chosen
+/// folder has no lexicon.json. Reads no environment variable (the command line does, once).
+std::filesystem::path resolve_data_dir(const DataFolderChoice& choice);
 
 /// Loads the lexicon, every catalog under DATA/catalog (sorted by name), then the user catalogs.
-DataSet load_data(const std::string& data_option, const std::vector<std::string>& user_catalogs);
+DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs);
 
 }  // namespace bine

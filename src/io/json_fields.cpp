@@ -213,20 +213,6 @@ bool check_bounds(double value, Dimension dimension, const Bounds& bounds, const
   return !problem;
 }
 
-std::optional<double> read_option_quantity(std::string_view option, std::string_view text, Dimension dimension,
-                                           const Bounds& bounds, std::vector<std::string>& problems) {
-  const ParsedQuantity parsed = parse_quantity(text, dimension);
-  if (!parsed.value) {
-    problems.push_back(fmt::format("{}: {}", option, parsed.error));
-    return std::nullopt;
-  }
-  if (auto problem = bounds_problem(*parsed.value, dimension, bounds)) {
-    problems.push_back(fmt::format("{}: {}", option, *problem));
-    return std::nullopt;
-  }
-  return parsed.value;
-}
-
 std::optional<double> read_quantity(const nlohmann::json& value, Dimension dimension, const Bounds& bounds,
                                     const std::string& pointer, Diagnostics& diagnostics) {
   double number = 0.0;

@@ -74,11 +74,6 @@ bool check_bounds(double value, Dimension dimension, const Bounds& bounds, const
 /// 0.5-22%)", or "0.12 looks like a fraction ..."), or nullopt when it is within them.
 std::optional<std::string> bounds_problem(double value, Dimension dimension, const Bounds& bounds);
 
-/// Reads a quantity given as a command-line value ("--alpha 11.2", "--volume 20L"); on failure
-/// appends "OPTION: what is wrong (what is expected)" to `problems` and returns nullopt.
-std::optional<double> read_option_quantity(std::string_view option, std::string_view text, Dimension dimension,
-                                           const Bounds& bounds, std::vector<std::string>& problems);
-
 /// Reads a quantity from a JSON number or string, then checks bounds. `what` is the value's
 /// pointer for messages.
 std::optional<double> read_quantity(const nlohmann::json& value, Dimension dimension, const Bounds& bounds,

@@ -27,4 +27,14 @@ inline constexpr Bounds whirlpool_temperature{20.0, 100.0, "a whirlpool temperat
 inline constexpr Bounds storage_temperature{-40.0, 40.0, "a storage temperature"};
 inline constexpr Bounds target_ibu{0.0, 200.0, "target IBU"};
 
+// Command-line settings (common practice where not said otherwise).
+inline constexpr Bounds late_hop_rate{0.0, 40.0, "a late-hop rate", true};  // very heavy dry hop is 10-20 g/L
+inline constexpr Bounds oil_dose{0.0, 100.0, "an oil dose", true};
+inline constexpr Bounds share{0.0, 1.0, "a share"};
+inline constexpr Bounds axis_weight{0.0, 1.0, "an axis weight"};
+inline constexpr Bounds pellet_factor{0.5, 2.0, "the pellet factor"};
+inline constexpr Bounds calibration{0.0, 5.0, "a calibration factor", true};
+inline constexpr Bounds blend_varieties{1.0, 6.0, "varieties in a blend"};
+inline constexpr Bounds substitutes_listed{1.0, 100.0, "substitutes listed"};
+
 }  // namespace bine::limits

@@ -72,9 +72,12 @@ std::vector<std::string> printable(std::vector<std::string> lines) {
 
 }  // namespace
 
-InputError::InputError(std::string line) : InputError(std::vector<std::string>{std::move(line)}) {}
-InputError::InputError(std::vector<std::string> lines)
-    : std::runtime_error(join_lines(printable(lines))), lines_(printable(std::move(lines))) {}
+InputError::InputError(std::string line, std::vector<Remedy> remedies)
+    : InputError(std::vector<std::string>{std::move(line)}, std::move(remedies)) {}
+InputError::InputError(std::vector<std::string> lines, std::vector<Remedy> remedies)
+    : std::runtime_error(join_lines(printable(lines))),
+      lines_(printable(std::move(lines))),
+      remedies_(std::move(remedies)) {}
 
 void Diagnostics::add(const std::string& pointer, const std::string& message) {
   lines_.push_back(file_ + ": " + (pointer.empty() ? std::string("/") : pointer) + ": " + message);

@@ -1,6 +1,6 @@
 #pragma once
 // The two errors a brewer can meet, each carrying its exit status. They are caught in one place
-// (src/cli/main.cpp) and printed one line each with the prefix "bine: error: ".
+// (src/cli/app.cpp) and printed one line each with the prefix "bine: error: ".
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -11,22 +11,51 @@ namespace bine {
 inline constexpr int kExitBadInput = 2;
 inline constexpr int kExitInfeasible = 3;
 
+/// Something the brewer can change to make a request work, in the words of the domain. Engines attach
+/// these to their errors instead of naming command-line options; the command line turns each into
+/// the option that does it (src/cli/remedies.cpp).
+enum class Remedy {
+  lower_whirlpool_share,   // put less of the late hops in the whirlpool
+  raise_whirlpool_share,   // put more of the late hops in the whirlpool
+  lower_late_amount,       // fewer late grams (rate) or less oil (dose)
+  raise_late_amount,       // more late grams or oil
+  raise_target_ibu,        // a higher IBU to hold
+  add_stock,               // more hops on hand
+  more_varieties,          // allow more varieties in the blend
+  allow_bittering,         // allow a bittering charge
+  name_bittering_variety,  // say which variety bitters
+  no_bittering,            // do without a bittering charge
+  later_brew_day,          // brew on a later day
+  whole_catalog,           // look beyond the lots on hand
+  add_catalog,             // load another catalog
+  aim_by_target,           // aim at an aroma profile instead of a variety
+  give_late_amount,        // say how much late hop to use
+};
+
 /// Bad input: a file, field or option that cannot be used. Holds one line per problem.
 class InputError : public std::runtime_error {
  public:
-  explicit InputError(std::string line);
-  explicit InputError(std::vector<std::string> lines);
+  explicit InputError(std::string line, std::vector<Remedy> remedies = {});
+  explicit InputError(std::vector<std::string> lines, std::vector<Remedy> remedies = {});
   const std::vector<std::string>& lines() const { return lines_; }
+  /// What would fix every line, for the command line to name its options.
+  const std::vector<Remedy>& remedies() const { return remedies_; }
 
  private:
   std::vector<std::string> lines_;
+  std::vector<Remedy> remedies_;
 };
 
-/// A well-formed request that cannot be met (no stock, IBU already exceeded ...). Says why and
-/// what would make it feasible.
+/// A well-formed request that cannot be met (no stock, IBU already exceeded ...). Says why in domain
+/// words and lists what would make it feasible.
 class Infeasible : public std::runtime_error {
  public:
-  explicit Infeasible(std::string why) : std::runtime_error(std::move(why)) {}
+  explicit Infeasible(std::string why, std::vector<Remedy> remedies = {})
+      : std::runtime_error(std::move(why)), remedies_(std::move(remedies)) {}
+  const std::vector<Remedy>& remedies() const { return remedies_; }
+
+ private:
+  std::vector<Remedy> remedies_;
 };
 
 /// Collects every problem found in one file before stopping, so the brewer fixes them in one go.

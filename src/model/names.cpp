@@ -24,6 +24,12 @@ char fold_extended_a(unsigned code) {
 
 }  // namespace
 
+std::string_view trim_space(std::string_view text) {
+  while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front()))) text.remove_prefix(1);
+  while (!text.empty() && std::isspace(static_cast<unsigned char>(text.back()))) text.remove_suffix(1);
+  return text;
+}
+
 std::string fold_name(std::string_view name) {
   std::string out;
   bool pending_space = false;

@@ -11,6 +11,9 @@ namespace bine {
 /// "ETOILE-pale" and "Étoile Pâle" compare equal.
 std::string fold_name(std::string_view name);
 
+/// `text` without leading and trailing white space.
+std::string_view trim_space(std::string_view text);
+
 /// Levenshtein distance between two strings (bytes).
 std::size_t edit_distance(std::string_view a, std::string_view b);
 

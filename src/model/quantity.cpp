@@ -7,6 +7,8 @@
 #include <charconv>
 #include <cmath>
 
+#include "model/names.hpp"
+
 namespace bine {
 namespace {
 
@@ -32,6 +34,11 @@ constexpr std::array kTimeUnits{Unit{"min", 1.0},  Unit{"mins", 1.0},   Unit{"mi
                                 Unit{"d", 1440.0}, Unit{"day", 1440.0}, Unit{"days", 1440.0}};
 constexpr std::array kPercentUnits{Unit{"%", 1.0}};
 constexpr std::array kOilUnits{Unit{"ml/100g", 1.0}, Unit{"ml/100 g", 1.0}};
+// Rates and doses are matched with spaces removed ("6 g / L" is "6g/l").
+constexpr std::array kHopRateUnits{Unit{"g/l", 1.0}, Unit{"g/hl", 0.01}, Unit{"kg/hl", 10.0},
+                                   Unit{"oz/gal", kGramsPerOunce / kLitresPerUsGallon},
+                                   Unit{"lb/bbl", kGramsPerPound / (kUsGallonsPerBeerBarrel * kLitresPerUsGallon)}};
+constexpr std::array kOilDoseUnits{Unit{"ml/hl", 1.0}, Unit{"ml/l", 100.0}};
 
 std::string lower(std::string_view text) {
   std::string out;
@@ -40,9 +47,10 @@ std::string lower(std::string_view text) {
   return out;
 }
 
-std::string_view trim(std::string_view text) {
-  while (!text.empty() && std::isspace(static_cast<unsigned char>(text.front()))) text.remove_prefix(1);
-  while (!text.empty() && std::isspace(static_cast<unsigned char>(text.back()))) text.remove_suffix(1);
+std::string_view trim(std::string_view text) { return trim_space(text); }
+
+std::string without_spaces(std::string text) {
+  std::erase(text, ' ');
   return text;
 }
 
@@ -75,6 +83,10 @@ std::string_view canonical_unit(Dimension dimension) {
       return "SG";
     case Dimension::number:
       return "";
+    case Dimension::hop_rate:
+      return "g/L";
+    case Dimension::oil_dose:
+      return "mL/hL";
   }
   return "";
 }
@@ -97,6 +109,10 @@ std::string_view accepted_units(Dimension dimension) {
       return "use a specific gravity such as 1.050 or degrees Plato such as 12.4 P";
     case Dimension::number:
       return "use a plain number";
+    case Dimension::hop_rate:
+      return "use g/L, g/hL, oz/gal or lb/bbl";
+    case Dimension::oil_dose:
+      return "use mL/hL or mL/L";
   }
   return "";
 }
@@ -119,6 +135,10 @@ std::string_view dimension_noun(Dimension dimension) {
       return "a gravity";
     case Dimension::number:
       return "a number";
+    case Dimension::hop_rate:
+      return "a hop rate";
+    case Dimension::oil_dose:
+      return "an oil dose";
   }
   return "";
 }
@@ -190,6 +210,12 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
       break;
     case Dimension::number:
       factor = unit.empty() ? std::optional<double>(1.0) : std::nullopt;
+      break;
+    case Dimension::hop_rate:
+      factor = unit.empty() ? 1.0 : factor_for(kHopRateUnits, without_spaces(unit));
+      break;
+    case Dimension::oil_dose:
+      factor = unit.empty() ? 1.0 : factor_for(kOilDoseUnits, without_spaces(unit));
       break;
     case Dimension::temperature:
       if (unit.empty() || unit == "c") return {number, {}};

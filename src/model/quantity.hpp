@@ -4,17 +4,20 @@
 // load, into the canonical unit. Canonical units: g, L, C, minutes, %, mL/100 g, specific gravity.
 // Conversion factors are exact definitions (NIST Handbook 44, Appendix C):
 //   1 oz (avoirdupois) = 28.349523125 g, 1 lb = 453.59237 g,
-//   1 US gal = 3.785411784 L, 1 US beer barrel = 31 US gal.
+//   1 US gal = 3.785411784 L, 1 US beer barrel = 31 US gal;
+// so 1 oz/gal = 7.48915... g/L and 1 lb/bbl = 3.86535... g/L (derived).
 #include <optional>
 #include <string>
 #include <string_view>
 
 namespace bine {
 
-/// `number` is a plain number without a unit (aroma intensity 0-5, HSI, IBU).
-enum class Dimension { mass, volume, temperature, time, percent, oil_content, gravity, number };
+/// `number` is a plain number without a unit (aroma intensity 0-5, HSI, IBU). `hop_rate` is grams of
+/// hops per litre of wort (g/L), `oil_dose` millilitres of hop oil per hectolitre (mL/hL).
+enum class Dimension { mass, volume, temperature, time, percent, oil_content, gravity, number, hop_rate, oil_dose };
 
-/// The canonical unit's symbol, for messages and output ("g", "L", "C", "min", "%", "mL/100 g", "SG").
+/// The canonical unit's symbol, for messages and output ("g", "L", "C", "min", "%", "mL/100 g", "SG",
+/// "g/L", "mL/hL").
 std::string_view canonical_unit(Dimension dimension);
 /// The accepted units in words, for "(use ...)" hints in error messages.
 std::string_view accepted_units(Dimension dimension);

@@ -2,17 +2,15 @@
 
 #include <fmt/format.h>
 
-#include <cstdio>
-
 namespace bine {
 
-PhaseTimer::PhaseTimer(bool enabled, std::string phase)
-    : enabled_(enabled), phase_(std::move(phase)), start_(std::chrono::steady_clock::now()) {}
+PhaseTimer::PhaseTimer(std::ostream* sink, std::string phase)
+    : sink_(sink), phase_(std::move(phase)), start_(std::chrono::steady_clock::now()) {}
 
 PhaseTimer::~PhaseTimer() {
-  if (!enabled_) return;
+  if (sink_ == nullptr) return;
   const double ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - start_).count();
-  fmt::print(stderr, "timing: {:<16} {:9.3f} ms\n", phase_, ms);
+  *sink_ << fmt::format("timing: {:<16} {:9.3f} ms\n", phase_, ms);
 }
 
 }  // namespace bine

@@ -1,19 +1,22 @@
 #pragma once
-// Scoped phase timers printed to stderr with --timings: the cheapest profiler a brewer can run.
+// Scoped phase timers printed with --timings: the cheapest profiler a brewer can run.
 #include <chrono>
+#include <ostream>
 #include <string>
 
 namespace bine {
 
+/// Measures the time from construction to destruction and prints one line to `sink` when it ends;
+/// a null sink (timings off) prints nothing.
 class PhaseTimer {
  public:
-  PhaseTimer(bool enabled, std::string phase);
+  PhaseTimer(std::ostream* sink, std::string phase);
   ~PhaseTimer();
   PhaseTimer(const PhaseTimer&) = delete;
   PhaseTimer& operator=(const PhaseTimer&) = delete;
 
  private:
-  bool enabled_;
+  std::ostream* sink_;
   std::string phase_;
   std::chrono::steady_clock::time_point start_;
 };

@@ -78,7 +78,8 @@ TEST_CASE("rebalance rejects a lot the recipe does not use, a lot packaged after
   const auto future = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "' --stock '" +
                                                fixture("h3-stock.json") + "' --on 2025-11-30"));
   CHECK(future.status == 2);
-  CHECK(future.err.find("/lots/0/packaged: 2025-12-01 is after the brew day --on 2025-11-30") != std::string::npos);
+  CHECK(future.err.find("/lots/0/packaged: 2025-12-01 is after the brew day 2025-11-30 (give a later --on)") !=
+        std::string::npos);
   const auto neither = run_command(with_catalog("rebalance '" + fixture("h3-rebalance.json") + "'"));
   CHECK(neither.status == 2);
   const auto alpha =

@@ -19,7 +19,7 @@ bine::Variety variety(const std::string& name, std::map<std::string, double> aro
   return v;
 }
 
-bine::DataSet demo_data() { return bine::load_data(BINE_TEST_DIR "/../descriptor-data", {}); }
+bine::DataSet demo_data() { return bine::load_data({BINE_TEST_DIR "/../descriptor-data", "test data"}, {}); }
 
 }  // namespace
 

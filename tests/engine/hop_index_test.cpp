@@ -58,7 +58,7 @@ std::vector<std::int64_t> ids_of(const std::vector<bine::IndexHit>& hits) {
   return ids;
 }
 
-bine::DataSet demo_data() { return bine::load_data(BINE_TEST_DIR "/../descriptor-data", {}); }
+bine::DataSet demo_data() { return bine::load_data({BINE_TEST_DIR "/../descriptor-data", "test data"}, {}); }
 
 }  // namespace
 

@@ -14,7 +14,7 @@
 
 namespace {
 
-bine::DataSet demo_data() { return bine::load_data(BINE_TEST_DIR "/../descriptor-data", {}); }
+bine::DataSet demo_data() { return bine::load_data({BINE_TEST_DIR "/../descriptor-data", "test data"}, {}); }
 
 bine::Variety variety(const std::string& name, std::map<std::string, double> aroma) {
   bine::Variety v;

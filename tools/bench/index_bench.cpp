@@ -35,7 +35,7 @@ int main(int argc, char** argv) {
   std::vector<std::size_t> sizes;
   for (int i = 1; i < argc; ++i) sizes.push_back(static_cast<std::size_t>(std::strtoull(argv[i], nullptr, 10)));
   if (sizes.empty()) sizes = {10'000, 100'000, 1'000'000};
-  const bine::DataSet data = bine::load_data(BINE_SOURCE_DATA_DIR, {});
+  const bine::DataSet data = bine::load_data({BINE_SOURCE_DATA_DIR, "source data"}, {});
   const std::size_t query_count = 500;
 
   std::printf("%-9s %-6s %11s %9s %9s %10s %9s\n", "lots", "index", "build s", "p50 ms", "p99 ms", "recall@10", "MB");

@@ -1,0 +1,74 @@
+#include "cli/option_values.hpp"
+
+#include <fmt/format.h>
+
+#include <charconv>
+#include <chrono>
+#include <cmath>
+
+#include "model/errors.hpp"
+#include "model/names.hpp"
+
+namespace bine::cli {
+
+Date today() { return std::chrono::floor<std::chrono::days>(std::chrono::system_clock::now()); }
+
+std::optional<double> OptionReader::quantity(std::string_view option, std::string_view text, Dimension dimension,
+                                             const Bounds& bounds) {
+  const ParsedQuantity parsed = parse_quantity(text, dimension);
+  if (!parsed.value) {
+    add(fmt::format("{}: {}", option, parsed.error));
+    return std::nullopt;
+  }
+  if (auto problem = bounds_problem(*parsed.value, dimension, bounds)) {
+    add(fmt::format("{}: {}", option, *problem));
+    return std::nullopt;
+  }
+  return parsed.value;
+}
+
+std::optional<double> OptionReader::optional_quantity(std::string_view option, std::string_view text,
+                                                      Dimension dimension, const Bounds& bounds) {
+  if (text.empty()) return std::nullopt;
+  return quantity(option, text, dimension, bounds);
+}
+
+std::optional<std::size_t> OptionReader::count(std::string_view option, std::string_view text, const Bounds& bounds,
+                                               std::size_t fallback) {
+  if (text.empty()) return fallback;
+  const std::string_view trimmed = trim_space(text);
+  long long value = 0;
+  const auto [end, error] = std::from_chars(trimmed.data(), trimmed.data() + trimmed.size(), value);
+  if (error != std::errc() || end != trimmed.data() + trimmed.size() || trimmed.empty()) {
+    add(fmt::format("{}: \"{}\" is not a whole number", option, text));
+    return std::nullopt;
+  }
+  if (static_cast<double>(value) < bounds.min || static_cast<double>(value) > bounds.max) {
+    add(fmt::format("{}: {} is outside the range for {} (expected {:g}-{:g})", option, value, bounds.what, bounds.min,
+                    bounds.max));
+    return std::nullopt;
+  }
+  return static_cast<std::size_t>(value);
+}
+
+std::optional<Date> OptionReader::date(std::string_view option, std::string_view text) {
+  if (auto parsed = parse_date(text)) return parsed;
+  add(fmt::format("{}: \"{}\": not a date (expected YYYY-MM-DD, a day that exists)", option, text));
+  return std::nullopt;
+}
+
+std::optional<BrewDay> OptionReader::brew_day(std::string_view text) {
+  if (text.empty()) return BrewDay{today(), true};
+  if (auto parsed = date("--on", text)) return BrewDay{*parsed, false};
+  return std::nullopt;
+}
+
+void OptionReader::require(bool condition, std::string line) {
+  if (!condition) add(std::move(line));
+}
+
+void OptionReader::throw_if_any() const {
+  if (!problems_.empty()) throw InputError(problems_);
+}
+
+}  // namespace bine::cli
