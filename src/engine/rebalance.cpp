@@ -83,112 +83,128 @@ bool recipe_uses_variety(const Recipe& recipe, std::string_view variety) {
                      [&](const HopAddition& hop) { return !hop.variety.empty() && fold_name(hop.variety) == wanted; });
 }
 
-RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
-                          const BitternessSettings& settings) {
-  RebalanceResult result;
-  result.before = recipe_bitterness(recipe, catalog, settings);
-  const WortContext wort = result.before.wort;
-  Recipe after = recipe;
-  std::vector<RebalanceRule> rules(recipe.hops.size(), RebalanceRule::unchanged);
-  std::vector<std::optional<double>> oil_before(recipe.hops.size());
-  std::vector<std::optional<double>> oil_after(recipe.hops.size());
+namespace {
 
-  // 1. Each addition on its own: boil side holds IBU, late hops hold oil (else grams).
-  for (const auto& line : result.before.additions) {
+/// The recipe being rebalanced and what happened to each addition so far.
+struct Working {
+  Recipe after;
+  std::vector<RebalanceRule> rules;
+  std::vector<std::optional<double>> oil_before;
+  std::vector<std::optional<double>> oil_after;
+};
+
+/// Step 1, each addition on its own: the boil side holds its IBU, late hops their oil (else grams).
+Working rebalance_each(const Recipe& recipe, const RecipeBitterness& before, const std::vector<ReplacementLot>& lots,
+                       const Catalog& catalog, const BitternessSettings& settings) {
+  Working w{recipe, std::vector<RebalanceRule>(recipe.hops.size(), RebalanceRule::unchanged),
+            std::vector<std::optional<double>>(recipe.hops.size()),
+            std::vector<std::optional<double>>(recipe.hops.size())};
+  for (const auto& line : before.additions) {
     const HopAddition& hop = recipe.hops[line.index];
-    HopAddition& next = after.hops[line.index];
+    HopAddition& next = w.after.hops[line.index];
     const ReplacementLot* lot = lot_for(lots, hop.variety);
     if (lot == nullptr) continue;
     next.alpha_acid = lot->alpha_percent;
     if (lot->form) next.form = lot->form;
     if (!lot->lot_code.empty()) next.lot = lot->lot_code;
     const Variety* variety = find_variety(catalog, hop.variety);
-    if (variety != nullptr && variety->total_oil) oil_before[line.index] = variety->total_oil->mid();
-    oil_after[line.index] = lot->total_oil;
+    if (variety != nullptr && variety->total_oil) w.oil_before[line.index] = variety->total_oil->mid();
+    w.oil_after[line.index] = lot->total_oil;
     if (hop.use == HopUse::boil || hop.use == HopUse::first_wort) {
-      const double per_gram = ibu_per_gram(next, lot->alpha_percent, wort, settings);
+      const double per_gram = ibu_per_gram(next, lot->alpha_percent, before.wort, settings);
       if (per_gram > 0.0 && line.bitterness.ibu > 0.0) next.grams = line.bitterness.ibu / per_gram;
-      rules[line.index] = RebalanceRule::holds_ibu;
-    } else if (oil_before[line.index] && oil_after[line.index]) {
-      next.grams = hop.grams * *oil_before[line.index] / *oil_after[line.index];
-      rules[line.index] = RebalanceRule::holds_oil;
+      w.rules[line.index] = RebalanceRule::holds_ibu;
+    } else if (w.oil_before[line.index] && w.oil_after[line.index]) {
+      next.grams = hop.grams * *w.oil_before[line.index] / *w.oil_after[line.index];
+      w.rules[line.index] = RebalanceRule::holds_oil;
     } else {
-      rules[line.index] = RebalanceRule::holds_grams;
+      w.rules[line.index] = RebalanceRule::holds_grams;
     }
   }
+  return w;
+}
 
-  // 2. Hold the total: the largest boil addition absorbs the change, else scale the whirlpool.
-  RecipeBitterness provisional = recipe_bitterness(after, catalog, settings);
-  const double change = result.before.total_ibu - provisional.total_ibu;
-  if (std::abs(change) > 1e-9 * std::max(1.0, result.before.total_ibu)) {
-    if (const auto absorber = choose_absorber(provisional)) {
-      const auto& line = *std::find_if(provisional.additions.begin(), provisional.additions.end(),
-                                       [&](const AdditionLine& l) { return l.index == *absorber; });
-      const double wanted = line.bitterness.ibu + change;
-      if (wanted <= 0.0) {
-        const double late = provisional.total_ibu - line.bitterness.ibu;
-        throw Infeasible(fmt::format(
-            "the late additions alone now give {:.1f} IBU, more than the recipe's total of {:.1f} IBU, so no boil "
-            "addition can hold it (cut the whirlpool amounts by more than {:.0f} %, or use a lot with less alpha)",
-            late, result.before.total_ibu, 100.0 * (1.0 - result.before.total_ibu / late)));
-      }
-      after.hops[*absorber].grams *= wanted / line.bitterness.ibu;
-      rules[*absorber] = RebalanceRule::absorbs_ibu;
-      result.ibu_change_absorbed = change;
-      result.absorber = *absorber;
-    } else {
-      double whirlpool_ibu = 0.0;
-      for (const auto& l : provisional.additions)
-        if (l.use == HopUse::whirlpool) whirlpool_ibu += l.bitterness.ibu;
-      if (whirlpool_ibu > 0.0) {
-        const double factor = (whirlpool_ibu + change) / whirlpool_ibu;
-        for (const auto& l : provisional.additions)
-          if (l.use == HopUse::whirlpool) {
-            after.hops[l.index].grams *= factor;
-            rules[l.index] = RebalanceRule::scaled_for_total;
-          }
-        result.whirlpool_scaled = true;
-        result.ibu_change_absorbed = change;
-        result.notes.push_back(fmt::format(
-            "no boil addition: the whirlpool additions were scaled by {:.3f} to hold the total IBU, so the aroma "
-            "they give changes too",
-            factor));
-      }
+/// Without a boil addition: the whirlpool additions are scaled together by the same factor.
+void scale_whirlpool(const RecipeBitterness& provisional, double change, Working& w, RebalanceResult& result) {
+  double whirlpool_ibu = 0.0;
+  for (const auto& l : provisional.additions)
+    if (l.use == HopUse::whirlpool) whirlpool_ibu += l.bitterness.ibu;
+  if (whirlpool_ibu <= 0.0) return;
+  const double factor = (whirlpool_ibu + change) / whirlpool_ibu;
+  for (const auto& l : provisional.additions)
+    if (l.use == HopUse::whirlpool) {
+      w.after.hops[l.index].grams *= factor;
+      w.rules[l.index] = RebalanceRule::scaled_for_total;
     }
-  }
+  result.whirlpool_scaled = true;
+  result.ibu_change_absorbed = change;
+  result.notes.push_back(
+      fmt::format("no boil addition: the whirlpool additions were scaled by {:.3f} to hold the total IBU, so the aroma "
+                  "they give changes too",
+                  factor));
+}
 
-  // 3. The result, recomputed from the final recipe so every figure comes from the model.
-  result.after = recipe_bitterness(after, catalog, settings);
-  for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
-    const AdditionLine& b = result.before.additions[k];
-    const AdditionLine& a = result.after.additions[k];
-    RebalancedAddition row;
-    row.index = b.index;
-    row.variety = b.variety;
-    row.use = b.use;
-    row.grams_before = b.grams;
-    row.grams_after = a.grams;
-    row.alpha_before = b.alpha_percent;
-    row.alpha_after = a.alpha_percent;
-    row.ibu_before = b.bitterness.ibu;
-    row.ibu_after = a.bitterness.ibu;
-    row.oil_before = oil_before[b.index];
-    row.oil_after = oil_after[b.index];
-    row.rule = rules[b.index];
-    result.additions.push_back(row);
+/// Step 2, hold the total: the largest boil addition absorbs the change, else scale the whirlpool.
+void hold_total(const RecipeBitterness& before, const Catalog& catalog, const BitternessSettings& settings, Working& w,
+                RebalanceResult& result) {
+  const RecipeBitterness provisional = recipe_bitterness(w.after, catalog, settings);
+  const double change = before.total_ibu - provisional.total_ibu;
+  if (std::abs(change) <= 1e-9 * std::max(1.0, before.total_ibu)) return;
+  const auto absorber = choose_absorber(provisional);
+  if (!absorber) return scale_whirlpool(provisional, change, w, result);
+  const auto& line = *std::find_if(provisional.additions.begin(), provisional.additions.end(),
+                                   [&](const AdditionLine& l) { return l.index == *absorber; });
+  const double wanted = line.bitterness.ibu + change;
+  if (wanted <= 0.0) {
+    const double late = provisional.total_ibu - line.bitterness.ibu;
+    throw Infeasible(fmt::format(
+        "the late additions alone now give {:.1f} IBU, more than the recipe's total of {:.1f} IBU, so no boil "
+        "addition can hold it (cut the whirlpool amounts by more than {:.0f} %, or use a lot with less alpha)",
+        late, before.total_ibu, 100.0 * (1.0 - before.total_ibu / late)));
   }
-  result.recipe_after = std::move(after);
+  w.after.hops[*absorber].grams *= wanted / line.bitterness.ibu;
+  w.rules[*absorber] = RebalanceRule::absorbs_ibu;
+  result.ibu_change_absorbed = change;
+  result.absorber = *absorber;
+}
 
-  // 4. Stock shortfalls: everything drawn from one lot against what it has on hand.
+/// Step 4: everything drawn from one lot against what it has on hand.
+std::vector<Shortfall> shortfalls(const Recipe& recipe, const std::vector<RebalancedAddition>& rows,
+                                  const std::vector<ReplacementLot>& lots) {
   std::map<std::string, double> needed;
-  for (const auto& row : result.additions)
+  for (const auto& row : rows)
     if (const ReplacementLot* lot = lot_for(lots, recipe.hops[row.index].variety); lot != nullptr && lot->on_hand_g)
       needed[fold_name(lot->variety)] += row.grams_after;
+  std::vector<Shortfall> found;
   for (const auto& lot : lots) {
     const auto it = needed.find(fold_name(lot.variety));
     if (it != needed.end() && lot.on_hand_g && it->second > *lot.on_hand_g + 1e-9)
-      result.shortfalls.push_back(Shortfall{lot.variety, lot.lot_code, it->second, *lot.on_hand_g});
+      found.push_back(Shortfall{lot.variety, lot.lot_code, it->second, *lot.on_hand_g});
   }
+  return found;
+}
+
+}  // namespace
+
+RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
+                          const BitternessSettings& settings) {
+  RebalanceResult result;
+  result.before = recipe_bitterness(recipe, catalog, settings);
+  // 1. Each addition on its own; 2. hold the total.
+  Working w = rebalance_each(recipe, result.before, lots, catalog, settings);
+  hold_total(result.before, catalog, settings, w, result);
+  // 3. The result, recomputed from the final recipe so every figure comes from the model.
+  result.after = recipe_bitterness(w.after, catalog, settings);
+  for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
+    const AdditionLine& b = result.before.additions[k];
+    const AdditionLine& a = result.after.additions[k];
+    result.additions.push_back(RebalancedAddition{b.index, b.variety, b.use, b.grams, a.grams, b.alpha_percent,
+                                                  a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
+                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
+  }
+  result.recipe_after = std::move(w.after);
+  // 4. Stock shortfalls.
+  result.shortfalls = shortfalls(recipe, result.additions, lots);
   for (const auto& row : result.additions)
     if (row.rule == RebalanceRule::holds_oil) {
       result.notes.push_back(

@@ -171,19 +171,15 @@ std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::
   return {solution.shares[0], solution.shares[1]};
 }
 
-SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
-                            const SubstituteSettings& settings) {
-  const Variety& missing = require_variety(catalog, request.missing, "swap");
-  SwapResult result;
-  result.missing = missing;
-  result.purpose = request.purpose;
-  result.axes = lexicon.axis_names();
+namespace {
 
-  // Vectorise the catalog and index it.
-  const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);
-  const Descriptors wanted = vectorizer.describe(missing);
-  result.missing_aroma = wanted.aroma;
-  result.missing_source = wanted.aroma_source;
+/// Every catalog variety described and embedded, and the index over them.
+struct IndexedCatalog {
+  std::vector<Descriptors> described;  // by catalog position
+  HopIndex index;
+};
+
+IndexedCatalog index_catalog(const Catalog& catalog, const Vectorizer& vectorizer, const SubstituteSettings& settings) {
   std::vector<float> rows;
   rows.reserve(catalog.varieties.size() * static_cast<std::size_t>(vectorizer.dimensions()));
   std::vector<Descriptors> described;
@@ -192,66 +188,72 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     const auto v = vectorizer.embed(described.back());
     rows.insert(rows.end(), v.begin(), v.end());
   }
-  const HopIndex index(vectorizer.dimensions(), rows, settings.index);
-  result.index_kind = index.kind();
+  return IndexedCatalog{std::move(described), HopIndex(vectorizer.dimensions(), rows, settings.index)};
+}
+
+/// The catalog positions that may answer, and, with stock, the lots on hand of each.
+struct Eligible {
+  std::vector<std::int64_t> ids;
+  std::vector<std::vector<const Lot*>> lots_of;  // by catalog position; empty without stock
+};
+
+Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request,
+                            std::vector<std::string>& notes) {
   const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
-
-  // Which varieties may answer: all but the missing one, or those with lots on hand.
-  std::vector<std::int64_t> allowed;
-  std::vector<std::vector<const Lot*>> lots_of(catalog.varieties.size());
-  if (request.stock) {
-    result.from_stock = true;
-    result.stock_name = request.stock->name;
-    result.on = request.on;
-    for (const auto& lot : request.stock->lots) {
-      const Variety* variety = find_variety(catalog, lot.variety);
-      if (!variety) {
-        result.notes.push_back(
-            fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
-        continue;
-      }
-      if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
-      lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
-    }
-    for (std::size_t i = 0; i < lots_of.size(); ++i)
-      if (!lots_of[i].empty()) allowed.push_back(static_cast<std::int64_t>(i));
-    if (allowed.empty())
-      throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}",
-                                   request.stock->source_file, missing.name),
-                       {Remedy::add_stock, Remedy::whole_catalog});
-  } else {
+  Eligible eligible;
+  if (!request.stock) {
     for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
-      if (!is_missing(catalog.varieties[i])) allowed.push_back(static_cast<std::int64_t>(i));
-    if (allowed.empty())
+      if (!is_missing(catalog.varieties[i])) eligible.ids.push_back(static_cast<std::int64_t>(i));
+    if (eligible.ids.empty())
       throw Infeasible(fmt::format("the catalog has no variety besides {}", missing.name), {Remedy::add_catalog});
+    return eligible;
   }
+  eligible.lots_of.resize(catalog.varieties.size());
+  for (const auto& lot : request.stock->lots) {
+    const Variety* variety = find_variety(catalog, lot.variety);
+    if (!variety) {
+      notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
+      continue;
+    }
+    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
+    eligible.lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
+  }
+  for (std::size_t i = 0; i < eligible.lots_of.size(); ++i)
+    if (!eligible.lots_of[i].empty()) eligible.ids.push_back(static_cast<std::int64_t>(i));
+  if (eligible.ids.empty())
+    throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}", request.stock->source_file,
+                                 missing.name),
+                     {Remedy::add_stock, Remedy::whole_catalog});
+  return eligible;
+}
 
-  // Ask the index for candidates, then re-score exactly (missing blocks handled per pair).
+/// The index's nearest varieties (or their lots on hand), each to be re-scored exactly.
+std::vector<Candidate> candidates_near(const Catalog& catalog, const IndexedCatalog& indexed, const Eligible& eligible,
+                                       const Descriptors& wanted, const Vectorizer& vectorizer,
+                                       const SwapRequest& request, const SubstituteSettings& settings) {
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
-  const auto hits =
-      request.stock ? index.search_subset(query.data(), k, allowed) : index.search_subset(query.data(), k + 1, allowed);
+  const auto hits = indexed.index.search_subset(query.data(), request.stock ? k : k + 1, eligible.ids);
   std::vector<Candidate> candidates;
   for (const auto& hit : hits) {
     const auto i = static_cast<std::size_t>(hit.id);
     const Variety& variety = catalog.varieties[i];
-    if (is_missing(variety)) continue;
     if (!request.stock) {
-      candidates.push_back({&variety, nullptr, described[i], std::nullopt, {}});
+      candidates.push_back({&variety, nullptr, indexed.described[i], std::nullopt, {}});
       continue;
     }
-    for (const Lot* lot : lots_of[i]) {
+    for (const Lot* lot : eligible.lots_of[i]) {
       Candidate c{&variety, lot, {}, std::nullopt, {}};
       age_lot(c, request.on, settings);
       c.descriptors = vectorizer.describe(variety, *lot, c.alpha_today);
       candidates.push_back(std::move(c));
     }
   }
-  result.candidates = candidates.size();
+  return candidates;
+}
 
-  std::vector<Substitute> ranked;
-  for (const auto& c : candidates)
-    ranked.push_back(make_substitute(c, wanted, missing, vectorizer, result.axes, settings));
+/// Positions of `ranked` best first: similarity, then variety name, then lot code.
+std::vector<std::size_t> ranking_order(const std::vector<Substitute>& ranked) {
   std::vector<std::size_t> order(ranked.size());
   for (std::size_t i = 0; i < order.size(); ++i) order[i] = i;
   std::sort(order.begin(), order.end(), [&](std::size_t x, std::size_t y) {
@@ -261,43 +263,81 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     if (a.variety.name != b.variety.name) return a.variety.name < b.variety.name;
     return (a.lot ? a.lot->lot : "") < (b.lot ? b.lot->lot : "");
   });
+  return order;
+}
+
+/// Convex two-hop fits among the best `pair_pool` candidates that beat the best single one.
+std::vector<SubstitutePair> fit_pairs(const std::vector<Candidate>& candidates, const std::vector<std::size_t>& order,
+                                      double best_single, const Descriptors& wanted, const Vectorizer& vectorizer,
+                                      const SubstituteSettings& settings) {
+  std::vector<SubstitutePair> pairs;
+  const std::size_t pool = std::min(settings.pair_pool, order.size());
+  for (std::size_t x = 0; x < pool; ++x) {
+    for (std::size_t y = x + 1; y < pool; ++y) {
+      const Candidate& a = candidates[order[x]];
+      const Candidate& b = candidates[order[y]];
+      if (a.variety == b.variety || !a.descriptors.has_aroma() || !b.descriptors.has_aroma()) continue;
+      const auto shares = two_hop_shares(a.descriptors.aroma, b.descriptors.aroma, wanted.aroma);
+      if (std::min(shares[0], shares[1]) < settings.min_pair_share) continue;  // one hop, really
+      const Descriptors mixed = blend_descriptors(a.descriptors, b.descriptors, shares[0]);
+      const double similarity = vectorizer.similarity(wanted, mixed).percent();
+      if (similarity < best_single + settings.min_pair_gain) continue;
+      pairs.push_back(
+          {{a.variety->name, b.variety->name}, {a.lot ? a.lot->lot : "", b.lot ? b.lot->lot : ""}, shares, similarity});
+    }
+  }
+  std::sort(pairs.begin(), pairs.end(), [](const SubstitutePair& p, const SubstitutePair& q) {
+    if (p.similarity != q.similarity) return p.similarity > q.similarity;
+    return std::tie(p.varieties, p.lots) < std::tie(q.varieties, q.lots);
+  });
+  return pairs;
+}
+
+}  // namespace
+
+SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings) {
+  const Variety& missing = require_variety(catalog, request.missing, "swap");
+  SwapResult result;
+  result.missing = missing;
+  result.purpose = request.purpose;
+  result.axes = lexicon.axis_names();
+  result.from_stock = request.stock != nullptr;
+  if (request.stock) {
+    result.stock_name = request.stock->name;
+    result.on = request.on;
+  }
+  // 1. Vectorise the catalog and index it.
+  const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);
+  const Descriptors wanted = vectorizer.describe(missing);
+  result.missing_aroma = wanted.aroma;
+  result.missing_source = wanted.aroma_source;
+  const IndexedCatalog indexed = index_catalog(catalog, vectorizer, settings);
+  result.index_kind = indexed.index.kind();
+  // 2. Which varieties may answer: all but the missing one, or those with lots on hand.
+  const Eligible eligible = eligible_varieties(catalog, missing, request, result.notes);
+  // 3. Ask the index for candidates, then re-score exactly (missing blocks handled per pair) and rank.
+  const std::vector<Candidate> candidates =
+      candidates_near(catalog, indexed, eligible, wanted, vectorizer, request, settings);
+  result.candidates = candidates.size();
+  std::vector<Substitute> ranked;
+  for (const auto& c : candidates)
+    ranked.push_back(make_substitute(c, wanted, missing, vectorizer, result.axes, settings));
+  const std::vector<std::size_t> order = ranking_order(ranked);
   for (std::size_t i = 0; i < order.size() && i < request.top; ++i) result.substitutes.push_back(ranked[order[i]]);
   if (!wanted.has_aroma())
     result.notes.push_back(fmt::format("{} has no aroma data: ranked on oils and chemistry only", missing.name));
-
-  // Pairs: convex two-hop fits among the best candidates.
-  if (request.pairs && !result.substitutes.empty()) {
-    if (!wanted.has_aroma()) {
-      result.notes.push_back("no pairs: the missing variety has no aroma data to fit");
-      return result;
-    }
-    const double best_single = ranked[order[0]].similarity;
-    const std::size_t pool = std::min(settings.pair_pool, order.size());
-    for (std::size_t x = 0; x < pool; ++x) {
-      for (std::size_t y = x + 1; y < pool; ++y) {
-        const Candidate& a = candidates[order[x]];
-        const Candidate& b = candidates[order[y]];
-        if (a.variety == b.variety || !a.descriptors.has_aroma() || !b.descriptors.has_aroma()) continue;
-        const auto shares = two_hop_shares(a.descriptors.aroma, b.descriptors.aroma, wanted.aroma);
-        if (std::min(shares[0], shares[1]) < settings.min_pair_share) continue;  // one hop, really
-        const Descriptors mixed = blend_descriptors(a.descriptors, b.descriptors, shares[0]);
-        const double similarity = vectorizer.similarity(wanted, mixed).percent();
-        if (similarity < best_single + settings.min_pair_gain) continue;
-        result.pairs.push_back({{a.variety->name, b.variety->name},
-                                {a.lot ? a.lot->lot : "", b.lot ? b.lot->lot : ""},
-                                shares,
-                                similarity});
-      }
-    }
-    std::sort(result.pairs.begin(), result.pairs.end(), [](const SubstitutePair& p, const SubstitutePair& q) {
-      if (p.similarity != q.similarity) return p.similarity > q.similarity;
-      return std::tie(p.varieties, p.lots) < std::tie(q.varieties, q.lots);
-    });
-    if (result.pairs.size() > request.top) result.pairs.resize(request.top);
-    if (result.pairs.empty())
-      result.notes.push_back(fmt::format("no two-variety blend beats the best single substitute by {:g} points or more",
-                                         settings.min_pair_gain));
+  // 4. Pairs: convex two-hop fits among the best candidates.
+  if (!request.pairs || result.substitutes.empty()) return result;
+  if (!wanted.has_aroma()) {
+    result.notes.push_back("no pairs: the missing variety has no aroma data to fit");
+    return result;
   }
+  result.pairs = fit_pairs(candidates, order, ranked[order[0]].similarity, wanted, vectorizer, settings);
+  if (result.pairs.size() > request.top) result.pairs.resize(request.top);
+  if (result.pairs.empty())
+    result.notes.push_back(fmt::format("no two-variety blend beats the best single substitute by {:g} points or more",
+                                       settings.min_pair_gain));
   return result;
 }
 
