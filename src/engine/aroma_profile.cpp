@@ -26,7 +26,7 @@ std::string_view to_string(AromaSource source) {
 }
 
 Eigen::VectorXd aroma_from_oils(const Variety& variety, const Lexicon& lexicon) {
-  // Typical shares (% of oil), midpoints of METHODS.md "Hop chemistry for data validation".
+  // Typical shares (% of oil), midpoints of docs/methods.md#hop-chemistry-bounds.
   static const std::map<std::string, double> typical{{"myrcene", 45.0},   {"humulene", 24.0}, {"caryophyllene", 9.0},
                                                      {"farnesene", 10.0}, {"linalool", 0.8},  {"geraniol", 0.5}};
   Eigen::VectorXd scores = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(lexicon.size()));

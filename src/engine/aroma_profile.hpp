@@ -29,7 +29,7 @@ struct AromaProfile {
 AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon);
 
 /// Coarse aroma estimate from oil composition: each compound's share is divided by its typical
-/// share (METHODS.md typical ranges, midpoints: myrcene 45, humulene 24, caryophyllene 9,
+/// share (docs/methods.md#hop-chemistry-bounds typical ranges, midpoints: myrcene 45, humulene 24, caryophyllene 9,
 /// farnesene 10, linalool 0.8, geraniol 0.5 % of oil), multiplied by the lexicon's axis weights for
 /// that compound, summed per axis, and scaled so the strongest axis is 3. Empty when no oils.
 Eigen::VectorXd aroma_from_oils(const Variety& variety, const Lexicon& lexicon);

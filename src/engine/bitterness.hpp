@@ -1,6 +1,6 @@
 #pragma once
 // Bitterness models (API shared by ibu, rebalance and blend). See bitterness.cpp for the essay and
-// sources (METHODS.md "Bitterness" and "Hop stand / whirlpool").
+// sources (docs/methods.md#bitterness and #below-boiling).
 #include <optional>
 #include <string>
 #include <string_view>

@@ -1,13 +1,13 @@
 // Rebalancing a recipe to new lots.
 //
-// Rules (DESIGN.md "rebalance"):
+// Rules (docs/methods.md#rebalance):
 //  * Boil and first-wort additions scale by the bitterness one gram delivers, so each holds its own
 //    IBU: grams_after = grams_before x (IBU per gram before) / (IBU per gram after). With the same
-//    form that is the alpha ratio, e.g. 30 g at 7.0 % -> 22.1 g at 9.5 % (METHODS.md check value);
+//    form that is the alpha ratio, e.g. 30 g at 7.0 % -> 22.1 g at 9.5 % (docs/methods.md#linearity);
 //    a change of form (whole <-> pellet) is included through the pellet factor.
 //  * Whirlpool and dry-hop additions hold the oil they deliver when both the oil the recipe was
 //    written for (the catalog midpoint of the variety's total oil) and the new lot's oil are known:
-//    grams_after = grams_before x oil_before / oil_after (dosing by oil, METHODS.md "Dry hopping").
+//    grams_after = grams_before x oil_before / oil_after (dosing by oil, docs/methods.md#oil-dosing).
 //    Otherwise they hold their grams.
 //  * Whirlpool additions change IBU when their alpha or grams change. The largest boil (or
 //    first-wort) addition absorbs that change so the total holds; IBU is linear in grams

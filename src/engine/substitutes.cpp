@@ -8,14 +8,14 @@
 //    is re-scored by Vectorizer::similarity, which handles missing blocks exactly, and the list is
 //    sorted by similarity, ties by name then lot code, so output is deterministic.
 // 4. The amount factor holds the job: aroma -> total oil ratio (oil delivered holds), bittering ->
-//    alpha ratio (IBU is linear in grams x alpha: METHODS.md "Linearity"). Lots use their own oil and
+//    alpha ratio (IBU is linear in grams x alpha: docs/methods.md#linearity). Lots use their own oil and
 //    their alpha aged to the brew day (storage_loss.hpp, Garetz 1994). Missing data give no factor;
 //    nothing is guessed.
 // 5. Pairs (--pairs): the best pair_pool substitutes are tried two at a time; the blend QP solver
 //    (blend_solver.hpp, K = 2, simplex only) finds the shares by weight whose blended aroma intensities
 //    are closest to the missing variety's. The blend's oil and chemistry descriptors are the
 //    share-weighted means of the two hops' standardised values (a linear first approximation; oil
-//    compounds interact, METHODS.md "Oil compounds and aroma"). Pairs are kept when their similarity
+//    compounds interact, docs/methods.md#linear-blend-limit). Pairs are kept when their similarity
 //    beats the best single substitute by min_pair_gain points and the smaller share is at least
 //    min_pair_share (a 96/4 "blend" is one hop with a pinch of another).
 #include "engine/substitutes.hpp"

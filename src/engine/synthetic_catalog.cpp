@@ -22,7 +22,7 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
   std::normal_distribution<double> noise(0.0, 1.0);
   const std::size_t axes = lexicon.size();
   const auto& compounds = oil_compounds();
-  // Typical ranges (METHODS.md "Hop chemistry for data validation"), % of oil.
+  // Typical ranges (docs/methods.md#hop-chemistry-bounds), % of oil.
   const std::vector<std::pair<double, double>> oil_ranges{{20, 70}, {8, 40}, {3, 15}, {0, 20}, {0.1, 1.5}, {0, 1}};
   auto between = [&](double lo, double hi) { return lo + (hi - lo) * unit(random); };
 

@@ -1,6 +1,6 @@
 #pragma once
 // Hard bounds that loaders enforce. Hop chemistry bounds are the "reject outside" values of
-// METHODS.md ("Hop chemistry for data validation"; ranges from memory and general literature).
+// docs/methods.md#hop-chemistry-bounds (ranges from memory and general literature).
 // Brewing bounds are common practice, wide enough for any real brewhouse.
 #include "io/json_fields.hpp"
 

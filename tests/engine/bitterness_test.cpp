@@ -1,4 +1,4 @@
-// Bitterness models against the published formulas and the check values of METHODS.md
+// Bitterness models against the published formulas and the check values of docs/methods.md
 // ("Check values", derived with double precision from the cited formulas).
 #include "engine/bitterness.hpp"
 
@@ -40,7 +40,7 @@ bine::WortContext wort(double gravity, double volume = 20.0) {
 
 }  // namespace
 
-TEST_CASE("Tinseth utilization matches the METHODS.md check values") {
+TEST_CASE("Tinseth utilization matches the docs/methods.md check values") {
   // Tinseth G., ca. 1997: B = 1.65 x 0.000125^(G-1), F = (1 - e^(-0.04 t)) / 4.15.
   CHECK(bine::tinseth_gravity_factor(1.050) == doctest::Approx(1.0528).epsilon(1e-4));
   CHECK(bine::tinseth_time_factor(60) == doctest::Approx(0.2191).epsilon(1e-3));
@@ -54,7 +54,7 @@ TEST_CASE("Tinseth utilization matches the METHODS.md check values") {
   CHECK(bine::tinseth_utilization(1.050, 0) == 0.0);
 }
 
-TEST_CASE("28 g whole cone at 10 % for 60 min in 20 L at 1.050 gives 32.3 IBU (Tinseth, METHODS.md)") {
+TEST_CASE("28 g whole cone at 10 % for 60 min in 20 L at 1.050 gives 32.3 IBU (Tinseth, docs/methods.md)") {
   const auto result = bine::addition_bitterness(boil(28, 60), 10.0, wort(1.050), {});
   // mg/L = 0.10 x 28 x 1000 / 20 = 140; 140 x 0.2307 = 32.3.
   CHECK(bine::alpha_mg_per_litre(28, 10, 20) == doctest::Approx(140.0));
@@ -62,12 +62,12 @@ TEST_CASE("28 g whole cone at 10 % for 60 min in 20 L at 1.050 gives 32.3 IBU (T
   CHECK(result.effective_minutes == 60.0);
 }
 
-TEST_CASE("1 oz per US gallon is 7489.15 mg/L of alpha at 100 % (derived, METHODS.md)") {
+TEST_CASE("1 oz per US gallon is 7489.15 mg/L of alpha at 100 % (derived, docs/methods.md)") {
   // 28.349523125 g x 1000 / 3.785411784 L = 7489.15 mg/L.
   CHECK(bine::alpha_mg_per_litre(28.349523125, 100.0, 3.785411784) == doctest::Approx(7489.15).epsilon(1e-6));
 }
 
-TEST_CASE("Rager gravity adjustment and tanh fit match METHODS.md") {
+TEST_CASE("Rager gravity adjustment and tanh fit match docs/methods.md") {
   // Rager 1990: GA = (G - 1.050) / 0.2 above 1.050.
   CHECK(bine::rager_gravity_adjustment(1.045) == 0.0);
   CHECK(bine::rager_gravity_adjustment(1.070) == doctest::Approx(0.100));
@@ -87,9 +87,9 @@ TEST_CASE("Rager IBU divides by 1 + GA") {
 }
 
 TEST_CASE("isomerisation rate and boil-equivalent minutes (Malowicki & Shellhammer 2005)") {
-  // k1 = 7.9e11 exp(-11858 / T): 0.01249 per min at 100 C (METHODS.md check value).
+  // k1 = 7.9e11 exp(-11858 / T): 0.01249 per min at 100 C (docs/methods.md check value).
   CHECK(bine::isomerization_rate(100) == doctest::Approx(0.01249).epsilon(1e-3));
-  // Ratios k1(T) / k1(100 C), METHODS.md (derived): 95 C 0.650 ... 70 C 0.062.
+  // Ratios k1(T) / k1(100 C), docs/methods.md (derived): 95 C 0.650 ... 70 C 0.062.
   CHECK(bine::relative_isomerization_rate(95) == doctest::Approx(0.650).epsilon(2e-3));
   CHECK(bine::relative_isomerization_rate(90) == doctest::Approx(0.417).epsilon(2e-3));
   CHECK(bine::relative_isomerization_rate(85) == doctest::Approx(0.264).epsilon(2e-3));
@@ -99,7 +99,7 @@ TEST_CASE("isomerisation rate and boil-equivalent minutes (Malowicki & Shellhamm
   CHECK(bine::relative_isomerization_rate(100) == doctest::Approx(1.0));
 }
 
-TEST_CASE("a 20 min stand at 80 C added at flame-out: t_eq 3.31 min, U 0.0314 (METHODS.md)") {
+TEST_CASE("a 20 min stand at 80 C added at flame-out: t_eq 3.31 min, U 0.0314 (docs/methods.md)") {
   const auto hop = whirlpool(100, 20, 80);
   const auto result = bine::addition_bitterness(hop, 10.0, wort(1.050), {});
   CHECK(result.effective_minutes == doctest::Approx(3.31).epsilon(2e-3));
@@ -166,7 +166,7 @@ TEST_CASE("first-wort counts the full boil, dry hops add nothing, a hop stand ex
 }
 
 TEST_CASE("BU:GU = IBU / gravity units, with the common-practice reading") {
-  // METHODS.md: 40 IBU at 1.050 -> 0.80.
+  // docs/methods.md: 40 IBU at 1.050 -> 0.80.
   CHECK(bine::bu_gu_ratio(40, 1.050) == doctest::Approx(0.80));
   CHECK(bine::bu_gu_reading(0.80) == "very bitter");
   CHECK(bine::bu_gu_reading(0.55) == "balanced");
@@ -192,7 +192,7 @@ TEST_CASE("recipe_bitterness sums additions, takes catalog midpoints and names m
   b.alpha_acid = 10.0;
   recipe.hops.push_back(b);
   const auto result = bine::recipe_bitterness(recipe, catalog, {});
-  // Two identical 32.3 IBU additions (METHODS.md check value) -> 64.6 IBU.
+  // Two identical 32.3 IBU additions (docs/methods.md check value) -> 64.6 IBU.
   CHECK(result.total_ibu == doctest::Approx(64.6).epsilon(1e-3));
   CHECK(result.additions[0].alpha_source == bine::AlphaSource::catalog_midpoint);
   CHECK(result.bu_gu == doctest::Approx(result.total_ibu / 50.0));

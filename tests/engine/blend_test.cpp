@@ -227,7 +227,7 @@ TEST_CASE("stock limits hold for the blend and the bittering lot") {
   CHECK_THROWS_AS(bine::design_blend(request), bine::Infeasible);
 }
 
-TEST_CASE("oil dose fixes the oil delivered: grams = dose / oil content (METHODS.md, derived)") {
+TEST_CASE("oil dose fixes the oil delivered: grams = dose / oil content (docs/methods.md, derived)") {
   // 1.5 mL/hL over 20 L = 0.3 mL of oil. One hop at 1.5 mL/100 g: 0.3 / 0.015 = 20 g.
   BlendRequest request = brew();
   request.amount_kind = bine::LateAmount::oil_ml;

@@ -1,5 +1,5 @@
 // Rebalancing recipes to new lots: the rules of rebalance.cpp checked by hand arithmetic and the
-// METHODS.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
+// docs/methods.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
 #include "engine/rebalance.hpp"
 
 #include <doctest/doctest.h>
@@ -68,7 +68,7 @@ TEST_CASE("a 60-minute addition rebalanced to a new lot holds its IBU (30 g at 7
     const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60)});
     const auto result = bine::rebalance(recipe, {lot("bitter", 9.5)}, test_catalog(), settings);
     REQUIRE(result.additions.size() == 1);
-    // METHODS.md check value: 30 x 7.0 / 9.5 = 22.105 g.
+    // docs/methods.md check value: 30 x 7.0 / 9.5 = 22.105 g.
     CHECK(result.additions[0].grams_after == doctest::Approx(22.105).epsilon(1e-4));
     CHECK(std::abs(result.additions[0].ibu_after - result.additions[0].ibu_before) < 0.01);
     CHECK(result.additions[0].rule == bine::RebalanceRule::holds_ibu);
@@ -165,7 +165,7 @@ TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future 
   CHECK(lots[0].lot_code == "B-big");
   CHECK(lots[0].lots_of_variety == 2);
   CHECK(lots[0].days == 365);
-  // METHODS.md: 6.0 % AA, PL 50 (catalog stability 50), vacuum, -18 C, 365 d -> 5.31 %.
+  // docs/methods.md: 6.0 % AA, PL 50 (catalog stability 50), vacuum, -18 C, 365 d -> 5.31 %.
   CHECK(lots[0].alpha_percent == doctest::Approx(5.31).epsilon(1e-3));
 
   try {

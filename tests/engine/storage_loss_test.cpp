@@ -1,4 +1,4 @@
-// Alpha-acid storage loss against Garetz (1994) and the check values of METHODS.md.
+// Alpha-acid storage loss against Garetz (1994) and the check values of docs/methods.md.
 #include "engine/storage_loss.hpp"
 
 #include <doctest/doctest.h>
@@ -13,7 +13,7 @@ bine::StorageHistory history(double alpha, double stability, double celsius, bin
 
 }  // namespace
 
-TEST_CASE("k = ln(100 / (100 - PL)) / 180: 0.003851 per day for PL 50 (Garetz 1994, METHODS.md)") {
+TEST_CASE("k = ln(100 / (100 - PL)) / 180: 0.003851 per day for PL 50 (Garetz 1994, docs/methods.md)") {
   CHECK(bine::loss_rate_per_day(50) == doctest::Approx(0.003851).epsilon(2e-4));
   CHECK(bine::loss_rate_per_day(0) == 0.0);
 }
@@ -28,7 +28,7 @@ TEST_CASE("temperature and package factors (Garetz 1994; SF values from memory)"
   CHECK(bine::package_factor(bine::Package::vacuum) == 0.5);
 }
 
-TEST_CASE("6.0 % AA, PL 50, vacuum, -18 C, 365 days leaves 5.31 % (88.6 %) (METHODS.md)") {
+TEST_CASE("6.0 % AA, PL 50, vacuum, -18 C, 365 days leaves 5.31 % (88.6 %) (docs/methods.md)") {
   const auto aged = bine::age_alpha(history(6.0, 50.0, -18.0, bine::Package::vacuum, 365));
   CHECK(aged.alpha_percent == doctest::Approx(5.31).epsilon(1e-3));
   CHECK(aged.remaining == doctest::Approx(0.886).epsilon(1e-3));

@@ -1,5 +1,5 @@
 // Substitute ranking: a renamed copy comes first, stock restriction, amount factors and pair shares by
-// hand arithmetic, aged lot alpha against the METHODS.md check value (Garetz 1994).
+// hand arithmetic, aged lot alpha against the docs/methods.md check value (Garetz 1994).
 #include "engine/substitutes.hpp"
 
 #include <doctest/doctest.h>
@@ -118,7 +118,7 @@ TEST_CASE("amount factors by hand") {
   auto bitter = bine::find_substitutes(catalog, data.lexicon, request);
   CHECK(factor_of(bitter, "Other") == doctest::Approx(0.5));
 
-  // From stock: a lot at 6.0 % alpha, PL 50, vacuum, -18 C, 365 days. METHODS.md check value
+  // From stock: a lot at 6.0 % alpha, PL 50, vacuum, -18 C, 365 days. docs/methods.md check value
   // (Garetz 1994): 5.31 % today. Factor 7.0 / 5.3145 = 1.3172 (hand: k = ln 2 / 180 = 0.0038508,
   // TF = 2^(-38/15) = 0.17263, SF 0.5, exp(-0.0038508 x 0.17263 x 0.5 x 365) = 0.88575).
   bine::Stock stock;

@@ -1,5 +1,5 @@
 // Validation rules of our file formats: one bad input per rule, each must be reported as
-// `FILE: /json/pointer: what is wrong (what is expected)`. Hard bounds are those of METHODS.md
+// `FILE: /json/pointer: what is wrong (what is expected)`. Hard bounds are those of docs/methods.md
 // ("Hop chemistry for data validation", from memory and general literature).
 #include "io/loaders.hpp"
 
@@ -100,7 +100,7 @@ TEST_CASE("wrong types say what was expected") {
 }
 
 TEST_CASE("hard bounds of hop chemistry are enforced") {
-  // Alpha acid: reject outside 0.5-22 % (METHODS.md).
+  // Alpha acid: reject outside 0.5-22 % (docs/methods.md).
   CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": "A", "alpha_acid": [5, 25]}]})"),
                      "/varieties/0/alpha_acid/1: 25% is outside the range for alpha acid (expected 0.5-22%)"));
   CHECK(any_line_has(catalog_errors(R"({"varieties": [{"name": "A", "beta_acid": [0.2, 4]}]})"), "beta acid"));
