@@ -14,8 +14,8 @@
 // Below boiling. Isomerisation slows as the wort cools. Malowicki & Shellhammer (2005, J. Agric.
 // Food Chem. 53:4434) measured the rate constant k1 = 7.9e11 exp(-11858 / T) per minute (T in K).
 // A stand of t minutes at T counts as t x k1(T) / k1(100 C) boil minutes ("boil-equivalent"), and
-// U = B(G) x (1 - e^(-0.04 (t_boil + t_eq))) / 4.15 (derived method, docs/methods.md#boil-equivalent-minutes). Whirlpool
-// additions have t_boil = 0; boil and first-wort additions add the recipe's hop_stand, if any.
+// U = B(G) x (1 - e^(-0.04 (t_boil + t_eq))) / 4.15 (derived method, docs/methods.md#boil-equivalent-minutes).
+// Whirlpool additions have t_boil = 0; boil and first-wort additions add the recipe's hop_stand, if any.
 //
 // Simplifications (say them to the brewer): the boil gravity is the recipe's original gravity; the
 // boil is at 100 C (no altitude correction); a stand is held at one temperature (real kettles cool,
