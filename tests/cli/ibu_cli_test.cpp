@@ -1,16 +1,16 @@
-// End-to-end: bine ibu and bine age on small fixture files; expected values are METHODS.md check
-// values or hand arithmetic written beside them.
+// End-to-end (in-process, run_in_process.hpp): bine ibu and bine age on small fixture files;
+// expected values are METHODS.md check values or hand arithmetic written beside them.
 #include <doctest/doctest.h>
 
 #include <nlohmann/json.hpp>
 
-#include "cli/command_output.hpp"
+#include "cli/run_in_process.hpp"
 
 using bine::test::fixture;
-using bine::test::run_command;
+using bine::test::run_cli;
 
 TEST_CASE("ibu --json: 28 g at 10 %, 60 min, 20 L, 1.050, whole -> 32.3 IBU (Tinseth, METHODS.md)") {
-  const auto result = run_command("ibu --json '" + fixture("h3-single-boil.json") + "'");
+  const auto result = run_cli({"ibu", "--json", fixture("h3-single-boil.json")});
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
@@ -29,7 +29,7 @@ TEST_CASE("ibu --json: 28 g at 10 %, 60 min, 20 L, 1.050, whole -> 32.3 IBU (Tin
 }
 
 TEST_CASE("ibu --model rager at 1.070: 0.3082 x 140 / 1.1 = 39.2 IBU (hand arithmetic)") {
-  const auto result = run_command("ibu --model rager --json '" + fixture("h3-rager.json") + "'");
+  const auto result = run_cli({"ibu", "--model", "rager", "--json", fixture("h3-rager.json")});
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
   CHECK(json["model"] == "rager");
@@ -38,7 +38,7 @@ TEST_CASE("ibu --model rager at 1.070: 0.3082 x 140 / 1.1 = 39.2 IBU (hand arith
 
 TEST_CASE("ibu text: table with units, hot-wort caution once, ends with the BU:GU reading") {
   // Whirlpool 100 g at 10 % in 20 L: 500 mg/L x U 0.0314 (METHODS.md, 20 min at 80 C) = 15.7 IBU.
-  const auto result = run_command("ibu '" + fixture("h3-whirlpool.json") + "'");
+  const auto result = run_cli({"ibu", fixture("h3-whirlpool.json")});
   REQUIRE(result.status == 0);
   CHECK(result.out.find("15.7 IBU") != std::string::npos);
   const auto first = result.out.find("Caution: whirlpool");
@@ -49,36 +49,36 @@ TEST_CASE("ibu text: table with units, hot-wort caution once, ends with the BU:G
   CHECK(tail.find("BU:GU 0.31, between sweet and balanced") != std::string::npos);
 }
 
-TEST_CASE("ibu --units us prints oz, gal and F; JSON stays canonical") {
-  const auto us = run_command("--units us ibu '" + fixture("h3-whirlpool.json") + "'");
+TEST_CASE("ibu --units us prints oz, gal and F, and JSON stays canonical") {
+  const auto us = run_cli({"--units", "us", "ibu", fixture("h3-whirlpool.json")});
   REQUIRE(us.status == 0);
   // 100 g = 3.53 oz; 20 L = 5.28 gal; 80 C = 176 F (hand conversions).
   CHECK(us.out.find("3.53 oz") != std::string::npos);
   CHECK(us.out.find("5.28 gal") != std::string::npos);
   CHECK(us.out.find("176 F") != std::string::npos);
-  const auto metric_json = run_command("ibu --json '" + fixture("h3-whirlpool.json") + "'");
-  const auto us_json = run_command("--units us ibu --json '" + fixture("h3-whirlpool.json") + "'");
+  const auto metric_json = run_cli({"ibu", "--json", fixture("h3-whirlpool.json")});
+  const auto us_json = run_cli({"--units", "us", "ibu", "--json", fixture("h3-whirlpool.json")});
   CHECK(metric_json.out == us_json.out);
 }
 
 TEST_CASE("ibu rejects bad recipes with one clear line and exit 2") {
-  const auto negative = run_command("ibu '" + fixture("h3-bad-negative.json") + "'");
+  const auto negative = run_cli({"ibu", fixture("h3-bad-negative.json")});
   CHECK(negative.status == 2);
   CHECK(negative.err.find("/hops/0/amount:") != std::string::npos);
-  const auto whirlpool = run_command("ibu '" + fixture("h3-bad-whirlpool.json") + "'");
+  const auto whirlpool = run_cli({"ibu", fixture("h3-bad-whirlpool.json")});
   CHECK(whirlpool.status == 2);
   CHECK(whirlpool.err.find("/hops/0/temperature: is missing") != std::string::npos);
-  const auto gravity = run_command("ibu '" + fixture("h3-bad-gravity.json") + "'");
+  const auto gravity = run_cli({"ibu", fixture("h3-bad-gravity.json")});
   CHECK(gravity.status == 2);
   CHECK(gravity.err.find("/original_gravity:") != std::string::npos);
-  const auto model = run_command("ibu --model guess '" + fixture("h3-single-boil.json") + "'");
+  const auto model = run_cli({"ibu", "--model", "guess", fixture("h3-single-boil.json")});
   CHECK(model.status == 2);
   CHECK(model.err.find("--model: \"guess\"") != std::string::npos);
 }
 
 TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (METHODS.md)") {
-  const auto result = run_command(
-      "age --alpha 6.0 --packaged 2025-12-01 --stored '-18 C,vacuum' --stability 50 --on 2026-12-01 --json");
+  const auto result = run_cli({"age", "--alpha", "6.0", "--packaged", "2025-12-01", "--stored", "-18 C,vacuum",
+                               "--stability", "50", "--on", "2026-12-01", "--json"});
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
@@ -89,9 +89,8 @@ TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (METHODS.
 
 TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catalog: 70 %)") {
   const auto result =
-      run_command("--catalog '" + fixture("h3-catalog.json") +
-                  "' age --alpha 10 --packaged 2026-01-01 --stored '68 F,open' --variety 'fixture aroma' "
-                  "--on 2026-06-30 --json");
+      run_cli({"--catalog", fixture("h3-catalog.json"), "age", "--alpha", "10", "--packaged", "2026-01-01", "--stored",
+               "68 F,open", "--variety", "fixture aroma", "--on", "2026-06-30", "--json"});
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
@@ -101,22 +100,23 @@ TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catal
 }
 
 TEST_CASE("age rejects a packaging date after --on, bad storage and missing stability, exit 2") {
-  const auto future =
-      run_command("age --alpha 6 --packaged 2026-12-02 --stored '-2 C,vacuum' --stability 50 --on 2026-12-01");
+  const auto future = run_cli({"age", "--alpha", "6", "--packaged", "2026-12-02", "--stored", "-2 C,vacuum",
+                               "--stability", "50", "--on", "2026-12-01"});
   CHECK(future.status == 2);
   CHECK(future.err.find("--packaged: 2026-12-02: after the date --on 2026-12-01") != std::string::npos);
-  const auto storage =
-      run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,jar' --stability 50 --on 2026-12-01");
+  const auto storage = run_cli({"age", "--alpha", "6", "--packaged", "2026-01-01", "--stored", "-2 C,jar",
+                                "--stability", "50", "--on", "2026-12-01"});
   CHECK(storage.status == 2);
   CHECK(storage.err.find("unknown package \"jar\"") != std::string::npos);
-  const auto none = run_command("age --alpha 6 --packaged 2026-01-01 --stored '-2 C,vacuum' --on 2026-12-01");
+  const auto none =
+      run_cli({"age", "--alpha", "6", "--packaged", "2026-01-01", "--stored", "-2 C,vacuum", "--on", "2026-12-01"});
   CHECK(none.status == 2);
   CHECK(none.err.find("expected exactly one") != std::string::npos);
 }
 
 TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the stand (METHODS.md)") {
   // t_boil 0 + t_eq 3.31 min -> U 0.0314 (METHODS.md); 140 mg/L x 0.0314 = 4.40 IBU.
-  const auto result = run_command("ibu --json '" + fixture("h3-hop-stand.json") + "'");
+  const auto result = run_cli({"ibu", "--json", fixture("h3-hop-stand.json")});
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);

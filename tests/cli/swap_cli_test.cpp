@@ -1,28 +1,31 @@
-// End-to-end: bine swap on the demo catalog and stock. Expected values come from the input files
-// (lot codes on hand) and from hand arithmetic, never from a previous run's output.
+// End-to-end (in-process, run_in_process.hpp): bine swap on the demo catalog and stock. Expected values come from the
+// input files (lot codes on hand) and from hand arithmetic, never from a previous run's output.
 #include <doctest/doctest.h>
 
+#include <filesystem>
 #include <fstream>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <set>
+#include <string>
 
-#include "cli/run_binary.hpp"
+#include "cli/run_in_process.hpp"
+#include "cli/temp_dir.hpp"
 
 namespace {
 
 namespace fs = std::filesystem;
-using bine::test::run_bine;
+using bine::test::run_cli;
 
-const std::string kData = std::string(BINE_TEST_DIR) + "/../descriptor-data";
+const std::string kData = BINE_SOURCE_DATA_DIR;
 const std::string kStock = kData + "/examples/stock.json";
 
 }  // namespace
 
 TEST_CASE("swap --json has the documented keys, values in range, and is deterministic") {
-  const auto first = run_bine({"swap", "Tidewell", "--pairs", "--json"});
-  REQUIRE(first.exited);
+  const auto first = run_cli({"swap", "Tidewell", "--pairs", "--json"});
   REQUIRE(first.status == 0);
-  const auto second = run_bine({"swap", "Tidewell", "--pairs", "--json"});
+  const auto second = run_cli({"swap", "Tidewell", "--pairs", "--json"});
   CHECK(first.out == second.out);
   const auto doc = nlohmann::json::parse(first.out);
   CHECK(doc.at("query").at("variety") == "Tidewell");
@@ -55,7 +58,7 @@ TEST_CASE("swap --stock lists only lots on hand, with alpha today below the cert
     for (const auto& lot : stock.at("lots"))
       if (lot.at("variety") != "Tidewell") certificate[lot.at("lot")] = lot.at("alpha_acid");
   }
-  const auto run = run_bine({"swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--top", "100", "--json"});
+  const auto run = run_cli({"swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--top", "100", "--json"});
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
   CHECK(doc.at("stock").at("on") == "2026-12-01");
@@ -71,7 +74,7 @@ TEST_CASE("swap --stock lists only lots on hand, with alpha today below the cert
   CHECK(seen.size() == certificate.size());
 }
 
-TEST_CASE("a renamed copy given with --catalog is the first substitute; bittering factor by hand") {
+TEST_CASE("a renamed copy given with --catalog is the first substitute, bittering factor by hand") {
   const bine::test::TempDir dir;
   const fs::path mine = dir.path() / "mine.json";
   {
@@ -84,7 +87,7 @@ TEST_CASE("a renamed copy given with --catalog is the first substitute; bitterin
     copy["name"] = "Keelstone Twin";
     std::ofstream(mine) << nlohmann::json{{"catalog", {{"name", "mine"}}}, {"varieties", {copy}}}.dump();
   }
-  const auto run = run_bine({"--catalog", mine.string(), "swap", "keelstone", "--for", "bittering", "--json"});
+  const auto run = run_cli({"--catalog", mine.string(), "swap", "keelstone", "--for", "bittering", "--json"});
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
   const auto& best = doc.at("substitutes")[0];
@@ -97,7 +100,7 @@ TEST_CASE("swap text honours --units us, and --html writes a page with charts") 
   const bine::test::TempDir dir;
   const fs::path html = dir.path() / "swap.html";
   const auto run =
-      run_bine({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--html", html.string()});
+      run_cli({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--html", html.string()});
   REQUIRE(run.status == 0);
   // Seawick SW-25-021 is "3 lb" and Warmstrand WS-25-040 "12 oz" on hand in the stock file.
   CHECK(run.out.find("3.00 lb") != std::string::npos);
@@ -110,14 +113,14 @@ TEST_CASE("swap text honours --units us, and --html writes a page with charts") 
 }
 
 TEST_CASE("swap rejects bad input with one clear line each and exit 2") {
-  auto run = run_bine({"swap", "Tidewel"});
+  auto run = run_cli({"swap", "Tidewel"});
   CHECK(run.status == 2);
   CHECK(run.err.find("Tidewell") != std::string::npos);  // did you mean
-  run = run_bine({"swap", "Tidewell", "--for", "flavour", "--top", "0"});
+  run = run_cli({"swap", "Tidewell", "--for", "flavour", "--top", "0"});
   CHECK(run.status == 2);
   CHECK(run.err.find("--for: \"flavour\"") != std::string::npos);
   CHECK(run.err.find("--top: 0") != std::string::npos);
-  run = run_bine({"swap", "Tidewell", "--stock", kStock, "--on", "2026-02-30"});
+  run = run_cli({"swap", "Tidewell", "--stock", kStock, "--on", "2026-02-30"});
   CHECK(run.status == 2);
   CHECK(run.err.find("--on") != std::string::npos);
 }
