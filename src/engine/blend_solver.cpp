@@ -38,6 +38,7 @@
 #include <cmath>
 #include <limits>
 #include <stdexcept>
+#include <utility>
 #include <vector>
 
 namespace bine {
@@ -71,6 +72,148 @@ KktVector solve_kkt(const KktMatrix& m, const KktVector& r) {
   return Eigen::CompleteOrthogonalDecomposition<KktMatrix>(m).solve(r);
 }
 
+/// The QP with its rows scaled for comparison, and the tolerance on multipliers and residuals.
+struct ScaledQp {
+  const BlendQp& qp;
+  Eigen::MatrixXd c;  // C, rows scaled to a largest entry of 1
+  Eigen::VectorXd d;
+  Eigen::VectorXd e;  // e, scaled likewise, when the QP has the equality
+  double e0 = 0.0;
+  int equalities = 1;  // sum(x) = 1, and e^T x = e0 when present
+  double dual_tolerance = 0.0;
+
+  Index n() const { return qp.hessian.rows(); }
+  Index m() const { return c.rows(); }
+};
+
+ScaledQp scaled(const BlendQp& qp) {
+  ScaledQp p{qp, qp.inequality, qp.inequality_bound, Eigen::VectorXd(), 0.0, qp.equality ? 2 : 1, 0.0};
+  normalise_rows(p.c, p.d);
+  if (qp.equality) {
+    p.e = *qp.equality;
+    p.e0 = qp.equality_bound;
+    const double scale = std::max(p.e.cwiseAbs().maxCoeff(), std::abs(p.e0));
+    if (scale > 0.0) {
+      p.e /= scale;
+      p.e0 /= scale;
+    }
+  }
+  p.dual_tolerance = kTolerance * (1.0 + qp.hessian.cwiseAbs().maxCoeff() + qp.linear.cwiseAbs().maxCoeff());
+  return p;
+}
+
+/// The bit sets first .. 2^count - 1 ordered by their number of members (stable).
+std::vector<unsigned> bit_sets_by_size(unsigned first, Index count, bool largest_first) {
+  std::vector<unsigned> sets;
+  for (unsigned s = first; s < (1u << count); ++s) sets.push_back(s);
+  std::stable_sort(sets.begin(), sets.end(), [largest_first](unsigned l, unsigned r) {
+    return largest_first ? std::popcount(l) > std::popcount(r) : std::popcount(l) < std::popcount(r);
+  });
+  return sets;
+}
+
+/// The indices below `count` whose bit is set.
+void members(unsigned bits, Index count, std::vector<Index>& out) {
+  out.clear();
+  for (Index i = 0; i < count; ++i)
+    if (bits & (1u << i)) out.push_back(i);
+}
+
+/// The KKT system of one support `vars` and set of active rows `rows` (see the essay).
+std::pair<KktMatrix, KktVector> kkt_system(const ScaledQp& p, const std::vector<Index>& vars,
+                                           const std::vector<Index>& rows) {
+  const BlendQp& qp = p.qp;
+  const auto k = static_cast<Index>(vars.size());
+  const Index q = p.equalities + static_cast<Index>(rows.size());
+  KktMatrix kkt = KktMatrix::Zero(k + q, k + q);
+  KktVector rhs(k + q);
+  for (Index i = 0; i < k; ++i) {
+    for (Index j = 0; j < k; ++j) kkt(i, j) = qp.hessian(vars[i], vars[j]);
+    rhs[i] = qp.linear[vars[i]];
+    Index row = k;
+    kkt(i, row) = kkt(row, i) = 1.0;  // sum(x) = 1
+    ++row;
+    if (qp.equality) {
+      kkt(i, row) = kkt(row, i) = p.e[vars[i]];
+      ++row;
+    }
+    for (const Index r : rows) {
+      kkt(i, row) = kkt(row, i) = p.c(r, vars[i]);
+      ++row;
+    }
+  }
+  Index row = k;
+  rhs[row++] = 1.0;
+  if (qp.equality) rhs[row++] = p.e0;
+  for (const Index r : rows) rhs[row++] = p.d[r];
+  return {kkt, rhs};
+}
+
+/// Primal feasibility of the whole problem.
+bool primal_feasible(const ScaledQp& p, const Eigen::VectorXd& x) {
+  if (x.minCoeff() < -kTolerance || std::abs(x.sum() - 1.0) > kTolerance) return false;
+  if (p.m() > 0 && ((p.c * x) - p.d).maxCoeff() > kTolerance) return false;
+  if (p.qp.equality && std::abs(p.e.dot(x) - p.e0) > kTolerance) return false;
+  return true;
+}
+
+/// Dual feasibility: active rows pull with l >= 0; zeroed shares must not want to grow.
+bool dual_feasible(const ScaledQp& p, const KktVector& z, const Eigen::VectorXd& x, unsigned support, Index k,
+                   const std::vector<Index>& rows) {
+  for (std::size_t a = 0; a < rows.size(); ++a)
+    if (!(z[k + p.equalities + static_cast<Index>(a)] >= -p.dual_tolerance)) return false;
+  const Index n = p.n();
+  if (k == n) return true;
+  Eigen::VectorXd gradient = p.qp.hessian * x - p.qp.linear + Eigen::VectorXd::Constant(n, z[k]);
+  if (p.qp.equality) gradient += z[k + 1] * p.e;
+  for (std::size_t a = 0; a < rows.size(); ++a)
+    gradient += z[k + p.equalities + static_cast<Index>(a)] * p.c.row(rows[a]).transpose();
+  for (Index i = 0; i < n; ++i)
+    if (!(support & (1u << i)) && !(gradient[i] >= -p.dual_tolerance)) return false;
+  return true;
+}
+
+/// Solves one active set's system and keeps a primal-feasible point of lower J in `best`. True when
+/// the point is a KKT point of the whole problem (optimal, so the search can stop).
+bool try_active_set(const ScaledQp& p, unsigned support, const std::vector<Index>& vars, const std::vector<Index>& rows,
+                    double& best_objective, BlendQpSolution& best) {
+  const auto [kkt, rhs] = kkt_system(p, vars, rows);
+  const KktVector z = solve_kkt(kkt, rhs);
+  ++best.systems_solved;
+  const bool solved = (kkt * z - rhs).cwiseAbs().maxCoeff() <= p.dual_tolerance * (1.0 + rhs.cwiseAbs().maxCoeff());
+  const auto k = static_cast<Index>(vars.size());
+  Eigen::VectorXd x = Eigen::VectorXd::Zero(p.n());
+  for (Index i = 0; i < k; ++i) x[vars[i]] = z[i];
+  if (!primal_feasible(p, x)) return false;
+  const double objective = blend_qp_objective(p.qp, x);
+  if (objective < best_objective) {
+    best_objective = objective;
+    best.feasible = true;
+    best.shares = x;
+    best.objective = objective;
+  }
+  return solved && dual_feasible(p, z, x, support, k, rows);
+}
+
+/// Visits supports from the largest down (an interior optimum is found by the first system) and,
+/// for each, sets of active rows from the smallest up; stops at a KKT point.
+void enumerate_active_sets(const ScaledQp& p, BlendQpSolution& best) {
+  const std::vector<unsigned> supports = bit_sets_by_size(1, p.n(), true);
+  const std::vector<unsigned> row_sets = bit_sets_by_size(0, p.m(), false);
+  double best_objective = std::numeric_limits<double>::infinity();
+  std::vector<Index> vars;
+  std::vector<Index> rows;
+  for (const unsigned support : supports) {
+    members(support, p.n(), vars);
+    const auto k = static_cast<Index>(vars.size());
+    for (const unsigned active : row_sets) {
+      if (std::popcount(active) + p.equalities > k) break;  // sorted by size: no larger set fits
+      members(active, p.m(), rows);
+      if (try_active_set(p, support, vars, rows, best_objective, best)) return;
+    }
+  }
+}
+
 }  // namespace
 
 BlendQp qp_from_least_squares(const Eigen::MatrixXd& a, const Eigen::VectorXd& b, const Eigen::VectorXd& w) {
@@ -93,105 +236,7 @@ BlendQpSolution solve_blend_qp(const BlendQp& qp) {
   const Index n = qp.hessian.rows();
   if (n == 0) return best;
   if (n > kMaxShares) throw std::invalid_argument("solve_blend_qp: more than 8 shares");
-  Eigen::MatrixXd c = qp.inequality;
-  Eigen::VectorXd d = qp.inequality_bound;
-  normalise_rows(c, d);
-  Eigen::VectorXd e;
-  double e0 = 0.0;
-  if (qp.equality) {
-    e = *qp.equality;
-    e0 = qp.equality_bound;
-    const double scale = std::max(e.cwiseAbs().maxCoeff(), std::abs(e0));
-    if (scale > 0.0) {
-      e /= scale;
-      e0 /= scale;
-    }
-  }
-  const Index m = c.rows();
-  const int equalities = qp.equality ? 2 : 1;
-  const double dual_tolerance = kTolerance * (1.0 + qp.hessian.cwiseAbs().maxCoeff() + qp.linear.cwiseAbs().maxCoeff());
-
-  // Supports from the largest down: an interior optimum is found by the first system.
-  std::vector<unsigned> supports;
-  for (unsigned s = 1; s < (1u << n); ++s) supports.push_back(s);
-  std::stable_sort(supports.begin(), supports.end(),
-                   [](unsigned l, unsigned r) { return std::popcount(l) > std::popcount(r); });
-  std::vector<unsigned> row_sets;
-  for (unsigned a = 0; a < (1u << m); ++a) row_sets.push_back(a);
-  std::stable_sort(row_sets.begin(), row_sets.end(),
-                   [](unsigned l, unsigned r) { return std::popcount(l) < std::popcount(r); });
-
-  double best_objective = std::numeric_limits<double>::infinity();
-  std::vector<Index> vars;
-  std::vector<Index> rows;
-  // Returns when a KKT point is found; otherwise visits every active set.
-  const auto search = [&] {
-    for (const unsigned support : supports) {
-      vars.clear();
-      for (Index i = 0; i < n; ++i)
-        if (support & (1u << i)) vars.push_back(i);
-      const auto k = static_cast<Index>(vars.size());
-      for (const unsigned active : row_sets) {
-        if (std::popcount(active) + equalities > k) break;  // sorted by size: no larger set fits
-        rows.clear();
-        for (Index r = 0; r < m; ++r)
-          if (active & (1u << r)) rows.push_back(r);
-        const Index q = equalities + static_cast<Index>(rows.size());
-        KktMatrix kkt = KktMatrix::Zero(k + q, k + q);
-        KktVector rhs(k + q);
-        for (Index i = 0; i < k; ++i) {
-          for (Index j = 0; j < k; ++j) kkt(i, j) = qp.hessian(vars[i], vars[j]);
-          rhs[i] = qp.linear[vars[i]];
-          Index row = k;
-          kkt(i, row) = kkt(row, i) = 1.0;  // sum(x) = 1
-          ++row;
-          if (qp.equality) {
-            kkt(i, row) = kkt(row, i) = e[vars[i]];
-            ++row;
-          }
-          for (const Index r : rows) {
-            kkt(i, row) = kkt(row, i) = c(r, vars[i]);
-            ++row;
-          }
-        }
-        Index row = k;
-        rhs[row++] = 1.0;
-        if (qp.equality) rhs[row++] = e0;
-        for (const Index r : rows) rhs[row++] = d[r];
-        const KktVector z = solve_kkt(kkt, rhs);
-        ++best.systems_solved;
-        const bool solved = (kkt * z - rhs).cwiseAbs().maxCoeff() <= dual_tolerance * (1.0 + rhs.cwiseAbs().maxCoeff());
-
-        Eigen::VectorXd x = Eigen::VectorXd::Zero(n);
-        for (Index i = 0; i < k; ++i) x[vars[i]] = z[i];
-        // Primal feasibility of the whole problem.
-        if (x.minCoeff() < -kTolerance || std::abs(x.sum() - 1.0) > kTolerance) continue;
-        if (m > 0 && ((c * x) - d).maxCoeff() > kTolerance) continue;
-        if (qp.equality && std::abs(e.dot(x) - e0) > kTolerance) continue;
-        const double objective = blend_qp_objective(qp, x);
-        if (objective < best_objective) {
-          best_objective = objective;
-          best.feasible = true;
-          best.shares = x;
-          best.objective = objective;
-        }
-        // Dual feasibility: active rows pull with l >= 0; zeroed shares must not want to grow.
-        bool dual_ok = solved;
-        for (std::size_t a = 0; a < rows.size() && dual_ok; ++a)
-          dual_ok = z[k + equalities + static_cast<Index>(a)] >= -dual_tolerance;
-        if (dual_ok && k < n) {
-          Eigen::VectorXd gradient = qp.hessian * x - qp.linear + Eigen::VectorXd::Constant(n, z[k]);
-          if (qp.equality) gradient += z[k + 1] * e;
-          for (std::size_t a = 0; a < rows.size(); ++a)
-            gradient += z[k + equalities + static_cast<Index>(a)] * c.row(rows[a]).transpose();
-          for (Index i = 0; i < n && dual_ok; ++i)
-            if (!(support & (1u << i))) dual_ok = gradient[i] >= -dual_tolerance;
-        }
-        if (dual_ok) return;  // a KKT point of a convex problem: optimal
-      }
-    }
-  };
-  search();
+  enumerate_active_sets(scaled(qp), best);
   if (best.feasible) {
     best.shares = best.shares.cwiseMax(0.0);
     best.shares /= best.shares.sum();
