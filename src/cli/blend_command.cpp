@@ -46,10 +46,8 @@ struct BlendArgs {
   std::string recipe;
   std::string stock;
   std::size_t max_varieties = 3;
-  std::optional<double> rate_g_per_l;
-  std::optional<double> oil_dose_ml_per_hl;
   double others = 0.25;
-  BlendChoices choices;
+  BlendChoices choices;  // IBU, bittering, split, late-hop dose, wort without a recipe
   bool json = false;
   std::string html;
   std::string write;
@@ -71,6 +69,16 @@ void check_conflicts(OptionReader& reader, const BlendOptions& o) {
   }
 }
 
+/// --oil-dose in mL/hL, else --rate in g/L, else the plan's default rate.
+LateDose read_dose(OptionReader& reader, const BlendOptions& o) {
+  LateDose dose;
+  if (auto rate = reader.optional_quantity("--rate", o.rate, Dimension::hop_rate, limits::late_hop_rate))
+    dose = {LateDose::Kind::grams_per_litre, *rate};
+  if (auto oil = reader.optional_quantity("--oil-dose", o.oil_dose, Dimension::oil_dose, limits::oil_dose))
+    dose = {LateDose::Kind::oil_ml_per_hl, *oil};
+  return dose;
+}
+
 BlendArgs parse_blend_args(const BlendOptions& o) {
   OptionReader reader;
   check_conflicts(reader, o);
@@ -83,16 +91,15 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.html = o.html;
   args.write = o.write;
   if (auto k = reader.count("--max-varieties", o.max_varieties, limits::blend_varieties, 3)) args.max_varieties = *k;
-  args.rate_g_per_l = reader.optional_quantity("--rate", o.rate, Dimension::hop_rate, limits::late_hop_rate);
-  args.oil_dose_ml_per_hl = reader.optional_quantity("--oil-dose", o.oil_dose, Dimension::oil_dose, limits::oil_dose);
+  BlendChoices& choices = args.choices;
+  choices.dose = read_dose(reader, o);
   if (auto others = reader.optional_quantity("--others", o.others, Dimension::number, limits::axis_weight))
     args.others = *others;
-  BlendChoices& choices = args.choices;
   choices.split = reader.optional_quantity("--split", o.split, Dimension::number, limits::share);
   choices.ibu = reader.optional_quantity("--ibu", o.ibu, Dimension::number, limits::target_ibu);
   choices.volume_l = reader.optional_quantity("--volume", o.volume, Dimension::volume, limits::batch_volume);
   choices.gravity = reader.optional_quantity("--gravity", o.gravity, Dimension::gravity, limits::gravity);
-  choices.bittering_variety = o.bittering;
+  choices.bittering = {o.bittering, "--bittering"};
   choices.no_bittering = o.no_bittering;
   reader.throw_if_any();
   return args;
@@ -103,7 +110,7 @@ BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
     const Variety& variety = require_variety(data.catalog, o.like, "--like");
     const AromaProfile profile = aroma_profile(variety, data.lexicon);
     if (profile.source == AromaSource::none)
-      throw Infeasible(fmt::format("{} has no aroma data to aim at (give --target instead)", variety.name));
+      throw Infeasible(fmt::format("{} has no aroma data to aim at", variety.name), {Remedy::aim_by_target});
     return target_like(profile.intensity);
   }
   std::vector<bool> named;
@@ -111,53 +118,47 @@ BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
   return target_from_spec(intensity, named, o.others);
 }
 
-void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& options) {
+/// The notes under the blend: what the options changed, what was left out, what was searched.
+std::vector<std::string> blend_notes(const BlendArgs& args, const BlendRequest& request,
+                                     const std::vector<std::string>& candidate_notes, const BlendResult& result) {
+  std::vector<std::string> notes;
+  if (args.choices.no_bittering && !request.plan.kept.empty())
+    notes.push_back("--no-bittering: every boil addition is kept as written");
+  notes.insert(notes.end(), candidate_notes.begin(), candidate_notes.end());
+  notes.push_back(fmt::format("searched {} subsets of a pool of {} candidates (of {})", result.subsets_solved,
+                              result.pool_size, request.candidates.size()));
+  return notes;
+}
+
+void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& args) {
   const UnitSystem units = globals.unit_system();
   // 1. Load the catalogs, the stock and the recipe.
   const DataSet data = load_data(globals, console);
-  const std::optional<Stock> stock = options.stock.empty() ? std::nullopt : std::optional(load_stock(options.stock));
-  const std::optional<Recipe> recipe =
-      options.recipe.empty() ? std::nullopt : std::optional(load_recipe(options.recipe));
-  // 2. The target, the candidates, and what the recipe keeps.
+  const std::optional<Stock> stock = args.stock.empty() ? std::nullopt : std::optional(load_stock(args.stock));
+  const std::optional<Recipe> recipe = args.recipe.empty() ? std::nullopt : std::optional(load_recipe(args.recipe));
+  // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
-  request.target = target_from(options, data);
-  CandidateSet candidates = blend_candidates(data.catalog, data.lexicon, stock ? &*stock : nullptr, options.like);
+  request.target = target_from(args, data);
+  CandidateSet candidates = blend_candidates(data.catalog, data.lexicon, stock ? &*stock : nullptr, args.like);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
-  const BlendPlan plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr,
-                                    options.choices, request.bitterness);
+  request.plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr, args.choices,
+                            BitternessSettings{});
   request.candidates = std::move(candidates.candidates);
-  request.max_varieties = options.max_varieties;
-  request.wort = plan.wort;
-  request.target_ibu = plan.target_ibu;
-  request.kept_ibu = plan.kept_ibu;
-  request.bittering = plan.bittering;
-  request.whirlpool_share = plan.whirlpool_share;
-  request.whirlpool_temperature_c = plan.whirlpool_temperature_c;
-  request.whirlpool_minutes = plan.whirlpool_minutes;
-  // Amount: --oil-dose mL/hL x hL, else --rate g/L (default 4) x L.
-  if (options.oil_dose_ml_per_hl) {
-    request.amount_kind = LateAmount::oil_ml;
-    request.amount = *options.oil_dose_ml_per_hl * plan.wort.volume_l / 100.0;
-  } else {
-    request.amount = options.rate_g_per_l.value_or(4.0) * plan.wort.volume_l;
-  }
+  request.max_varieties = args.max_varieties;
   // 3. Solve: choose the pool, solve every subset, hold IBU.
   const BlendResult result = [&] {
     const auto timer = console.time("blend search");
     return design_blend(request);
   }();
   // 4. Render and write.
-  BlendReportContext context{&data.lexicon, &plan, recipe ? recipe->name : std::string(), stock.has_value(),
-                             plan.notes};
-  context.notes.insert(context.notes.end(), candidates.notes.begin(), candidates.notes.end());
-  context.notes.push_back(fmt::format("searched {} subsets of a pool of {} candidates (of {})", result.subsets_solved,
-                                      result.pool_size, request.candidates.size()));
-  if (!options.html.empty()) write_file_atomically(options.html, blend_to_html(result, context, units));
-  if (!options.write.empty() && recipe)
-    write_file_atomically(options.write, recipe_to_json(blended_recipe(*recipe, plan, result)).dump(2) + "\n");
+  const BlendReportContext context{&data.lexicon, &request, recipe ? recipe->name : std::string(), stock.has_value(),
+                                   blend_notes(args, request, candidates.notes, result)};
+  if (!args.html.empty()) write_file_atomically(args.html, blend_to_html(result, context, units));
+  if (!args.write.empty() && recipe)
+    write_file_atomically(args.write, recipe_to_json(blended_recipe(*recipe, request.plan, result)).dump(2) + "\n");
   print_result(
-      console, options.json, [&] { return blend_to_json(result, context); },
+      console, args.json, [&] { return blend_to_json(result, context); },
       [&](std::ostream& out) { render_blend_text(out, result, context, units); });
 }
 

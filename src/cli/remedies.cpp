@@ -34,6 +34,16 @@ std::string_view remedy_text(Remedy remedy) {
       return "give --target instead";
     case Remedy::give_late_amount:
       return "give --rate or --oil-dose above 0";
+    case Remedy::add_alpha_acid:
+      return "add its alpha acid to the catalog or stock";
+    case Remedy::add_aroma_stock:
+      return "add stock with aroma varieties";
+    case Remedy::add_aroma_catalog:
+      return "add a catalog with aroma data using --catalog FILE";
+    case Remedy::trim_kept_additions:
+      return "trim the recipe's other boil additions";
+    case Remedy::bittering_with_alpha:
+      return "give --bittering with a variety that has alpha acid data";
   }
   return "";
 }

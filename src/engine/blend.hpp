@@ -1,6 +1,7 @@
 #pragma once
 // Designing late hops (whirlpool + dry hop) to a target aroma while holding total IBU.
-// See blend.cpp for the model, the constraints as linear rows in the oil shares, and pool choice.
+// See blend.cpp for the model, the constraints as linear rows in the oil shares, and pool choice
+// (docs/methods.md#blend).
 #include <Eigen/Dense>
 #include <cstddef>
 #include <optional>
@@ -9,6 +10,7 @@
 #include <vector>
 
 #include "engine/bitterness.hpp"
+#include "engine/blend_plan.hpp"
 #include "model/hops.hpp"
 #include "model/lexicon.hpp"
 
@@ -34,7 +36,8 @@ struct CandidateSet {
 
 /// Catalog mode (stock == nullptr): every variety with aroma data whose purpose is not bittering-
 /// only. Stock mode: every lot with grams on hand whose variety the catalog knows. `exclude` names a
-/// variety to leave out (--like). Varieties without oil data are skipped and noted.
+/// variety to leave out (the one the target imitates). Varieties without oil data are skipped and
+/// noted.
 CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
                               std::string_view exclude);
 
@@ -42,27 +45,13 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
 struct BlendTarget {
   Eigen::VectorXd intensity;
   Eigen::VectorXd weight;
-  std::vector<bool> named;  // axes the target names (--target) or all axes (--like)
+  std::vector<bool> named;  // axes an aroma spec names, or all axes for a variety's profile
 };
 
-/// --target: named axes weigh 1, the others `others_weight` with target 0.
+/// An aroma spec: named axes weigh 1, the others `others_weight` with target 0.
 BlendTarget target_from_spec(const Eigen::VectorXd& intensity, const std::vector<bool>& named, double others_weight);
-/// --like: a variety's profile, every axis weight 1.
+/// A variety's profile, every axis weight 1.
 BlendTarget target_like(const Eigen::VectorXd& profile);
-
-/// The boil addition re-solved to hold total IBU.
-struct BitteringHop {
-  std::string variety;
-  std::string lot;
-  double alpha_percent = 0.0;
-  HopForm form = HopForm::pellet;
-  double minutes = 60.0;
-  std::optional<HopUse> use;        // boil (default) or first-wort
-  std::optional<double> on_hand_g;  // when the lot is in --stock
-};
-
-/// How the total late amount is fixed.
-enum class LateAmount { grams, oil_ml };
 
 /// How many candidates feed the subset search.
 struct PoolSettings {
@@ -76,16 +65,7 @@ struct BlendRequest {
   BlendTarget target;
   std::vector<BlendCandidate> candidates;
   std::size_t max_varieties = 3;
-  LateAmount amount_kind = LateAmount::grams;
-  double amount = 0.0;           // total late grams, or total mL of oil
-  double whirlpool_share = 0.3;  // of each variety's late grams; the rest is dry hop
-  double whirlpool_temperature_c = 80.0;
-  double whirlpool_minutes = 20.0;
-  WortContext wort;
-  BitternessSettings bitterness;
-  double target_ibu = 0.0;
-  double kept_ibu = 0.0;                  // boil additions kept as they are
-  std::optional<BitteringHop> bittering;  // nullopt: --no-bittering, late IBU must equal the rest
+  BlendPlan plan;  // wort, IBU budget, bittering charge, whirlpool stand, late-hop amount
   PoolSettings pool;
 };
 
@@ -103,22 +83,19 @@ struct BlendPart {
   std::optional<double> left_g;  // stock left after the blend (and bittering charge)
 };
 
+/// What the search chose and what follows from it; the target and the plan stay in the request.
 struct BlendResult {
-  Eigen::VectorXd target;
-  Eigen::VectorXd weight;
   Eigen::VectorXd profile;       // P = sum x_i s_i
   double objective = 0.0;        // J
   double fit = 0.0;              // sqrt(J / sum w), axis units
   std::vector<BlendPart> parts;  // by descending oil share
   double late_grams = 0.0;
-  double oil_ml = 0.0;  // oil delivered by the late hops
+  double whirlpool_grams = 0.0;  // the whirlpool share of late_grams
+  double oil_ml = 0.0;           // oil delivered by the late hops
   double late_ibu = 0.0;
-  double kept_ibu = 0.0;
-  std::optional<BitteringHop> bittering;
-  double bittering_grams = 0.0;
+  double bittering_grams = 0.0;  // of the plan's bittering hop
   double bittering_ibu = 0.0;
   std::optional<double> bittering_left_g;
-  double target_ibu = 0.0;
   double total_ibu = 0.0;
   std::size_t pool_size = 0;
   std::size_t subsets_solved = 0;
@@ -128,9 +105,9 @@ struct BlendResult {
 /// and what would make it feasible.
 BlendResult design_blend(const BlendRequest& request);
 
-/// IBU from one gram of a candidate in the whirlpool (linear in grams, bitterness engine).
-double whirlpool_ibu_per_gram(const BlendCandidate& candidate, const BlendRequest& request);
+/// IBU from one gram of a candidate in the plan's whirlpool (linear in grams, bitterness engine).
+double whirlpool_ibu_per_gram(const BlendCandidate& candidate, const BlendPlan& plan);
 /// IBU from one gram of the bittering hop.
-double bittering_ibu_per_gram(const BitteringHop& hop, const BlendRequest& request);
+double bittering_ibu_per_gram(const BitteringHop& hop, const BlendPlan& plan);
 
 }  // namespace bine

@@ -1,15 +1,18 @@
-// Reading a recipe for a blend. The late additions (whirlpool and dry hop) are replaced by the
-// blend; the boil addition with the most IBU is the bittering charge, re-solved to hold total IBU
-// (or the variety given with --bittering at the same time); every other boil or first-wort addition
-// is kept as it is. The whirlpool share of the late grams is the recipe's (whirlpool grams over all
-// late grams) unless --split gives it, else 0.3; the whirlpool temperature and time are the recipe's
-// first whirlpool addition's, else 80 C for 20 min (our defaults, a common hop-stand practice).
+// Reading a recipe for a blend (docs/methods.md#bittering-charge). The late additions (whirlpool and
+// dry hop) are replaced by the blend; the boil addition with the most IBU is the bittering charge,
+// re-solved to hold total IBU (or a variety the brewer names, at the same time); every other boil or
+// first-wort addition is kept as it is. The whirlpool share of the late grams is the brewer's, else
+// the recipe's (whirlpool grams over all late grams), else 0.3; the whirlpool temperature and time
+// are the recipe's first whirlpool addition's, else 80 C for 20 min (our defaults, a common
+// hop-stand practice). The late-hop amount is the dose times the wort volume
+// (docs/methods.md#blend-amounts).
 #include "engine/blend_plan.hpp"
 
 #include <fmt/format.h>
 
 #include <algorithm>
 
+#include "engine/blend.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -25,9 +28,9 @@ const Lot* lot_for(const HopAddition& hop, const Stock* stock) {
   return nullptr;
 }
 
-BitteringHop bittering_from(const std::string& variety, const Catalog& catalog, const Stock* stock, double minutes,
-                            std::string_view where) {
-  const Variety& known = require_variety(catalog, variety, where);
+/// The charge from a variety the brewer named: its first lot on hand, else the catalog's values.
+BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, const Stock* stock, double minutes) {
+  const Variety& known = require_variety(catalog, named.name, named.named_by);
   HopAddition probe;
   probe.variety = known.name;
   BitteringHop hop;
@@ -40,12 +43,151 @@ BitteringHop bittering_from(const std::string& variety, const Catalog& catalog, 
   }
   const auto alpha = addition_alpha(probe, catalog, stock);
   if (!alpha)
-    throw InputError(fmt::format("{}: {}: no alpha acid known (add it to the catalog or stock)", where, known.name));
+    throw InputError(fmt::format("{}: {}: no alpha acid known", named.named_by, known.name), {Remedy::add_alpha_acid});
   hop.alpha_percent = *alpha;
   return hop;
 }
 
+/// The charge from the recipe's own addition, with its lot's amount on hand when it is in stock.
+BitteringHop bittering_as_written(const Recipe& recipe, std::size_t index, const Catalog& catalog, const Stock* stock) {
+  const HopAddition& hop = recipe.hops[index];
+  BitteringHop bittering;
+  bittering.variety = hop.variety;
+  bittering.lot = hop.lot;
+  bittering.alpha_percent = *addition_alpha(hop, catalog, stock);
+  bittering.form = hop.form.value_or(HopForm::pellet);
+  bittering.minutes = hop.minutes.value_or(recipe.boil_minutes);
+  bittering.use = hop.use;
+  if (const Lot* lot = lot_for(hop, stock)) {
+    bittering.lot = lot->lot;
+    bittering.on_hand_g = lot->on_hand_g;
+  }
+  return bittering;
+}
+
+/// The recipe's additions as written: the IBU of each (0 for dry hops) and their late grams.
+struct RecipeAsWritten {
+  std::vector<double> ibu;
+  double total_ibu = 0.0;
+  double whirlpool_g = 0.0;
+  double dry_hop_g = 0.0;
+};
+
+/// Computes every addition's IBU; takes the whirlpool stand and dry-hop time into `plan`. Throws
+/// InputError listing every addition whose alpha acid is not known.
+RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, const Stock* stock, BlendPlan& plan) {
+  RecipeAsWritten written;
+  written.ibu.assign(recipe.hops.size(), 0.0);
+  bool have_whirlpool = false;
+  std::vector<std::string> problems;
+  for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
+    const HopAddition& hop = recipe.hops[i];
+    if (hop.use == HopUse::dry_hop) {
+      written.dry_hop_g += hop.grams;
+      if (!plan.dry_hop_minutes) plan.dry_hop_minutes = hop.minutes;
+      continue;
+    }
+    const auto alpha = addition_alpha(hop, catalog, stock);
+    if (!alpha) {
+      problems.push_back(fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)",
+                                     recipe.source_file, i, hop.variety));
+      continue;
+    }
+    written.ibu[i] = addition_bitterness(hop, *alpha, plan.wort, plan.bitterness).ibu;
+    written.total_ibu += written.ibu[i];
+    if (hop.use == HopUse::whirlpool) {
+      written.whirlpool_g += hop.grams;
+      if (!have_whirlpool) {
+        have_whirlpool = true;
+        if (hop.temperature_c) plan.whirlpool_temperature_c = *hop.temperature_c;
+        if (hop.minutes) plan.whirlpool_minutes = *hop.minutes;
+      }
+    }
+  }
+  if (!problems.empty()) throw InputError(problems);
+  return written;
+}
+
+/// The IBU to hold (the brewer's, else the recipe's target, else its current total) and the whirlpool
+/// share (the brewer's, else the recipe's). Kept IBU is added once the charge is known.
+IbuBudget recipe_budget(const Recipe& recipe, const BlendChoices& choices, const RecipeAsWritten& written) {
+  IbuBudget budget;
+  if (choices.ibu) {
+    budget.target_ibu = *choices.ibu;
+    budget.target_source = IbuTargetSource::given;
+  } else if (recipe.target_ibu) {
+    budget.target_ibu = *recipe.target_ibu;
+    budget.target_source = IbuTargetSource::recipe_target;
+  } else {
+    budget.target_ibu = written.total_ibu;
+    budget.target_source = IbuTargetSource::recipe_total;
+  }
+  const double late_g = written.whirlpool_g + written.dry_hop_g;
+  if (choices.split)
+    budget.whirlpool_share = *choices.split;
+  else if (late_g > 0.0)
+    budget.whirlpool_share = written.whirlpool_g / late_g;
+  return budget;
+}
+
+/// The boil or first-wort addition with the most IBU (the first of equals), if any.
+std::optional<std::size_t> largest_boil_addition(const Recipe& recipe, const std::vector<double>& ibu) {
+  std::optional<std::size_t> largest;
+  for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
+    const HopUse use = recipe.hops[i].use;
+    if (use != HopUse::boil && use != HopUse::first_wort) continue;
+    if (!largest || ibu[i] > ibu[*largest]) largest = i;
+  }
+  return largest;
+}
+
+/// The bittering charge for a recipe: the named variety at the largest addition's time, else that
+/// addition itself. Throws InputError when there is neither.
+BitteringHop recipe_bittering(const Recipe& recipe, std::optional<std::size_t> largest, const Catalog& catalog,
+                              const Stock* stock, const BlendChoices& choices) {
+  if (!choices.bittering.name.empty()) {
+    const double minutes =
+        largest && recipe.hops[*largest].minutes ? *recipe.hops[*largest].minutes : recipe.boil_minutes;
+    return bittering_from(choices.bittering, catalog, stock, minutes);
+  }
+  if (largest) return bittering_as_written(recipe, *largest, catalog, stock);
+  throw InputError(fmt::format("{}: /hops: no boil addition to use as the bittering charge", recipe.source_file),
+                   {Remedy::name_bittering_variety, Remedy::no_bittering});
+}
+
+/// Every boil and first-wort addition but the charge is kept, with its IBU.
+void keep_boil_additions(const Recipe& recipe, const std::vector<double>& ibu, BlendPlan& plan) {
+  for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
+    const HopUse use = recipe.hops[i].use;
+    if ((use == HopUse::boil || use == HopUse::first_wort) && plan.bittering_index != i) {
+      plan.kept.push_back(i);
+      plan.ibu.kept_ibu += ibu[i];
+    }
+  }
+}
+
+/// Without a recipe: the wort and the IBU as the brewer gave them, a 60-minute boil.
+BlendPlan plan_without_recipe(const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
+                              const BitternessSettings& settings) {
+  BlendPlan plan;
+  plan.bitterness = settings;
+  plan.wort.volume_l = choices.volume_l.value_or(0.0);
+  plan.wort.gravity = choices.gravity.value_or(1.050);
+  plan.wort.boil_minutes = 60.0;
+  plan.ibu.target_ibu = choices.ibu.value_or(0.0);
+  plan.ibu.target_source = IbuTargetSource::given;
+  if (choices.split) plan.ibu.whirlpool_share = *choices.split;
+  plan.late = late_amount(choices.dose, plan.wort.volume_l);
+  if (!choices.no_bittering) plan.bittering = bittering_from(choices.bittering, catalog, stock, 60.0);
+  return plan;
+}
+
 }  // namespace
+
+LateAmount late_amount(const LateDose& dose, double volume_l) {
+  if (dose.kind == LateDose::Kind::oil_ml_per_hl) return {LateAmount::Kind::oil_ml, dose.value * volume_l / 100.0};
+  return {LateAmount::Kind::grams, dose.value * volume_l};
+}
 
 std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Stock* stock) {
   if (hop.alpha_acid) return hop.alpha_acid;
@@ -57,138 +199,48 @@ std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& cata
 
 BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
                      const BitternessSettings& settings) {
+  if (recipe == nullptr) return plan_without_recipe(catalog, stock, choices, settings);
   BlendPlan plan;
-  if (recipe == nullptr) {
-    plan.wort.volume_l = choices.volume_l.value_or(0.0);
-    plan.wort.gravity = choices.gravity.value_or(1.050);
-    plan.wort.boil_minutes = 60.0;
-    plan.target_ibu = choices.ibu.value_or(0.0);
-    plan.target_ibu_source = "--ibu";
-    if (!choices.no_bittering)
-      plan.bittering = bittering_from(choices.bittering_variety, catalog, stock, 60.0, "--bittering");
-    if (choices.split) plan.whirlpool_share = *choices.split;
-    return plan;
-  }
+  plan.bitterness = settings;
   plan.wort = wort_of(*recipe);
-  const std::string& file = recipe->source_file;
-  // IBU of every addition as written, to find the bittering charge and the current total.
-  std::vector<double> ibu(recipe->hops.size(), 0.0);
-  double whirlpool_g = 0.0, dry_hop_g = 0.0, total = 0.0;
-  bool have_whirlpool = false;
-  std::vector<std::string> problems;
-  for (std::size_t i = 0; i < recipe->hops.size(); ++i) {
-    const HopAddition& hop = recipe->hops[i];
-    if (hop.use == HopUse::dry_hop) {
-      dry_hop_g += hop.grams;
-      if (!plan.dry_hop_minutes) plan.dry_hop_minutes = hop.minutes;
-      continue;
-    }
-    const auto alpha = addition_alpha(hop, catalog, stock);
-    if (!alpha) {
-      problems.push_back(
-          fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)", file, i, hop.variety));
-      continue;
-    }
-    ibu[i] = addition_bitterness(hop, *alpha, plan.wort, settings).ibu;
-    total += ibu[i];
-    if (hop.use == HopUse::whirlpool) {
-      whirlpool_g += hop.grams;
-      if (!have_whirlpool) {
-        have_whirlpool = true;
-        if (hop.temperature_c) plan.whirlpool_temperature_c = *hop.temperature_c;
-        if (hop.minutes) plan.whirlpool_minutes = *hop.minutes;
-      }
-    }
-  }
-  if (!problems.empty()) throw InputError(problems);
-
-  if (choices.ibu) {
-    plan.target_ibu = *choices.ibu;
-    plan.target_ibu_source = "--ibu";
-  } else if (recipe->target_ibu) {
-    plan.target_ibu = *recipe->target_ibu;
-    plan.target_ibu_source = "the recipe's target_ibu";
-  } else {
-    plan.target_ibu = total;
-    plan.target_ibu_source = "the recipe's current total";
-  }
-  if (choices.split)
-    plan.whirlpool_share = *choices.split;
-  else if (whirlpool_g + dry_hop_g > 0.0)
-    plan.whirlpool_share = whirlpool_g / (whirlpool_g + dry_hop_g);
-
-  // The bittering charge: the boil or first-wort addition with the most IBU.
-  std::optional<std::size_t> largest;
-  for (std::size_t i = 0; i < recipe->hops.size(); ++i) {
-    const HopUse use = recipe->hops[i].use;
-    if (use != HopUse::boil && use != HopUse::first_wort) continue;
-    if (!largest || ibu[i] > ibu[*largest]) largest = i;
-  }
+  const RecipeAsWritten written = read_additions(*recipe, catalog, stock, plan);
+  plan.ibu = recipe_budget(*recipe, choices, written);
+  plan.late = late_amount(choices.dose, plan.wort.volume_l);
+  const std::optional<std::size_t> largest = largest_boil_addition(*recipe, written.ibu);
   if (!choices.no_bittering) {
-    if (!choices.bittering_variety.empty()) {
-      const double minutes =
-          largest && recipe->hops[*largest].minutes ? *recipe->hops[*largest].minutes : recipe->boil_minutes;
-      plan.bittering = bittering_from(choices.bittering_variety, catalog, stock, minutes, "--bittering");
-      plan.bittering_index = largest;
-    } else if (largest) {
-      const HopAddition& hop = recipe->hops[*largest];
-      BitteringHop bittering;
-      bittering.variety = hop.variety;
-      bittering.lot = hop.lot;
-      bittering.alpha_percent = *addition_alpha(hop, catalog, stock);
-      bittering.form = hop.form.value_or(HopForm::pellet);
-      bittering.minutes = hop.minutes.value_or(recipe->boil_minutes);
-      bittering.use = hop.use;
-      if (const Lot* lot = lot_for(hop, stock)) {
-        bittering.lot = lot->lot;
-        bittering.on_hand_g = lot->on_hand_g;
-      }
-      plan.bittering = bittering;
-      plan.bittering_index = largest;
-    } else {
-      throw InputError(
-          fmt::format("{}: /hops: no boil addition to use as the bittering charge "
-                      "(give --bittering VARIETY, or --no-bittering)",
-                      file));
-    }
+    plan.bittering = recipe_bittering(*recipe, largest, catalog, stock, choices);
+    plan.bittering_index = largest;
   }
-  for (std::size_t i = 0; i < recipe->hops.size(); ++i) {
-    const HopUse use = recipe->hops[i].use;
-    if ((use == HopUse::boil || use == HopUse::first_wort) && plan.bittering_index != i) {
-      plan.kept.push_back(i);
-      plan.kept_ibu += ibu[i];
-    }
-  }
-  if (choices.no_bittering && largest) plan.notes.push_back("--no-bittering: every boil addition is kept as written");
+  keep_boil_additions(*recipe, written.ibu, plan);
   return plan;
 }
 
 Recipe blended_recipe(const Recipe& recipe, const BlendPlan& plan, const BlendResult& result) {
   Recipe out = recipe;
   out.hops.clear();
-  out.target_ibu = result.target_ibu;
+  out.target_ibu = plan.ibu.target_ibu;
   for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
-    if (plan.bittering_index == i && result.bittering) {
+    if (plan.bittering_index == i && plan.bittering) {
       HopAddition hop = recipe.hops[i];
-      hop.variety = result.bittering->variety;
-      hop.lot = result.bittering->lot;
+      hop.variety = plan.bittering->variety;
+      hop.lot = plan.bittering->lot;
       hop.grams = result.bittering_grams;
-      hop.alpha_acid = result.bittering->alpha_percent;
-      hop.form = result.bittering->form;
+      hop.alpha_acid = plan.bittering->alpha_percent;
+      hop.form = plan.bittering->form;
       if (hop.grams > 0.0) out.hops.push_back(hop);
     } else if (std::find(plan.kept.begin(), plan.kept.end(), i) != plan.kept.end()) {
       out.hops.push_back(recipe.hops[i]);
     }
   }
-  if (result.bittering && !plan.bittering_index && result.bittering_grams > 0.0) {
+  if (plan.bittering && !plan.bittering_index && result.bittering_grams > 0.0) {
     HopAddition hop;
-    hop.variety = result.bittering->variety;
-    hop.lot = result.bittering->lot;
+    hop.variety = plan.bittering->variety;
+    hop.lot = plan.bittering->lot;
     hop.grams = result.bittering_grams;
-    hop.alpha_acid = result.bittering->alpha_percent;
+    hop.alpha_acid = plan.bittering->alpha_percent;
     hop.use = HopUse::boil;
-    hop.minutes = result.bittering->minutes;
-    hop.form = result.bittering->form;
+    hop.minutes = plan.bittering->minutes;
+    hop.form = plan.bittering->form;
     out.hops.insert(out.hops.begin(), hop);
   }
   for (const HopUse use : {HopUse::whirlpool, HopUse::dry_hop}) {

@@ -1,40 +1,97 @@
 #pragma once
 // What a blend keeps from a recipe and what it replaces: the wort, the IBU to hold, the boil
-// additions kept, the bittering charge re-solved, the whirlpool/dry-hop split; and the recipe
-// rewritten with the blend (for --write).
+// additions kept, the bittering charge re-solved, the whirlpool/dry-hop split and the late-hop
+// amount; and the recipe rewritten with the blend. The plan is the one home of these figures: the
+// request (blend.hpp) contains it, and the search, the recipe writer and the report read them there.
+// Method: docs/methods.md#bittering-charge and #blend-amounts.
+#include <cstddef>
 #include <optional>
 #include <string>
 #include <vector>
 
 #include "engine/bitterness.hpp"
-#include "engine/blend.hpp"
 #include "model/hops.hpp"
 
 namespace bine {
 
-/// Choices the brewer made on the command line that override or stand in for the recipe.
+struct BlendResult;
+
+/// The boil addition re-solved to hold total IBU.
+struct BitteringHop {
+  std::string variety;
+  std::string lot;
+  double alpha_percent = 0.0;
+  HopForm form = HopForm::pellet;
+  double minutes = 60.0;
+  std::optional<HopUse> use;        // boil (default) or first-wort
+  std::optional<double> on_hand_g;  // when the lot is in the stock
+};
+
+/// Where the IBU to hold comes from (the report words it).
+enum class IbuTargetSource {
+  given,          // the brewer gave it
+  recipe_target,  // the recipe's target_ibu
+  recipe_total,   // the recipe's additions as written
+};
+
+/// The IBU a blend holds and the part of the late hops that bitters: only their whirlpool grams
+/// add IBU (dry hops add none in this model).
+struct IbuBudget {
+  double target_ibu = 0.0;
+  IbuTargetSource target_source = IbuTargetSource::given;
+  double kept_ibu = 0.0;         // boil additions kept as they are
+  double whirlpool_share = 0.3;  // of each variety's late grams; the rest is dry hop
+
+  /// IBU left for the whirlpool and the bittering charge.
+  double room() const { return target_ibu - kept_ibu; }
+};
+
+/// How the brewer doses the late hops, per volume of wort.
+struct LateDose {
+  enum class Kind { grams_per_litre, oil_ml_per_hl };
+  Kind kind = Kind::grams_per_litre;
+  double value = 4.0;  // g/L (our default 4 g/L), or mL of oil per hL
+};
+
+/// The late-hop amount for the batch, which the blend's shares divide.
+struct LateAmount {
+  enum class Kind { grams, oil_ml };
+  Kind kind = Kind::grams;
+  double total = 0.0;  // g of late hops, or mL of oil they deliver
+};
+
+/// The dose times the wort volume: g/L x L, or mL/hL x L / 100.
+LateAmount late_amount(const LateDose& dose, double volume_l);
+
+/// A variety the brewer named, with where it was named in the caller's words ("--bittering"), so
+/// that messages about it point back there.
+struct NamedVariety {
+  std::string name;
+  std::string named_by = "the bittering variety";
+};
+
+/// What the brewer chose that overrides or stands in for the recipe.
 struct BlendChoices {
-  std::optional<double> ibu;       // --ibu
-  std::string bittering_variety;   // --bittering
-  bool no_bittering = false;       // --no-bittering
-  std::optional<double> split;     // --split
-  std::optional<double> volume_l;  // --volume (no recipe)
-  std::optional<double> gravity;   // --gravity (no recipe)
+  std::optional<double> ibu;       // IBU to hold
+  NamedVariety bittering;          // empty name: the recipe's largest boil addition
+  bool no_bittering = false;       // no bittering charge: the whirlpool gives the IBU left
+  std::optional<double> split;     // whirlpool share of the late hops
+  LateDose dose;                   // late-hop rate or oil dose
+  std::optional<double> volume_l;  // wort volume (no recipe)
+  std::optional<double> gravity;   // boil gravity (no recipe)
 };
 
 struct BlendPlan {
   WortContext wort;
-  double target_ibu = 0.0;
-  std::string target_ibu_source;  // "recipe target_ibu", "recipe's current total", "--ibu"
-  double kept_ibu = 0.0;
-  std::vector<std::size_t> kept;  // recipe additions kept (boil and first-wort, not bittering)
-  std::optional<BitteringHop> bittering;
+  BitternessSettings bitterness;
+  IbuBudget ibu;
+  LateAmount late;
+  std::optional<BitteringHop> bittering;       // nullopt: no charge, late IBU must equal the room left
   std::optional<std::size_t> bittering_index;  // the recipe addition the charge replaces
-  double whirlpool_share = 0.3;
+  std::vector<std::size_t> kept;               // recipe additions kept (boil and first-wort, not bittering)
   double whirlpool_temperature_c = 80.0;
   double whirlpool_minutes = 20.0;
   std::optional<double> dry_hop_minutes;
-  std::vector<std::string> notes;
 };
 
 /// The alpha acid of a recipe addition: its own value, else its lot's or the first lot of its variety
@@ -42,7 +99,8 @@ struct BlendPlan {
 std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Stock* stock);
 
 /// Plans a blend for `recipe` (or, without one, for the wort the choices describe). Throws
-/// InputError naming the recipe field or option when something needed is missing.
+/// InputError naming the recipe field, or the variety as the choices name it, when something needed
+/// is missing.
 BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
                      const BitternessSettings& settings);
 

@@ -30,6 +30,11 @@ enum class Remedy {
   add_catalog,             // load another catalog
   aim_by_target,           // aim at an aroma profile instead of a variety
   give_late_amount,        // say how much late hop to use
+  add_alpha_acid,          // give the hop's alpha acid in the catalog or stock
+  add_aroma_stock,         // have lots of aroma varieties on hand
+  add_aroma_catalog,       // load a catalog with aroma data
+  trim_kept_additions,     // fewer grams or shorter times for the boil additions a recipe keeps
+  bittering_with_alpha,    // bitter with a variety whose alpha acid is known
 };
 
 /// Bad input: a file, field or option that cannot be used. Holds one line per problem.

@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <sstream>
+#include <string_view>
 
 #include "report/output_format.hpp"
 #include "report/table.hpp"
@@ -17,7 +18,94 @@ std::string part_name(const BlendPart& part) {
   return part.lot.empty() ? part.variety : fmt::format("{} ({})", part.variety, part.lot);
 }
 
-/// Rounds for JSON so output is stable across platforms' last-bit differences.
+/// Where the IBU to hold came from, as the brewer set it.
+std::string_view source_words(IbuTargetSource source) {
+  switch (source) {
+    case IbuTargetSource::given:
+      return "--ibu";
+    case IbuTargetSource::recipe_target:
+      return "the recipe's target_ibu";
+    case IbuTargetSource::recipe_total:
+      return "the recipe's current total";
+  }
+  return "";
+}
+
+/// The amounts, the whirlpool stand, and one row per part.
+void render_parts(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
+  const BlendPlan& plan = context.request->plan;
+  out << fmt::format("  {} of late hops, {:.1f} mL of oil; {:.0f} % in the whirlpool",
+                     format_mass(result.late_grams, units), result.oil_ml, 100.0 * plan.ibu.whirlpool_share);
+  out << fmt::format(" ({} for {:.0f} min), the rest dry hop\n\n",
+                     format_temperature(plan.whirlpool_temperature_c, units), plan.whirlpool_minutes);
+  TextTable blend({{context.stock_mode ? "lot" : "variety"},
+                   {"whirlpool", Align::right},
+                   {"dry hop", Align::right},
+                   {"total", Align::right},
+                   {"oil share", Align::right},
+                   {"IBU", Align::right}});
+  for (const auto& part : result.parts)
+    blend.add_row({part_name(part), format_mass(part.whirlpool_g, units), format_mass(part.dry_hop_g, units),
+                   format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
+                   fmt::format("{:.1f} IBU", part.whirlpool_ibu)});
+  blend.render(out, "  ");
+}
+
+/// Target versus blend on every axis the target or the blend uses.
+void render_profile(std::ostream& out, const BlendResult& result, const BlendReportContext& context) {
+  const auto axes = context.lexicon->axis_names();
+  const BlendTarget& target = context.request->target;
+  out << fmt::format("\nAroma, blend versus target (0-5; fit {:.2f} on the 0-5 scale, 0 is exact)\n", result.fit);
+  TextTable profile({{"axis"}, {"target", Align::right}, {"blend", Align::right}, {"weight", Align::right}});
+  for (Index a = 0; a < target.intensity.size(); ++a) {
+    if (target.intensity[a] <= 0.0 && result.profile[a] < 0.05) continue;
+    profile.add_row({axes[static_cast<std::size_t>(a)], fmt::format("{:.1f}", target.intensity[a]),
+                     fmt::format("{:.1f}", result.profile[a]), fmt::format("{:.2f}", target.weight[a])});
+  }
+  profile.render(out, "  ");
+}
+
+/// The IBU held, part by part.
+void render_ibu(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
+  const BlendPlan& plan = context.request->plan;
+  out << fmt::format("\nBitterness held at {:.1f} IBU ({})\n", plan.ibu.target_ibu,
+                     source_words(plan.ibu.target_source));
+  TextTable ibu({{"part"}, {"amount", Align::right}, {"IBU", Align::right}});
+  if (plan.bittering)
+    ibu.add_row({fmt::format("bittering: {} at {:.1f} % alpha, {:.0f} min",
+                             plan.bittering->lot.empty() ? plan.bittering->variety
+                                                         : plan.bittering->variety + " (" + plan.bittering->lot + ")",
+                             plan.bittering->alpha_percent, plan.bittering->minutes),
+                 format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
+  if (!plan.kept.empty() || plan.ibu.kept_ibu > 0.0)
+    ibu.add_row({"other boil additions (kept)", "", fmt::format("{:.1f} IBU", plan.ibu.kept_ibu)});
+  ibu.add_row(
+      {"whirlpool (blend)", format_mass(result.whirlpool_grams, units), fmt::format("{:.1f} IBU", result.late_ibu)});
+  ibu.add_rule();
+  ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
+  ibu.render(out, "  ");
+}
+
+/// The lots the blend and the charge draw on, and what is left of each.
+void render_stock_left(std::ostream& out, const BlendResult& result, const BlendReportContext& context,
+                       UnitSystem units) {
+  const std::optional<BitteringHop>& bittering = context.request->plan.bittering;
+  bool any_stock = result.bittering_left_g.has_value();
+  for (const auto& part : result.parts) any_stock = any_stock || part.left_g.has_value();
+  if (!any_stock) return;
+  out << "\nStock left after brewing\n";
+  TextTable left({{"lot"}, {"left", Align::right}});
+  for (const auto& part : result.parts)
+    if (part.left_g) left.add_row({part_name(part), format_mass(*part.left_g, units)});
+  if (result.bittering_left_g && bittering) {
+    bool listed = false;
+    for (const auto& part : result.parts) listed = listed || (!part.lot.empty() && part.lot == bittering->lot);
+    if (!listed)
+      left.add_row({bittering->variety + " (" + bittering->lot + ")", format_mass(*result.bittering_left_g, units)});
+  }
+  left.render(out, "  ");
+}
+
 }  // namespace
 
 std::vector<std::string> blend_cautions(const BlendResult& result) {
@@ -40,66 +128,11 @@ std::vector<std::string> blend_cautions(const BlendResult& result) {
 
 void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context,
                        UnitSystem units) {
-  const auto axes = context.lexicon->axis_names();
   out << "Late-hop blend" << (context.recipe_name.empty() ? "" : " for " + context.recipe_name) << '\n';
-  out << fmt::format("  {} of late hops, {:.1f} mL of oil; {:.0f} % in the whirlpool",
-                     format_mass(result.late_grams, units), result.oil_ml, 100.0 * context.plan->whirlpool_share);
-  out << fmt::format(" ({} for {:.0f} min), the rest dry hop\n\n",
-                     format_temperature(context.plan->whirlpool_temperature_c, units), context.plan->whirlpool_minutes);
-  TextTable blend({{context.stock_mode ? "lot" : "variety"},
-                   {"whirlpool", Align::right},
-                   {"dry hop", Align::right},
-                   {"total", Align::right},
-                   {"oil share", Align::right},
-                   {"IBU", Align::right}});
-  for (const auto& part : result.parts)
-    blend.add_row({part_name(part), format_mass(part.whirlpool_g, units), format_mass(part.dry_hop_g, units),
-                   format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
-                   fmt::format("{:.1f} IBU", part.whirlpool_ibu)});
-  blend.render(out, "  ");
-
-  out << fmt::format("\nAroma, blend versus target (0-5; fit {:.2f} on the 0-5 scale, 0 is exact)\n", result.fit);
-  TextTable profile({{"axis"}, {"target", Align::right}, {"blend", Align::right}, {"weight", Align::right}});
-  for (Index a = 0; a < result.target.size(); ++a) {
-    if (result.target[a] <= 0.0 && result.profile[a] < 0.05) continue;
-    profile.add_row({axes[static_cast<std::size_t>(a)], fmt::format("{:.1f}", result.target[a]),
-                     fmt::format("{:.1f}", result.profile[a]), fmt::format("{:.2f}", result.weight[a])});
-  }
-  profile.render(out, "  ");
-
-  out << fmt::format("\nBitterness held at {:.1f} IBU ({})\n", result.target_ibu, context.plan->target_ibu_source);
-  TextTable ibu({{"part"}, {"amount", Align::right}, {"IBU", Align::right}});
-  if (result.bittering)
-    ibu.add_row(
-        {fmt::format("bittering: {} at {:.1f} % alpha, {:.0f} min",
-                     result.bittering->lot.empty() ? result.bittering->variety
-                                                   : result.bittering->variety + " (" + result.bittering->lot + ")",
-                     result.bittering->alpha_percent, result.bittering->minutes),
-         format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
-  if (!context.plan->kept.empty() || result.kept_ibu > 0.0)
-    ibu.add_row({"other boil additions (kept)", "", fmt::format("{:.1f} IBU", result.kept_ibu)});
-  ibu.add_row({"whirlpool (blend)", format_mass(result.late_grams * context.plan->whirlpool_share, units),
-               fmt::format("{:.1f} IBU", result.late_ibu)});
-  ibu.add_rule();
-  ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
-  ibu.render(out, "  ");
-
-  bool any_stock = result.bittering_left_g.has_value();
-  for (const auto& part : result.parts) any_stock = any_stock || part.left_g.has_value();
-  if (any_stock) {
-    out << "\nStock left after brewing\n";
-    TextTable left({{"lot"}, {"left", Align::right}});
-    for (const auto& part : result.parts)
-      if (part.left_g) left.add_row({part_name(part), format_mass(*part.left_g, units)});
-    if (result.bittering_left_g && result.bittering) {
-      bool listed = false;
-      for (const auto& part : result.parts) listed = listed || (!part.lot.empty() && part.lot == result.bittering->lot);
-      if (!listed)
-        left.add_row({result.bittering->variety + " (" + result.bittering->lot + ")",
-                      format_mass(*result.bittering_left_g, units)});
-    }
-    left.render(out, "  ");
-  }
+  render_parts(out, result, context, units);
+  render_profile(out, result, context);
+  render_ibu(out, result, context, units);
+  render_stock_left(out, result, context, units);
   if (!context.notes.empty()) {
     out << "\nNotes\n";
     for (const auto& note : context.notes) out << "  - " << note << '\n';
@@ -113,12 +146,14 @@ void render_blend_text(std::ostream& out, const BlendResult& result, const Blend
 nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext& context) {
   using nlohmann::json;
   const auto axes = context.lexicon->axis_names();
+  const BlendTarget& goal = context.request->target;
+  const BlendPlan& plan = context.request->plan;
   json target = json::object(), profile = json::object(), weight = json::object();
-  for (Index a = 0; a < result.target.size(); ++a) {
+  for (Index a = 0; a < goal.intensity.size(); ++a) {
     const auto& name = axes[static_cast<std::size_t>(a)];
-    target[name] = rounded(result.target[a], 4);
+    target[name] = rounded(goal.intensity[a], 4);
     profile[name] = rounded(result.profile[a], 4);
-    weight[name] = rounded(result.weight[a], 4);
+    weight[name] = rounded(goal.weight[a], 4);
   }
   json varieties = json::array();
   for (const auto& part : result.parts) {
@@ -134,13 +169,13 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
     varieties.push_back(v);
   }
   json bittering = nullptr;
-  if (result.bittering) {
-    bittering = {{"variety", result.bittering->variety},
+  if (plan.bittering) {
+    bittering = {{"variety", plan.bittering->variety},
                  {"grams", rounded(result.bittering_grams, 2)},
                  {"ibu", rounded(result.bittering_ibu, 2)},
-                 {"alpha_acid", rounded(result.bittering->alpha_percent, 2)},
-                 {"minutes", rounded(result.bittering->minutes, 1)}};
-    if (!result.bittering->lot.empty()) bittering["lot"] = result.bittering->lot;
+                 {"alpha_acid", rounded(plan.bittering->alpha_percent, 2)},
+                 {"minutes", rounded(plan.bittering->minutes, 1)}};
+    if (!plan.bittering->lot.empty()) bittering["lot"] = plan.bittering->lot;
     if (result.bittering_left_g) bittering["left_g"] = rounded(*result.bittering_left_g, 2);
   }
   json doc{{"target", target},
@@ -152,13 +187,13 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"bittering", bittering},
            {"late_grams", rounded(result.late_grams, 2)},
            {"oil_ml", rounded(result.oil_ml, 3)},
-           {"whirlpool_share", rounded(context.plan->whirlpool_share, 4)},
-           {"whirlpool_temperature_c", rounded(context.plan->whirlpool_temperature_c, 2)},
-           {"whirlpool_minutes", rounded(context.plan->whirlpool_minutes, 2)},
+           {"whirlpool_share", rounded(plan.ibu.whirlpool_share, 4)},
+           {"whirlpool_temperature_c", rounded(plan.whirlpool_temperature_c, 2)},
+           {"whirlpool_minutes", rounded(plan.whirlpool_minutes, 2)},
            {"ibu",
-            {{"target", rounded(result.target_ibu, 2)},
-             {"source", context.plan->target_ibu_source},
-             {"kept", rounded(result.kept_ibu, 2)},
+            {{"target", rounded(plan.ibu.target_ibu, 2)},
+             {"source", std::string(source_words(plan.ibu.target_source))},
+             {"kept", rounded(plan.ibu.kept_ibu, 2)},
              {"late", rounded(result.late_ibu, 2)},
              {"bittering", rounded(result.bittering_ibu, 2)}}},
            {"total_ibu", rounded(result.total_ibu, 2)},
@@ -169,7 +204,8 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
 
 std::string blend_to_html(const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
   const auto axes = context.lexicon->axis_names();
-  const int n = static_cast<int>(result.target.size());
+  const Eigen::VectorXd& target = context.request->target.intensity;
+  const int n = static_cast<int>(target.size());
   const int bar = 14, group = 2 * bar + 14, left = 40, top = 20, height = 200;
   const int width = left + n * group + 20;
   std::ostringstream svg;
@@ -186,7 +222,7 @@ std::string blend_to_html(const BlendResult& result, const BlendReportContext& c
   }
   for (int a = 0; a < n; ++a) {
     const double x = left + a * group + 6;
-    const double t = result.target[a], p = result.profile[a];
+    const double t = target[a], p = result.profile[a];
     svg << fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target "
         "{:.1f}</title></rect>",

@@ -13,10 +13,11 @@
 
 namespace bine {
 
-/// What the renderers need besides the result: the axis names, the plan and notes for the reader.
+/// What the renderers need besides the result: the axis names, the request (its target and its
+/// plan: IBU budget, whirlpool stand, bittering hop) and notes for the reader.
 struct BlendReportContext {
   const Lexicon* lexicon = nullptr;
-  const BlendPlan* plan = nullptr;
+  const BlendRequest* request = nullptr;
   std::string recipe_name;  // empty without --recipe
   bool stock_mode = false;
   std::vector<std::string> notes;

@@ -5,10 +5,12 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <random>
 #include <string>
 
 #include "engine/bitterness.hpp"
+#include "engine/blend_plan.hpp"
 #include "model/errors.hpp"
 
 namespace {
@@ -34,14 +36,14 @@ BlendCandidate candidate(std::string name, Eigen::VectorXd aroma, double oil, do
 /// 20 L at 1.050, 4 g/L late (80 g), 30 % whirlpool at 80 C for 20 min, 35 IBU, 12 % bittering hop.
 BlendRequest brew() {
   BlendRequest request;
-  request.wort = {20.0, 1.050, 60.0, 0.0};
-  request.amount = 80.0;
-  request.whirlpool_share = 0.3;
-  request.target_ibu = 35.0;
+  request.plan.wort = {20.0, 1.050, 60.0, 0.0};
+  request.plan.late = bine::late_amount({bine::LateDose::Kind::grams_per_litre, 4.0}, 20.0);
+  request.plan.ibu.whirlpool_share = 0.3;
+  request.plan.ibu.target_ibu = 35.0;
   bine::BitteringHop bittering;
   bittering.variety = "bitter";
   bittering.alpha_percent = 12.0;
-  request.bittering = bittering;
+  request.plan.bittering = bittering;
   return request;
 }
 
@@ -53,23 +55,23 @@ std::vector<bool> named(std::initializer_list<int> list) {
 
 /// IBU of the blend recomputed addition by addition through the bitterness engine.
 double recomputed_ibu(const bine::BlendResult& result, const BlendRequest& request) {
-  double total = request.kept_ibu;
+  double total = request.plan.ibu.kept_ibu;
   for (const auto& part : result.parts) {
     bine::HopAddition hop;
     hop.grams = part.whirlpool_g;
     hop.use = bine::HopUse::whirlpool;
-    hop.minutes = request.whirlpool_minutes;
-    hop.temperature_c = request.whirlpool_temperature_c;
+    hop.minutes = request.plan.whirlpool_minutes;
+    hop.temperature_c = request.plan.whirlpool_temperature_c;
     hop.form = part.form;
-    total += bine::addition_bitterness(hop, part.alpha_percent, request.wort, request.bitterness).ibu;
+    total += bine::addition_bitterness(hop, part.alpha_percent, request.plan.wort, request.plan.bitterness).ibu;
   }
-  if (result.bittering) {
+  if (const auto& bittering = request.plan.bittering) {
     bine::HopAddition hop;
     hop.grams = result.bittering_grams;
     hop.use = bine::HopUse::boil;
-    hop.minutes = result.bittering->minutes;
-    hop.form = result.bittering->form;
-    total += bine::addition_bitterness(hop, result.bittering->alpha_percent, request.wort, request.bitterness).ibu;
+    hop.minutes = bittering->minutes;
+    hop.form = bittering->form;
+    total += bine::addition_bitterness(hop, bittering->alpha_percent, request.plan.wort, request.plan.bitterness).ibu;
   }
   return total;
 }
@@ -157,27 +159,28 @@ TEST_CASE("total IBU equals the target to 0.05 IBU in every blend (100 random re
       request.candidates.push_back(
           candidate("v" + std::to_string(i), aroma, 0.5 + 2.5 * unit(random), 3.0 + 12.0 * unit(random)));
     }
-    request.target_ibu = 10.0 + 50.0 * unit(random);
-    request.kept_ibu = unit(random) < 0.5 ? 4.0 * unit(random) : 0.0;
-    request.whirlpool_share = unit(random);
-    request.amount = 20.0 * (1.0 + 9.0 * unit(random));  // 1-10 g/L
+    request.plan.ibu.target_ibu = 10.0 + 50.0 * unit(random);
+    request.plan.ibu.kept_ibu = unit(random) < 0.5 ? 4.0 * unit(random) : 0.0;
+    request.plan.ibu.whirlpool_share = unit(random);
+    request.plan.late.total = 20.0 * (1.0 + 9.0 * unit(random));  // 1-10 g/L
     request.target =
         bine::target_from_spec(axes({{static_cast<int>(unit(random) * 14), 4.0}, {0, 2.0}}), named({0}), 0.25);
     request.target.named[0] = true;
     // Least whirlpool IBU any blend can give: every gram in the least bitter candidate.
     double least = 1e300;
     for (const auto& c : request.candidates)
-      least = std::min(least, request.amount * request.whirlpool_share * bine::whirlpool_ibu_per_gram(c, request));
+      least = std::min(least, request.plan.late.total * request.plan.ibu.whirlpool_share *
+                                  bine::whirlpool_ibu_per_gram(c, request.plan));
     try {
       const auto result = bine::design_blend(request);
       ++feasible;
-      CHECK(std::abs(result.total_ibu - request.target_ibu) <= 0.05);
-      CHECK(std::abs(recomputed_ibu(result, request) - request.target_ibu) <= 0.05);
+      CHECK(std::abs(result.total_ibu - request.plan.ibu.target_ibu) <= 0.05);
+      CHECK(std::abs(recomputed_ibu(result, request) - request.plan.ibu.target_ibu) <= 0.05);
       CHECK(result.bittering_grams >= 0.0);
-      CHECK(result.late_grams == doctest::Approx(request.amount));
+      CHECK(result.late_grams == doctest::Approx(request.plan.late.total));
     } catch (const bine::Infeasible&) {
       // Only when even the least bitter candidate alone overshoots the IBU left for late hops.
-      CHECK(least > request.target_ibu - request.kept_ibu);
+      CHECK(least > request.plan.ibu.target_ibu - request.plan.ibu.kept_ibu);
     }
   }
   CHECK(feasible >= 80);
@@ -185,17 +188,17 @@ TEST_CASE("total IBU equals the target to 0.05 IBU in every blend (100 random re
 
 TEST_CASE("without a bittering charge the late hops give exactly the IBU left") {
   BlendRequest request = brew();
-  request.bittering.reset();
-  request.whirlpool_share = 1.0;
+  request.plan.bittering.reset();
+  request.plan.ibu.whirlpool_share = 1.0;
   request.candidates = {candidate("A", axes({{0, 4.0}}), 1.0, 6.0), candidate("B", axes({{5, 4.0}}), 2.0, 14.0)};
   request.target = bine::target_from_spec(axes({{0, 4.0}}), named({0}), 0.25);
   // 80 g of A alone at 6 % gives some IBU u_A; ask for a bit more so B must come in.
-  const double a_only = 80.0 * bine::whirlpool_ibu_per_gram(request.candidates[0], request);
-  request.target_ibu = a_only * 1.2;
+  const double a_only = 80.0 * bine::whirlpool_ibu_per_gram(request.candidates[0], request.plan);
+  request.plan.ibu.target_ibu = a_only * 1.2;
   const auto result = bine::design_blend(request);
   CHECK(result.parts.size() == 2);
-  CHECK(std::abs(result.total_ibu - request.target_ibu) <= 0.05);
-  CHECK(std::abs(recomputed_ibu(result, request) - request.target_ibu) <= 0.05);
+  CHECK(std::abs(result.total_ibu - request.plan.ibu.target_ibu) <= 0.05);
+  CHECK(std::abs(recomputed_ibu(result, request) - request.plan.ibu.target_ibu) <= 0.05);
 }
 
 TEST_CASE("stock limits hold for the blend and the bittering lot") {
@@ -210,8 +213,8 @@ TEST_CASE("stock limits hold for the blend and the bittering lot") {
   a2.lot = "A-2";
   a2.on_hand_g = 10.0;
   request.candidates = {a, b, a2};
-  request.bittering->lot = "X-1";
-  request.bittering->on_hand_g = 1000.0;
+  request.plan.bittering->lot = "X-1";
+  request.plan.bittering->on_hand_g = 1000.0;
   request.target = bine::target_from_spec(axes({{0, 2.0}, {5, 2.0}}), named({0, 5}), 0.25);
   const auto result = bine::design_blend(request);
   for (const auto& part : result.parts) {
@@ -223,15 +226,14 @@ TEST_CASE("stock limits hold for the blend and the bittering lot") {
   }
   CHECK(result.late_grams == doctest::Approx(80.0));
   // Bittering limited to 5 g: the late hops cannot lower the needed charge enough -> infeasible.
-  request.bittering->on_hand_g = 5.0;
+  request.plan.bittering->on_hand_g = 5.0;
   CHECK_THROWS_AS(bine::design_blend(request), bine::Infeasible);
 }
 
 TEST_CASE("oil dose fixes the oil delivered: grams = dose / oil content (docs/methods.md, derived)") {
   // 1.5 mL/hL over 20 L = 0.3 mL of oil. One hop at 1.5 mL/100 g: 0.3 / 0.015 = 20 g.
   BlendRequest request = brew();
-  request.amount_kind = bine::LateAmount::oil_ml;
-  request.amount = 0.3;
+  request.plan.late = bine::late_amount({bine::LateDose::Kind::oil_ml_per_hl, 1.5}, 20.0);
   request.candidates = {candidate("A", axes({{0, 4.0}}), 1.5, 6.0)};
   request.target = bine::target_from_spec(axes({{0, 4.0}}), named({0}), 0.25);
   const auto result = bine::design_blend(request);
@@ -240,25 +242,148 @@ TEST_CASE("oil dose fixes the oil delivered: grams = dose / oil content (docs/me
   CHECK(result.oil_ml == doctest::Approx(0.3));
 }
 
-TEST_CASE("infeasible requests say why") {
+/// The Infeasible that design_blend throws for `request`; fails the test when it returns.
+bine::Infeasible infeasible(const BlendRequest& request) {
+  try {
+    bine::design_blend(request);
+  } catch (const bine::Infeasible& e) {
+    return e;
+  }
+  FAIL("design_blend returned a blend");
+  return bine::Infeasible("");
+}
+
+bool has(const std::vector<bine::Remedy>& remedies, bine::Remedy remedy) {
+  return std::find(remedies.begin(), remedies.end(), remedy) != remedies.end();
+}
+
+TEST_CASE("infeasible requests say why in domain words, with what would make them feasible") {
   BlendRequest request = brew();
   request.candidates = {candidate("A", axes({{0, 4.0}}), 1.0, 6.0)};
   request.target = bine::target_from_spec(axes({{0, 4.0}}), named({0}), 0.25);
   SUBCASE("kept boil additions already above the target") {
-    request.kept_ibu = 40.0;
-    CHECK_THROWS_WITH_AS(bine::design_blend(request), doctest::Contains("already give 40.0 IBU"), bine::Infeasible);
+    request.plan.ibu.kept_ibu = 40.0;
+    const auto e = infeasible(request);
+    CHECK(std::string(e.what()).find("already give 40.0 IBU") != std::string::npos);
+    CHECK(has(e.remedies(), bine::Remedy::raise_target_ibu));
   }
   SUBCASE("no candidates") {
     request.candidates.clear();
-    CHECK_THROWS_AS(bine::design_blend(request), bine::Infeasible);
+    CHECK(has(infeasible(request).remedies(), bine::Remedy::add_aroma_stock));
   }
   SUBCASE("no bittering and the late hops cannot reach the IBU") {
-    request.bittering.reset();
-    request.target_ibu = 200.0;
-    CHECK_THROWS_WITH_AS(bine::design_blend(request), doctest::Contains("--no-bittering"), bine::Infeasible);
+    request.plan.bittering.reset();
+    request.plan.ibu.target_ibu = 200.0;
+    const auto e = infeasible(request);
+    CHECK(std::string(e.what()).find("without a bittering charge") != std::string::npos);
+    CHECK(has(e.remedies(), bine::Remedy::allow_bittering));
+    CHECK(has(e.remedies(), bine::Remedy::raise_whirlpool_share));
+  }
+  SUBCASE("the whirlpool alone gives more IBU than the target") {
+    // 80 g at 6 % alpha all in an 80 C, 20 min whirlpool gives well over 1 IBU (Tinseth with the
+    // below-boiling factor, docs/methods.md#below-boiling), so even a zero charge overshoots.
+    request.plan.ibu.whirlpool_share = 1.0;
+    request.plan.ibu.target_ibu = 1.0;
+    const auto e = infeasible(request);
+    CHECK(std::string(e.what()).find("at or below 1.0 IBU") != std::string::npos);
+    CHECK(std::string(e.what()).find("stock") == std::string::npos);  // no lot limits this blend
+    CHECK(has(e.remedies(), bine::Remedy::lower_whirlpool_share));
+    CHECK_FALSE(has(e.remedies(), bine::Remedy::add_stock));
   }
   SUBCASE("not enough stock for the late amount") {
     request.candidates[0].on_hand_g = 50.0;  // 80 g needed
-    CHECK_THROWS_WITH_AS(bine::design_blend(request), doctest::Contains("only 50 g"), bine::Infeasible);
+    const auto e = infeasible(request);
+    CHECK(std::string(e.what()).find("only 50 g") != std::string::npos);
+    CHECK(has(e.remedies(), bine::Remedy::add_stock));
+  }
+  // Engine messages never name a command-line option: the command line adds those from the remedies.
+  CHECK(std::string(infeasible(request).what()).find("--") == std::string::npos);
+}
+
+TEST_CASE("the late-hop amount is the dose times the volume (hand arithmetic)") {
+  // 5 g/L x 23 L = 115 g; 2 mL/hL x 23 L = 0.46 mL of oil.
+  const auto grams = bine::late_amount({bine::LateDose::Kind::grams_per_litre, 5.0}, 23.0);
+  CHECK(grams.kind == bine::LateAmount::Kind::grams);
+  CHECK(grams.total == doctest::Approx(115.0));
+  const auto oil = bine::late_amount({bine::LateDose::Kind::oil_ml_per_hl, 2.0}, 23.0);
+  CHECK(oil.kind == bine::LateAmount::Kind::oil_ml);
+  CHECK(oil.total == doctest::Approx(0.46));
+  CHECK(bine::LateDose{}.value == 4.0);  // our default, 4 g/L
+}
+
+namespace {
+
+/// A recipe of 20 L with 30 g in the whirlpool (85 C, 15 min) and 70 g dry hop, and no boil addition.
+bine::Recipe late_only_recipe() {
+  bine::Recipe recipe;
+  recipe.name = "late only";
+  recipe.batch_volume_l = 20.0;
+  recipe.original_gravity = 1.050;
+  recipe.target_ibu = 30.0;
+  recipe.source_file = "late.json";
+  bine::HopAddition whirlpool;
+  whirlpool.variety = "A";
+  whirlpool.grams = 30.0;
+  whirlpool.alpha_acid = 6.0;
+  whirlpool.use = bine::HopUse::whirlpool;
+  whirlpool.minutes = 15.0;
+  whirlpool.temperature_c = 85.0;
+  bine::HopAddition dry = whirlpool;
+  dry.grams = 70.0;
+  dry.use = bine::HopUse::dry_hop;
+  dry.minutes = 4.0 * 24 * 60;
+  dry.temperature_c.reset();
+  recipe.hops = {whirlpool, dry};
+  return recipe;
+}
+
+}  // namespace
+
+TEST_CASE("a plan takes the recipe's whirlpool split, stand and IBU target (hand arithmetic)") {
+  const bine::Catalog catalog;
+  bine::BlendChoices choices;
+  choices.no_bittering = true;
+  const bine::Recipe recipe = late_only_recipe();
+  const auto plan = bine::plan_blend(&recipe, catalog, nullptr, choices, {});
+  // Whirlpool share 30 / (30 + 70) = 0.3; the stand is the recipe's; 4 g/L x 20 L = 80 g.
+  CHECK(plan.ibu.whirlpool_share == doctest::Approx(0.3));
+  CHECK(plan.whirlpool_temperature_c == 85.0);
+  CHECK(plan.whirlpool_minutes == 15.0);
+  CHECK(plan.ibu.target_ibu == 30.0);
+  CHECK(plan.ibu.target_source == bine::IbuTargetSource::recipe_target);
+  CHECK(plan.ibu.kept_ibu == 0.0);
+  CHECK_FALSE(plan.bittering);
+  CHECK(plan.late.kind == bine::LateAmount::Kind::grams);
+  CHECK(plan.late.total == doctest::Approx(80.0));
+}
+
+TEST_CASE("plan errors name the recipe field or the variety as the caller named it, with remedies") {
+  bine::Catalog catalog;
+  bine::Variety variety;
+  variety.name = "Nalpha";  // no alpha acid range
+  catalog.varieties.push_back(variety);
+  bine::BlendChoices choices;
+  SUBCASE("a recipe with no boil addition and no bittering variety") {
+    const bine::Recipe recipe = late_only_recipe();
+    try {
+      bine::plan_blend(&recipe, catalog, nullptr, choices, {});
+      FAIL("plan_blend returned a plan");
+    } catch (const bine::InputError& e) {
+      CHECK(e.lines().at(0) == "late.json: /hops: no boil addition to use as the bittering charge");
+      CHECK(has(e.remedies(), bine::Remedy::name_bittering_variety));
+      CHECK(has(e.remedies(), bine::Remedy::no_bittering));
+    }
+  }
+  SUBCASE("a named bittering variety without alpha acid") {
+    choices.bittering = {"Nalpha", "the given label"};
+    choices.volume_l = 20.0;
+    choices.ibu = 30.0;
+    try {
+      bine::plan_blend(nullptr, catalog, nullptr, choices, {});
+      FAIL("plan_blend returned a plan");
+    } catch (const bine::InputError& e) {
+      CHECK(e.lines().at(0) == "the given label: Nalpha: no alpha acid known");
+      CHECK(has(e.remedies(), bine::Remedy::add_alpha_acid));
+    }
   }
 }

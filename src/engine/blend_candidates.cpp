@@ -1,0 +1,111 @@
+// What a blend may be made of: in catalog mode every variety with aroma and oil data whose purpose
+// is not bittering only, in stock mode every lot on hand whose variety the catalog knows, with the
+// lot's own oil and alpha where it has them (docs/methods.md#blend-profile). What is left out is
+// noted, one note per reason.
+#include <fmt/format.h>
+
+#include "engine/aroma_profile.hpp"
+#include "engine/blend.hpp"
+#include "model/catalog_lookup.hpp"
+#include "model/names.hpp"
+
+namespace bine {
+namespace {
+
+std::string join_names(const std::vector<std::string>& names) {
+  std::string text;
+  for (std::size_t i = 0; i < names.size() && i < 6; ++i) text += (i ? ", " : "") + names[i];
+  if (names.size() > 6) text += fmt::format(" and {} more", names.size() - 6);
+  return text;
+}
+
+/// The names left out, by reason.
+struct LeftOut {
+  std::vector<std::string> no_aroma, no_oil, unknown;
+};
+
+/// Sets the candidate's aroma from the variety; false (and noted) when it has no aroma data.
+bool take_aroma(const Variety& variety, const Lexicon& lexicon, const std::string& label, BlendCandidate& candidate,
+                LeftOut& left_out) {
+  const AromaProfile profile = aroma_profile(variety, lexicon);
+  if (profile.source == AromaSource::none || profile.intensity.maxCoeff() <= 0.0) {
+    left_out.no_aroma.push_back(label);
+    return false;
+  }
+  candidate.aroma = profile.intensity;
+  return true;
+}
+
+void add_catalog_candidates(const Catalog& catalog, const Lexicon& lexicon, const std::string& excluded,
+                            CandidateSet& set, LeftOut& left_out) {
+  for (const auto& variety : catalog.varieties) {
+    if (!excluded.empty() && fold_name(variety.name) == excluded) continue;
+    if (variety.purpose == Purpose::bittering) continue;
+    BlendCandidate candidate;
+    candidate.variety = variety.name;
+    if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) continue;
+    if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
+      left_out.no_oil.push_back(variety.name);
+      continue;
+    }
+    candidate.oil_ml_per_100g = variety.total_oil->mid();
+    candidate.alpha_percent = variety.alpha_acid ? variety.alpha_acid->mid() : 0.0;
+    set.candidates.push_back(std::move(candidate));
+  }
+}
+
+void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock& stock,
+                          const std::string& excluded, CandidateSet& set, LeftOut& left_out) {
+  for (const auto& lot : stock.lots) {
+    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0) continue;
+    if (!excluded.empty() && fold_name(lot.variety) == excluded) continue;
+    const Variety* variety = find_variety(catalog, lot.variety);
+    const std::string label = fmt::format("{} ({})", lot.variety, lot.lot);
+    if (variety == nullptr) {
+      left_out.unknown.push_back(label);
+      continue;
+    }
+    BlendCandidate candidate;
+    candidate.variety = variety->name;
+    candidate.lot = lot.lot;
+    candidate.form = lot.form;
+    candidate.on_hand_g = lot.on_hand_g;
+    if (!take_aroma(*variety, lexicon, label, candidate, left_out)) continue;
+    const std::optional<double> oil =
+        lot.total_oil ? lot.total_oil : (variety->total_oil ? std::optional(variety->total_oil->mid()) : std::nullopt);
+    if (!oil || *oil <= 0.0) {
+      left_out.no_oil.push_back(label);
+      continue;
+    }
+    candidate.oil_ml_per_100g = *oil;
+    candidate.alpha_percent =
+        lot.alpha_acid ? *lot.alpha_acid : (variety->alpha_acid ? variety->alpha_acid->mid() : 0.0);
+    set.candidates.push_back(std::move(candidate));
+  }
+}
+
+}  // namespace
+
+CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
+                              std::string_view exclude) {
+  CandidateSet set;
+  LeftOut left_out;
+  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
+  if (stock == nullptr)
+    add_catalog_candidates(catalog, lexicon, excluded, set, left_out);
+  else
+    add_stock_candidates(catalog, lexicon, *stock, excluded, set, left_out);
+  set.without_aroma = left_out.no_aroma.size();
+  if (!left_out.no_aroma.empty())
+    set.notes.push_back(
+        fmt::format("{} skipped: no aroma data ({})", left_out.no_aroma.size(), join_names(left_out.no_aroma)));
+  if (!left_out.no_oil.empty())
+    set.notes.push_back(
+        fmt::format("{} skipped: no total oil value ({})", left_out.no_oil.size(), join_names(left_out.no_oil)));
+  if (!left_out.unknown.empty())
+    set.notes.push_back(fmt::format("{} lots skipped: variety not in any catalog ({})", left_out.unknown.size(),
+                                    join_names(left_out.unknown)));
+  return set;
+}
+
+}  // namespace bine
