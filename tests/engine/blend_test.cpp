@@ -78,7 +78,7 @@ double recomputed_ibu(const bine::BlendResult& result, const BlendRequest& reque
 
 }  // namespace
 
-TEST_CASE("two complementary hops meet a two-axis target exactly; grams follow the oil (hand arithmetic)") {
+TEST_CASE("two complementary hops meet a two-axis target exactly, grams follow the oil (hand arithmetic)") {
   // A: citrus 4 (oil 1.0 mL/100 g); B: floral 4 (oil 2.0). Target citrus 2, floral 2: x = (1/2, 1/2),
   // P = (2, 2), J = 0. Grams: g_i proportional to x_i / O_i = 0.5 and 0.25, so of 80 g
   // A gets 80 x 0.5 / 0.75 = 53.33 g and B 26.67 g; whirlpool 30 %: 16.0 g and 8.0 g.

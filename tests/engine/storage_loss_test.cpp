@@ -18,7 +18,7 @@ TEST_CASE("k = ln(100 / (100 - PL)) / 180: 0.003851 per day for PL 50 (Garetz 19
   CHECK(bine::loss_rate_per_day(0) == 0.0);
 }
 
-TEST_CASE("temperature and package factors (Garetz 1994; SF values from memory)") {
+TEST_CASE("temperature and package factors (Garetz 1994, SF values from memory)") {
   // TF = 2^((T - 20) / 15): 1 at 20 C, 1/2 at 5 C, 1/4 at -10 C.
   CHECK(bine::temperature_factor(20) == doctest::Approx(1.0));
   CHECK(bine::temperature_factor(5) == doctest::Approx(0.5));
@@ -44,7 +44,7 @@ TEST_CASE("180 days at 20 C, open, leave exactly the stability fraction") {
   }
 }
 
-TEST_CASE("no time, no loss; warm storage is flagged as extrapolated") {
+TEST_CASE("no time, no loss, warm storage is flagged as extrapolated") {
   CHECK(bine::age_alpha(history(9.0, 50, 4, bine::Package::sealed, 0)).alpha_percent == 9.0);
   CHECK(bine::age_alpha(history(9.0, 50, 30, bine::Package::open, 10)).warm_extrapolation);
 }

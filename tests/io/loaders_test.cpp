@@ -175,7 +175,7 @@ TEST_CASE("dates must exist") {
                      "/lots/0/packaged: \"2026-02-30\" is not a date that exists (expected YYYY-MM-DD)"));
 }
 
-TEST_CASE("amounts and volumes must be positive; gravity at least 1.000") {
+TEST_CASE("amounts and volumes must be positive, gravity at least 1.000") {
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": "-5 g", "use": "dry-hop"}]})"),
                      "/hops/0/amount: -5 g is outside the range for a hop amount"));
   CHECK(any_line_has(recipe_errors(kGoodRecipeHead + R"([{"variety": "A", "amount": 0, "use": "dry-hop"}]})"),
