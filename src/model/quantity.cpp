@@ -234,7 +234,12 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
 }
 
 namespace {
-std::string trim_number(double value, int decimals) { return fmt::format("{:.{}f}", value, decimals); }
+std::string trim_number(double value, int decimals) {
+  std::string text = fmt::format("{:.{}f}", value, decimals);
+  // -0.4 rounds to "-0": a brewer reads that as a sign error.
+  if (text.front() == '-' && text.find_first_not_of("-0.") == std::string::npos) text.erase(0, 1);
+  return text;
+}
 int decimals_for(double value) {
   const double magnitude = std::abs(value);
   if (magnitude >= 100.0) return 0;

@@ -29,7 +29,11 @@ std::string_view hot_wort_caution() {
 
 std::string_view dry_hop_caution() {
   return "Caution: dry hops can restart fermentation (hop creep) and over-pressurise bottles or kegs; package only "
-         "after the gravity has been stable for several days. Hops are toxic to dogs: keep spent hops away from them.";
+         "after the gravity has been stable for several days.";
+}
+
+std::string_view dogs_caution() {
+  return "Caution: hops, fresh or spent, are toxic to dogs: keep them out of their reach.";
 }
 
 std::vector<std::string> cautions_for(const Recipe& recipe) {
@@ -39,6 +43,7 @@ std::vector<std::string> cautions_for(const Recipe& recipe) {
   };
   if (uses(HopUse::whirlpool) || recipe.hop_stand) cautions.emplace_back(hot_wort_caution());
   if (uses(HopUse::dry_hop)) cautions.emplace_back(dry_hop_caution());
+  if (!recipe.hops.empty()) cautions.emplace_back(dogs_caution());
   return cautions;
 }
 

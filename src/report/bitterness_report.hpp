@@ -26,6 +26,8 @@ std::string describe_use(HopUse use, std::optional<double> minutes, std::optiona
 std::string_view hot_wort_caution();
 /// Dry-hop refermentation caution (hop creep) for packaging.
 std::string_view dry_hop_caution();
+/// Hops are toxic to dogs, boiled or not.
+std::string_view dogs_caution();
 /// The cautions that apply to a recipe, each one line.
 std::vector<std::string> cautions_for(const Recipe& recipe);
 

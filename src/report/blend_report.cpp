@@ -226,11 +226,12 @@ std::string blend_to_html(const BlendResult& result, const BlendReportContext& c
     svg << fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target "
         "{:.1f}</title></rect>",
-        x, top + height - height * t / 5.0, bar, height * t / 5.0, axes[static_cast<std::size_t>(a)], t);
+        x, top + height - height * t / 5.0, bar, height * t / 5.0, html_escape(axes[static_cast<std::size_t>(a)]), t);
     svg << fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"blend\"><title>{} blend "
         "{:.1f}</title></rect>",
-        x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, axes[static_cast<std::size_t>(a)], p);
+        x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, html_escape(axes[static_cast<std::size_t>(a)]),
+        p);
     svg << fmt::format("<text transform=\"translate({:.1f},{}) rotate(50)\" class=\"axis\">{}</text>\n", x + 4,
                        top + height + 12, html_escape(axes[static_cast<std::size_t>(a)]));
   }

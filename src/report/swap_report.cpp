@@ -75,14 +75,16 @@ std::string aroma_chart(const SwapResult& r, const Substitute& s) {
     svg += fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"want\">"
         "<title>{} {}: {:.1f}</title></rect>\n",
-        x, top + height - height * want / 5.0, bar, height * want / 5.0, html_escape(r.missing.name), r.axes[a], want);
+        x, top + height - height * want / 5.0, bar, height * want / 5.0, html_escape(r.missing.name),
+        html_escape(r.axes[a]), want);
     svg += fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"got\">"
         "<title>{} {}: {:.1f}</title></rect>\n",
-        x + bar, top + height - height * got / 5.0, bar, height * got / 5.0, html_escape(name_of(s)), r.axes[a], got);
+        x + bar, top + height - height * got / 5.0, bar, height * got / 5.0, html_escape(name_of(s)),
+        html_escape(r.axes[a]), got);
     svg +=
         fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" class=\"axis\" transform=\"rotate(40 {:.1f} {:.1f})\">{}</text>\n",
-                    x + 4.0, top + height + 14.0, x + 4.0, top + height + 14.0, r.axes[a]);
+                    x + 4.0, top + height + 14.0, x + 4.0, top + height + 14.0, html_escape(r.axes[a]));
   }
   svg += "</svg>\n";
   return svg;

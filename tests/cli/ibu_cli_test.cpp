@@ -122,5 +122,5 @@ TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the s
   const auto json = nlohmann::json::parse(result.out);
   CHECK(json["hop_stand"]["boil_equivalent_minutes"].get<double>() == doctest::Approx(3.31).epsilon(2e-3));
   CHECK(json["total_ibu"].get<double>() == doctest::Approx(4.40).epsilon(3e-3));
-  CHECK(json["cautions"].size() == 1);  // hot wort
+  CHECK(json["cautions"].size() == 2);  // hot wort, dogs
 }

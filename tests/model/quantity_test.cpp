@@ -109,4 +109,7 @@ TEST_CASE("formatting always carries a unit") {
   CHECK(bine::format_volume(3.785411784 * 5.0, UnitSystem::us) == "5.00 gal");
   CHECK(bine::format_temperature(80.0, UnitSystem::us) == "176 F");
   CHECK(bine::format_temperature(80.0, UnitSystem::metric) == "80 C");
+  // -18 C = -0.4 F (F = 1.8 C + 32, exact): rounds to 0 F, never "-0 F".
+  CHECK(bine::format_temperature(-18.0, UnitSystem::us) == "0 F");
+  CHECK(bine::format_temperature(-0.3, UnitSystem::metric) == "0 C");
 }

@@ -110,24 +110,27 @@ TEST_CASE("ibu text in US units: oz, gal and F, and a target IBU shows the signe
   CHECK(text.find("Target 40.0 IBU; computed 48.0 IBU (+8.0 IBU).") != std::string::npos);
 }
 
-TEST_CASE("ibu cautions: hot wort with a whirlpool or a hop stand, refermentation and dogs with a dry hop") {
+TEST_CASE("ibu cautions: hot wort with a whirlpool or a hop stand, refermentation with a dry hop, dogs always") {
+  // Hops, boiled or not, are toxic to dogs (common practice): every recipe with hops says so, last.
   const Recipe boil = recipe_with({addition(HopUse::boil, 20.0, 60.0)});
-  CHECK(cautions_for(boil).empty());
+  REQUIRE(cautions_for(boil).size() == 1);
+  CHECK(cautions_for(boil)[0] == dogs_caution());
+  CHECK(cautions_for(boil)[0].find("toxic to dogs") != std::string::npos);
 
   const Recipe whirlpool = recipe_with({addition(HopUse::whirlpool, 40.0, 20.0, 80.0)});
-  REQUIRE(cautions_for(whirlpool).size() == 1);
+  REQUIRE(cautions_for(whirlpool).size() == 2);
   CHECK(cautions_for(whirlpool)[0].find("scalds") != std::string::npos);
 
   Recipe stand = boil;  // no whirlpool addition, but the wort is held hot after flame-out
   stand.hop_stand = HopStand{20.0, 85.0};
-  REQUIRE(cautions_for(stand).size() == 1);
+  REQUIRE(cautions_for(stand).size() == 2);
   CHECK(cautions_for(stand)[0] == hot_wort_caution());
 
   const Recipe dry = recipe_with({addition(HopUse::dry_hop, 50.0, 5760.0)});
-  REQUIRE(cautions_for(dry).size() == 1);
+  REQUIRE(cautions_for(dry).size() == 2);
   CHECK(cautions_for(dry)[0].find("hop creep") != std::string::npos);
   CHECK(cautions_for(dry)[0].find("over-pressurise") != std::string::npos);
-  CHECK(cautions_for(dry)[0].find("toxic to dogs") != std::string::npos);
+  CHECK(cautions_for(dry)[1].find("toxic to dogs") != std::string::npos);
 
   // Both late uses: each caution once, in the text as well.
   const Recipe both =
@@ -158,7 +161,8 @@ TEST_CASE("ibu JSON carries the struct's numbers in canonical units at the docum
   CHECK(a["utilization"].get<double>() == 0.23071);
   CHECK(a["ibu"].get<double>() == 32.345);
   CHECK(a["temperature_c"].is_null());
-  CHECK(json["cautions"].empty());
+  REQUIRE(json["cautions"].size() == 1);  // a boil addition only: dogs
+  CHECK(json["cautions"][0] == std::string(dogs_caution()));
 }
 
 TEST_CASE("minutes and uses in words") {

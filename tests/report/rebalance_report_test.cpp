@@ -161,5 +161,5 @@ TEST_CASE("rebalance JSON: canonical units, 1-based absorber, shortfall by subtr
   CHECK(json["shortfalls"][0]["short_g"].get<double>() == 29.523);  // 39.5234 - 10
   CHECK(json["lots"][0]["remaining"].get<double>() == 0.88565);
   CHECK(json["lots"][0]["days"] == 365);
-  REQUIRE(json["cautions"].size() == 1);  // whirlpool: hot wort
+  REQUIRE(json["cautions"].size() == 2);  // whirlpool: hot wort; hops: dogs
 }
