@@ -1,7 +1,8 @@
 #pragma once
-// The one runner of the built bine binary as a child process (fork/exec, no shell), for the few
-// tests that need a real process: the exit status its parent sees, whether it died of a signal,
-// and that the binary behaves as the in-process door (run_in_process.hpp) does.
+// The one runner of child processes (fork/exec, no shell) in the tests: the built bine binary for
+// the few tests that need a real process (the exit status its parent sees, whether it died of a
+// signal, that the binary behaves as the in-process door run_in_process.hpp does), and the SciPy
+// reference scripts.
 #include <fcntl.h>
 #include <sys/types.h>
 #include <sys/wait.h>
@@ -25,12 +26,12 @@ struct ProcessRun {
   std::string err;
 };
 
-/// Runs BINE_BINARY with `args` (argv[1..]), with BINE_DATA unset so the source-tree data are used.
-inline ProcessRun run_bine(const std::vector<std::string>& args) {
+/// Runs `path` with `args` (argv[1..]), with BINE_DATA unset so the source-tree data are used.
+inline ProcessRun run_program(const std::string& path, const std::vector<std::string>& args) {
   const TempDir scratch;
   const auto out_path = scratch.path() / "out";
   const auto err_path = scratch.path() / "err";
-  std::string program = BINE_BINARY;
+  std::string program = path;
   std::vector<std::string> copies(args);
   std::vector<char*> argv{program.data()};
   for (auto& arg : copies) argv.push_back(arg.data());
@@ -58,5 +59,8 @@ inline ProcessRun run_bine(const std::vector<std::string>& args) {
   result.err = slurp(err_path);
   return result;
 }
+
+/// Runs BINE_BINARY with `args`.
+inline ProcessRun run_bine(const std::vector<std::string>& args) { return run_program(BINE_BINARY, args); }
 
 }  // namespace bine::test

@@ -12,6 +12,8 @@
 #include <random>
 #include <string>
 
+#include "cli/run_binary.hpp"
+
 namespace {
 
 using bine::BlendQp;
@@ -25,14 +27,14 @@ Eigen::MatrixXd row_matrix(std::initializer_list<double> values) {
   return m;
 }
 
-std::string run_command(const std::string& command) {
-  std::string output;
-  FILE* pipe = popen(command.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  char buffer[4096];
-  while (std::fgets(buffer, sizeof buffer, pipe) != nullptr) output += buffer;
-  pclose(pipe);
-  return output;
+/// The reference script's standard output (SciPy SLSQP on the same problems).
+std::string run_reference(const std::string& input) {
+  const auto run =
+      bine::test::run_program(BINE_PYTHON, {std::string(BINE_TEST_DIR) + "/engine/qp_reference.py", input});
+  INFO(run.err);
+  REQUIRE(run.exited);
+  REQUIRE(run.status == 0);
+  return run.out;
 }
 
 nlohmann::json matrix_json(const Eigen::MatrixXd& m) {
@@ -168,8 +170,7 @@ TEST_CASE("200 random blend QPs agree with SciPy SLSQP to 1e-6 in objective") {
   const auto input =
       std::filesystem::temp_directory_path() / ("bine-qp-problems-" + std::to_string(::getpid()) + ".json");
   std::ofstream(input) << documents.dump();
-  const std::string output =
-      run_command(std::string(BINE_PYTHON) + " " + BINE_TEST_DIR + "/engine/qp_reference.py " + input.string());
+  const std::string output = run_reference(input.string());
   std::filesystem::remove(input);
   const auto reference = nlohmann::json::parse(output, nullptr, false);
   REQUIRE(reference.is_array());
