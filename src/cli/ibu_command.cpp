@@ -3,10 +3,10 @@
 
 #include <memory>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "engine/recipe_bitterness.hpp"
-#include "io/limits.hpp"
 #include "io/loaders.hpp"
 #include "report/bitterness_report.hpp"
 
@@ -15,9 +15,7 @@ namespace {
 
 struct IbuOptions {
   std::string recipe;
-  std::string model = "tinseth";
-  std::string pellet_factor;
-  std::string calibration;
+  BitternessOptions bitterness;
   bool json = false;
 };
 
@@ -32,16 +30,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   IbuArgs args;
   args.recipe = options.recipe;
   args.json = options.json;
-  if (auto model = ibu_model_from(options.model))
-    args.settings.model = *model;
-  else
-    reader.add(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
-  if (auto factor =
-          reader.optional_quantity("--pellet-factor", options.pellet_factor, Dimension::number, limits::pellet_factor))
-    args.settings.pellet_factor = *factor;
-  if (auto factor =
-          reader.optional_quantity("--calibration", options.calibration, Dimension::number, limits::calibration))
-    args.settings.calibration = *factor;
+  args.settings = read_bitterness_options(reader, options.bitterness);
   reader.throw_if_any();
   return args;
 }
@@ -67,11 +56,7 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   auto options = std::make_shared<IbuOptions>();
   auto* ibu = app.add_subcommand("ibu", "a recipe's bitterness (IBU) per addition and in total, with BU:GU");
   ibu->add_option("RECIPE", options->recipe, "recipe file (JSON)")->required();
-  ibu->add_option("--model", options->model, "tinseth (default) or rager");
-  ibu->add_option("--pellet-factor", options->pellet_factor,
-                  "utilization multiplier for pellets and powder (default 1.10, common practice)");
-  ibu->add_option("--calibration", options->calibration,
-                  "your brewhouse's measured/predicted IBU ratio, applied to every addition (default 1.0)");
+  add_bitterness_options(ibu, options->bitterness);
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
   ibu->footer(
       "Examples:\n"

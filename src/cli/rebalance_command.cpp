@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <memory>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "engine/rebalance.hpp"
@@ -23,7 +24,7 @@ struct RebalanceOptions {
   std::vector<std::string> lots;  // "VARIETY=ALPHA%[,oil=ML]"
   std::string stock;
   std::string on;
-  std::string model = "tinseth";
+  BitternessOptions bitterness;
   bool json = false;
   std::string write;
 };
@@ -87,10 +88,7 @@ RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
   args.stock = options.stock;
   args.json = options.json;
   args.write = options.write;
-  if (auto model = ibu_model_from(options.model))
-    args.settings.model = *model;
-  else
-    reader.add(fmt::format("--model: \"{}\": unknown model (expected tinseth or rager)", options.model));
+  args.settings = read_bitterness_options(reader, options.bitterness);
   if (options.lots.empty() == options.stock.empty())
     reader.add(options.lots.empty()
                    ? "--lot, --stock: neither given (expected --lot VARIETY=ALPHA% ... or --stock FILE)"
@@ -167,7 +165,7 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   rebalance->add_option("--lot", options->lots, "a lot to brew with: VARIETY=ALPHA%[,oil=ML] (repeatable)");
   rebalance->add_option("--stock", options->stock, "take each variety's lot from this stock file (most on hand)");
   rebalance->add_option("--on", options->on, "brew day, YYYY-MM-DD, to age stock lots to (default: today)");
-  rebalance->add_option("--model", options->model, "tinseth (default) or rager");
+  add_bitterness_options(rebalance, options->bitterness);
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");
   rebalance->add_option("--write", options->write, "save the rebalanced recipe to this file (written atomically)");
   rebalance->footer(
