@@ -6,12 +6,14 @@
 
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
+#include "cli/recipe_file_options.hpp"
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
 #include "engine/blend_plan.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
+#include "io/recipe_file.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "report/blend_report.hpp"
@@ -23,6 +25,7 @@ struct BlendOptions {
   std::string target;
   std::string like;
   std::string recipe;
+  RecipeFileOptions recipe_file;
   std::string stock;
   std::string max_varieties;
   std::string rate;      // g/L, default 4
@@ -44,6 +47,7 @@ struct BlendArgs {
   std::string target;
   std::string like;
   std::string recipe;
+  BeerXmlReadOptions recipe_file;
   std::string stock;
   std::size_t max_varieties = 3;
   double others = 0.25;
@@ -86,6 +90,7 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.target = o.target;
   args.like = o.like;
   args.recipe = o.recipe;
+  args.recipe_file = read_recipe_file_options(reader, o.recipe_file);
   args.stock = o.stock;
   args.json = o.json;
   args.html = o.html;
@@ -135,7 +140,9 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   // 1. Load the catalogs, the stock and the recipe.
   const DataSet data = load_data(globals, console);
   const std::optional<Stock> stock = args.stock.empty() ? std::nullopt : std::optional(load_stock(args.stock));
-  const std::optional<Recipe> recipe = args.recipe.empty() ? std::nullopt : std::optional(load_recipe(args.recipe));
+  const std::optional<RecipeFile> file =
+      args.recipe.empty() ? std::nullopt : std::optional(read_recipe_file(args.recipe, args.recipe_file));
+  const std::optional<Recipe> recipe = file ? std::optional(file->recipe) : std::nullopt;
   // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
   request.target = target_from(args, data);
@@ -152,11 +159,13 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
     return design_blend(request);
   }();
   // 4. Render and write.
+  std::vector<std::string> notes = blend_notes(args, request, candidates.notes, result);
+  if (file) notes.insert(notes.begin(), file->notes.begin(), file->notes.end());
   const BlendReportContext context{&data.lexicon, &request, recipe ? recipe->name : std::string(), stock.has_value(),
-                                   blend_notes(args, request, candidates.notes, result)};
+                                   std::move(notes)};
   if (!args.html.empty()) write_file_atomically(args.html, blend_to_html(result, context, units));
   if (!args.write.empty() && recipe)
-    write_file_atomically(args.write, recipe_to_json(blended_recipe(*recipe, request.plan, result)).dump(2) + "\n");
+    write_recipe_file(args.write, *file, blended_recipe(*recipe, request.plan, result), &data.catalog);
   print_result(
       console, args.json, [&] { return blend_to_json(result, context); },
       [&](std::ostream& out) { render_blend_text(out, result, context, units); });
@@ -169,7 +178,9 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   auto* blend = app.add_subcommand("blend", "design late hops to a target aroma while holding the recipe's IBU");
   blend->add_option("--target", options->target, "aroma to aim at, axis=intensity 0-5 (e.g. \"floral=4,citrus=4\")");
   blend->add_option("--like", options->like, "aim at this variety's aroma (the variety itself is left out)");
-  blend->add_option("--recipe", options->recipe, "recipe file: volume, gravity, IBU; its late hops are replaced");
+  blend->add_option("--recipe", options->recipe,
+                    "recipe file (bine JSON or BeerXML): volume, gravity, IBU; its late hops are replaced");
+  add_recipe_file_options(blend, options->recipe_file);
   blend->add_option("--stock", options->stock, "stock file: blend only lots on hand, within their amounts");
   blend->add_option("--max-varieties", options->max_varieties, "at most this many varieties or lots (default 3)");
   blend->add_option("--rate", options->rate, "total late hops in g/L (default 4g/L)");

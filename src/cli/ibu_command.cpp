@@ -6,8 +6,9 @@
 #include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
+#include "cli/recipe_file_options.hpp"
 #include "engine/recipe_bitterness.hpp"
-#include "io/loaders.hpp"
+#include "io/recipe_file.hpp"
 #include "report/bitterness_report.hpp"
 
 namespace bine::cli {
@@ -15,12 +16,14 @@ namespace {
 
 struct IbuOptions {
   std::string recipe;
+  RecipeFileOptions recipe_file;
   BitternessOptions bitterness;
   bool json = false;
 };
 
 struct IbuArgs {
   std::string recipe;
+  BeerXmlReadOptions recipe_file;
   BitternessSettings settings;
   bool json = false;
 };
@@ -31,6 +34,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   args.recipe = options.recipe;
   args.json = options.json;
   args.settings = read_bitterness_options(reader, options.bitterness);
+  args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
   reader.throw_if_any();
   return args;
 }
@@ -38,12 +42,14 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
 void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs& args) {
   // 1. Load: the catalogs (alpha midpoints for additions without alpha) and the recipe.
   const DataSet data = load_data(globals, console);
-  const Recipe recipe = load_recipe(args.recipe);
+  const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
+  const Recipe& recipe = file.recipe;
   // 2. Compute every addition.
-  const RecipeBitterness bitterness = [&] {
+  RecipeBitterness bitterness = [&] {
     const auto timer = console.time("bitterness");
     return recipe_bitterness(recipe, data.catalog, args.settings);
   }();
+  bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
   // 3. Render.
   print_result(
       console, args.json, [&] { return bitterness_to_json(recipe, bitterness); },
@@ -55,14 +61,16 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
 void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto options = std::make_shared<IbuOptions>();
   auto* ibu = app.add_subcommand("ibu", "a recipe's bitterness (IBU) per addition and in total, with BU:GU");
-  ibu->add_option("RECIPE", options->recipe, "recipe file (JSON)")->required();
+  ibu->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   add_bitterness_options(ibu, options->bitterness);
+  add_recipe_file_options(ibu, options->recipe_file);
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
   ibu->footer(
       "Examples:\n"
       "  bine ibu pale-ale.json\n"
       "  bine ibu pale-ale.json --model rager\n"
       "  bine --units us ibu hazy-ipa.json --json\n"
+      "  bine ibu their-recipe.xml --recipe-name \"Harbour Pale\" --whirlpool-temp 85C\n"
       "Whirlpool additions count their boil-equivalent minutes (Malowicki & Shellhammer 2005);\n"
       "a recipe \"hop_stand\" adds its boil-equivalent minutes to boil and first-wort additions.");
   commands.add(ibu,

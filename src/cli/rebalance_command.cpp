@@ -8,10 +8,12 @@
 #include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
+#include "cli/recipe_file_options.hpp"
 #include "engine/rebalance.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
+#include "io/recipe_file.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
 #include "report/rebalance_report.hpp"
@@ -21,6 +23,7 @@ namespace {
 
 struct RebalanceOptions {
   std::string recipe;
+  RecipeFileOptions recipe_file;
   std::vector<std::string> lots;  // "VARIETY=ALPHA%[,oil=ML]"
   std::string stock;
   std::string on;
@@ -37,6 +40,7 @@ struct LotOption {
 
 struct RebalanceArgs {
   std::string recipe;
+  BeerXmlReadOptions recipe_file;
   std::vector<LotOption> lots;
   std::string stock;
   BrewDay on;
@@ -89,6 +93,7 @@ RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
   args.json = options.json;
   args.write = options.write;
   args.settings = read_bitterness_options(reader, options.bitterness);
+  args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
   if (options.lots.empty() == options.stock.empty())
     reader.add(options.lots.empty()
                    ? "--lot, --stock: neither given (expected --lot VARIETY=ALPHA% ... or --stock FILE)"
@@ -128,7 +133,8 @@ std::vector<ReplacementLot> lots_for_recipe(const std::vector<LotOption>& option
 void run_rebalance(const Console& console, const GlobalOptions& globals, const RebalanceArgs& args) {
   // 1. Load: catalogs, the recipe, and the lots (named, or from the stock file aged to brew day).
   const DataSet data = load_data(globals, console);
-  const Recipe recipe = load_recipe(args.recipe);
+  const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
+  const Recipe& recipe = file.recipe;
   RebalanceContext context;
   context.on = args.on.date;
   context.on_from_clock = args.on.from_clock;
@@ -144,10 +150,11 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
     return rebalance(recipe, context.lots, data.catalog, args.settings);
   }();
   result.notes.insert(result.notes.begin(), stock_notes.begin(), stock_notes.end());
+  result.notes.insert(result.notes.begin(), file.notes.begin(), file.notes.end());
   // 3. Save the recipe to brew, if asked, then render.
   if (!args.write.empty()) {
-    write_file_atomically(args.write, recipe_to_json(result.recipe_after).dump(2) + "\n");
-    result.notes.push_back(fmt::format("rebalanced recipe written to {}", args.write));
+    const std::string written = write_recipe_file(args.write, file, result.recipe_after, &data.catalog);
+    result.notes.push_back(fmt::format("rebalanced recipe written to {}", written));
   }
   print_result(
       console, args.json, [&] { return rebalance_to_json(recipe, context, result); },
@@ -161,18 +168,21 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   auto* rebalance = app.add_subcommand("rebalance",
                                        "new grams for a recipe when the lots' alpha (or oil) differ, "
                                        "holding the recipe's IBU");
-  rebalance->add_option("RECIPE", options->recipe, "recipe file (JSON)")->required();
+  rebalance->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   rebalance->add_option("--lot", options->lots, "a lot to brew with: VARIETY=ALPHA%[,oil=ML] (repeatable)");
   rebalance->add_option("--stock", options->stock, "take each variety's lot from this stock file (most on hand)");
   rebalance->add_option("--on", options->on, "brew day, YYYY-MM-DD, to age stock lots to (default: today)");
   add_bitterness_options(rebalance, options->bitterness);
+  add_recipe_file_options(rebalance, options->recipe_file);
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");
-  rebalance->add_option("--write", options->write, "save the rebalanced recipe to this file (written atomically)");
+  rebalance->add_option("--write", options->write,
+                        "save the rebalanced recipe to this file (written atomically; .xml: BeerXML 1.0)");
   rebalance->footer(
       "Examples:\n"
       "  bine rebalance pale-ale.json --lot \"Keelstone=14.9%\" --lot \"Tidewell=7.9%,oil=1.4\"\n"
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01\n"
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-dec.json\n"
+      "  bine rebalance their-recipe.xml --stock stock.json --write new.xml\n"
       "Boil and first-wort additions hold their IBU; whirlpool and dry-hop additions hold their oil (else\n"
       "grams) and the largest boil addition absorbs the IBU change.");
   commands.add(rebalance, [&globals, options](const Console& console) {
