@@ -96,7 +96,7 @@ TEST_CASE("beerxml: bad values are named with their element path and what was ex
         std::string::npos);
 }
 
-TEST_CASE("beerxml: several RECIPE records need a name; an unknown one lists those present") {
+TEST_CASE("beerxml: several RECIPE records need a name, an unknown one lists those present") {
   const std::string two =
       replace_once(kOneHop, "</RECIPES>", kOneHop.substr(9, kOneHop.size() - 9 - 10) + "</RECIPES>");
   const std::string both = replace_once(two, "<NAME>One</NAME>", "<NAME>Harbour Pale</NAME>");
@@ -143,7 +143,7 @@ TEST_CASE("beerxml write: unchanged recipe writes the file back byte for byte (L
   CHECK(bine::beerxml_with_recipe(read, read.recipe, nullptr) == original);
 }
 
-TEST_CASE("beerxml write: new grams and alpha change only AMOUNT and ALPHA; import again gives them") {
+TEST_CASE("beerxml write: new grams and alpha change only AMOUNT and ALPHA, and import again gives them") {
   const std::string original = read_fixture("rebalance-pale.xml");
   const auto read = bine::parse_beerxml_recipe(original, "pale.xml", {});
   bine::Recipe after = read.recipe;
