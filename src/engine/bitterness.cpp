@@ -17,15 +17,21 @@
 // U = B(G) x (1 - e^(-0.04 (t_boil + t_eq))) / 4.15 (derived method, docs/methods.md#boil-equivalent-minutes).
 // Whirlpool additions have t_boil = 0; boil and first-wort additions add the recipe's hop_stand, if any.
 //
+// A whirlpool addition may give its cooling course (straight to an end temperature, or Newton's law
+// with a constant): t_eq is then the integral of k1(T(t)) / k1(100 C) over the stand, computed by
+// adaptive Simpson quadrature to 1e-12 min (docs/methods.md#cooling-whirlpool). Below 90 C the rates
+// are an extrapolation of the fit beyond the range it was measured over; the addition says so.
+//
 // Simplifications (say them to the brewer): the boil gravity is the recipe's original gravity; the
-// boil is at 100 C (no altitude correction); a stand is held at one temperature (real kettles cool,
-// which the single temperature does not model: measured whirlpool utilization in a production
+// boil is at 100 C (no altitude correction); a whirlpool without a course and the recipe's hop stand
+// are held at one temperature (real kettles cool; measured whirlpool utilization in a production
 // brewery averaged about 30 % of alpha [Justus 2018, MBAA TQ 55(3)], so large kettles can get more
 // than this estimate); first-wort hops count the full boil (common practice); dry hops add 0 IBU.
-// With Rager, a whirlpool addition takes the tanh fit at its boil-equivalent minutes; the fit is
-// 5 % at 0 min, as Rager's table is, so short stands are generous under Rager.
+// With Rager, an addition at or after flame-out scales the fit's 0-minute floor (5.1 %) by
+// k1(T) / k1(100 C) at the temperature it goes in at (ours, docs/methods.md#rager-stand-floor).
 #include "engine/bitterness.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 namespace bine {
@@ -49,14 +55,74 @@ double effective_minutes(const HopAddition& hop, const WortContext& wort) {
       return hop.minutes.value_or(0.0) + wort.stand_equivalent_minutes;
     case HopUse::whirlpool:
       if (!hop.minutes || !hop.temperature_c) return 0.0;
-      return boil_equivalent_minutes(*hop.minutes, *hop.temperature_c);
+      return boil_equivalent_minutes(TemperatureCourse{*hop.temperature_c, *hop.minutes, hop.cooling});
     case HopUse::dry_hop:
       return 0.0;
   }
   return 0.0;
 }
 
+// The wort temperature an addition at or after flame-out goes in at; nullopt for hops that boiled.
+std::optional<double> flame_out_temperature(const HopAddition& hop, const WortContext& wort) {
+  if (hop.use == HopUse::whirlpool) return hop.temperature_c;
+  if (hop.use == HopUse::boil && hop.minutes.value_or(0.0) <= 0.0) return wort.stand_temperature_c;
+  return std::nullopt;
+}
+
+bool sits_below_measured_range(const HopAddition& hop, const WortContext& wort) {
+  if (hop.use == HopUse::whirlpool && hop.minutes && hop.temperature_c)
+    return TemperatureCourse{*hop.temperature_c, *hop.minutes, hop.cooling}.lowest_c() < kLowestMeasuredCelsius;
+  if (hop.use == HopUse::boil || hop.use == HopUse::first_wort)
+    return wort.stand_temperature_c && *wort.stand_temperature_c < kLowestMeasuredCelsius;
+  return false;
+}
+
+// One step of adaptive Simpson quadrature on [a, b] with midpoint m and values fa, fm, fb.
+template <typename F>
+double adaptive_simpson(const F& f, double a, double b, double fa, double fm, double fb, double whole, double tolerance,
+                        int depth) {
+  const double m = 0.5 * (a + b);
+  const double lm = 0.5 * (a + m);
+  const double rm = 0.5 * (m + b);
+  const double flm = f(lm);
+  const double frm = f(rm);
+  const double left = (m - a) / 6.0 * (fa + 4.0 * flm + fm);
+  const double right = (b - m) / 6.0 * (fm + 4.0 * frm + fb);
+  const double delta = left + right - whole;
+  if (depth <= 0 || std::abs(delta) <= 15.0 * tolerance) return left + right + delta / 15.0;
+  return adaptive_simpson(f, a, m, fa, flm, fm, left, 0.5 * tolerance, depth - 1) +
+         adaptive_simpson(f, m, b, fm, frm, fb, right, 0.5 * tolerance, depth - 1);
+}
+
 }  // namespace
+
+double TemperatureCourse::at(double minute) const {
+  const double t = std::clamp(minute, 0.0, std::max(minutes, 0.0));
+  if (!cooling) return start_c;
+  if (cooling->to_c) return minutes > 0.0 ? start_c + (*cooling->to_c - start_c) * t / minutes : start_c;
+  // Newton's law of cooling: T(t) = T_ambient + (T0 - T_ambient) e^(-k t).
+  return cooling->ambient_c + (start_c - cooling->ambient_c) * std::exp(-cooling->per_minute.value_or(0.0) * t);
+}
+
+double boil_equivalent_minutes(const TemperatureCourse& course) {
+  if (course.minutes <= 0.0) return 0.0;
+  if (!course.cooling) return boil_equivalent_minutes(course.minutes, course.start_c);
+  // t_eq = integral_0^t r(T(tau)) d tau, r = k1(T) / k1(100 C) (docs/methods.md#cooling-whirlpool).
+  const auto r = [&](double minute) { return relative_isomerization_rate(course.at(minute)); };
+  const double a = 0.0;
+  const double b = course.minutes;
+  const double fa = r(a);
+  const double fm = r(0.5 * (a + b));
+  const double fb = r(b);
+  const double whole = (b - a) / 6.0 * (fa + 4.0 * fm + fb);
+  return adaptive_simpson(r, a, b, fa, fm, fb, whole, 1e-12, 40);
+}
+
+double rager_flame_out_utilization(double effective_minutes, double celsius) {
+  // U = r x U_R(0) + (U_R(t_eq) - U_R(0)), r = k1(T) / k1(100 C) (ours, docs/methods.md#rager-stand-floor).
+  const double floor = rager_utilization(0.0);
+  return relative_isomerization_rate(celsius) * floor + (rager_utilization(effective_minutes) - floor);
+}
 
 std::string_view to_string(IbuModel model) { return model == IbuModel::rager ? "rager" : "tinseth"; }
 
@@ -71,8 +137,10 @@ WortContext wort_of(const Recipe& recipe) {
   wort.volume_l = recipe.batch_volume_l;
   wort.gravity = recipe.original_gravity;  // simplification: boil gravity = OG
   wort.boil_minutes = recipe.boil_minutes;
-  if (recipe.hop_stand)
+  if (recipe.hop_stand) {
     wort.stand_equivalent_minutes = boil_equivalent_minutes(recipe.hop_stand->minutes, recipe.hop_stand->temperature_c);
+    wort.stand_temperature_c = recipe.hop_stand->temperature_c;
+  }
   return wort;
 }
 
@@ -118,6 +186,7 @@ AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_perc
   AdditionBitterness result;
   if (hop.use == HopUse::dry_hop) return result;  // dry hops add no IBU (below isomerisation)
   result.effective_minutes = effective_minutes(hop, wort);
+  result.rate_extrapolated = sits_below_measured_range(hop, wort);
   const double factors = form_factor(hop, settings) * settings.calibration;
   const double mg_per_litre = alpha_mg_per_litre(hop.grams, alpha_percent, wort.volume_l);
   switch (settings.model) {
@@ -127,7 +196,10 @@ AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_perc
       break;
     case IbuModel::rager:
       // Rager: IBU = W x U x AA x 1000 / (V x (1 + GA)).
-      result.utilization = rager_utilization(result.effective_minutes) * factors;
+      if (const auto celsius = flame_out_temperature(hop, wort))
+        result.utilization = rager_flame_out_utilization(result.effective_minutes, *celsius) * factors;
+      else
+        result.utilization = rager_utilization(result.effective_minutes) * factors;
       result.ibu = result.utilization * mg_per_litre / (1.0 + rager_gravity_adjustment(wort.gravity));
       break;
   }

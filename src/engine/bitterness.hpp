@@ -29,6 +29,7 @@ struct WortContext {
   double gravity = 1.0;
   double boil_minutes = 60.0;
   double stand_equivalent_minutes = 0.0;
+  std::optional<double> stand_temperature_c;  // the hop stand's temperature, when there is one
 };
 WortContext wort_of(const Recipe& recipe);
 
@@ -36,6 +37,7 @@ struct AdditionBitterness {
   double effective_minutes = 0.0;  // boil minutes + boil-equivalent stand minutes
   double utilization = 0.0;        // fraction of alpha acid turned into measured IBU (incl. factors)
   double ibu = 0.0;
+  bool rate_extrapolated = false;  // sat in wort below 90 C, where the k1 fit was not measured
 };
 
 /// IBU of one addition of `hop.grams` at `alpha_percent` (the alpha actually in the kettle).
@@ -64,6 +66,25 @@ double isomerization_rate(double celsius);
 double relative_isomerization_rate(double celsius);
 /// Boil-equivalent minutes of `minutes` held at `celsius`.
 double boil_equivalent_minutes(double minutes, double celsius);
+/// Lowest temperature, C, at which the Malowicki & Shellhammer rates were measured (from memory).
+inline constexpr double kLowestMeasuredCelsius = 90.0;
+
+/// A whirlpool's temperature over its minutes: held at `start_c`, or cooling as `cooling` says.
+struct TemperatureCourse {
+  double start_c = 100.0;
+  double minutes = 0.0;
+  std::optional<Cooling> cooling;
+  /// Wort temperature, C, `minute` minutes after the addition.
+  double at(double minute) const;
+  /// The lowest temperature of the course (at its end: courses only cool).
+  double lowest_c() const { return at(minutes); }
+};
+/// Boil-equivalent minutes of a course: the integral of k1(T(t)) / k1(100 C) over its minutes
+/// (adaptive Simpson quadrature, docs/methods.md#cooling-whirlpool).
+double boil_equivalent_minutes(const TemperatureCourse& course);
+/// Rager's 0-minute floor for an addition at or after flame-out in wort at `celsius`, scaled by
+/// k1(T) / k1(100 C), plus what its boil-equivalent minutes earn (ours, docs/methods.md#rager-stand-floor).
+double rager_flame_out_utilization(double effective_minutes, double celsius);
 
 /// BU:GU = IBU / ((OG - 1) x 1000); 0 when OG is 1.000.
 double bu_gu_ratio(double ibu, double original_gravity);

@@ -24,6 +24,8 @@ inline constexpr Bounds gravity{1.0, 1.2, "original gravity"};
 inline constexpr Bounds boil_time{0.0, 600.0, "boil time"};
 inline constexpr Bounds addition_time{0.0, 60.0 * 24.0 * 60.0, "an addition time"};  // up to 60 days
 inline constexpr Bounds whirlpool_temperature{20.0, 100.0, "a whirlpool temperature"};
+inline constexpr Bounds cooling_constant{0.0, 1.0, "a cooling constant (per minute)", true};  // 1/min: chilled
+inline constexpr Bounds ambient_temperature{-20.0, 60.0, "an ambient temperature"};
 inline constexpr Bounds storage_temperature{-40.0, 40.0, "a storage temperature"};
 inline constexpr Bounds target_ibu{0.0, 200.0, "target IBU"};
 

@@ -256,6 +256,40 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
 // ---------------------------------------------------------------------------------------------
 // Recipe
 
+// A whirlpool addition's "cooling": {"to": "82 C"} or {"constant": 0.01, "ambient": "20 C"}.
+std::optional<Cooling> read_cooling(FieldReader& reader, std::optional<HopUse> use, std::optional<double> start_c,
+                                    Diagnostics& diagnostics) {
+  const json* raw = reader.raw("cooling");
+  if (raw == nullptr || raw->is_null()) return std::nullopt;
+  if (use && use != HopUse::whirlpool) {
+    diagnostics.add(reader.at("cooling"),
+                    fmt::format("only a whirlpool addition takes a cooling course (this one is {})", to_string(*use)));
+    return std::nullopt;
+  }
+  const std::size_t problems_before = diagnostics.lines().size();
+  FieldReader course(*raw, reader.at("cooling"), diagnostics);
+  course.allow_only({"to", "constant", "ambient"});
+  Cooling cooling;
+  cooling.to_c = course.quantity("to", Dimension::temperature, limits::whirlpool_temperature, false);
+  cooling.per_minute = course.quantity("constant", Dimension::number, limits::cooling_constant, false);
+  cooling.ambient_c =
+      course.quantity("ambient", Dimension::temperature, limits::ambient_temperature, false).value_or(20.0);
+  if (!course.ok() || diagnostics.lines().size() != problems_before) return std::nullopt;
+  if (cooling.to_c.has_value() == cooling.per_minute.has_value()) {
+    diagnostics.add(reader.at("cooling"),
+                    "give either \"to\" (the temperature at the end of the stand) or \"constant\" (per minute)");
+    return std::nullopt;
+  }
+  if (cooling.to_c && start_c && *cooling.to_c > *start_c)
+    diagnostics.add(course.at("to"), fmt::format("{:g} C is warmer than the {:g} C the addition goes in at (a "
+                                                 "cooling course only cools)",
+                                                 *cooling.to_c, *start_c));
+  if (cooling.per_minute && course.has("ambient") && start_c && cooling.ambient_c > *start_c)
+    diagnostics.add(course.at("ambient"), fmt::format("{:g} C is warmer than the {:g} C the addition goes in at",
+                                                      cooling.ambient_c, *start_c));
+  return cooling;
+}
+
 Recipe recipe_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
   FieldReader top(document, "", diagnostics);
   top.allow_only({"name", "batch_volume", "original_gravity", "boil_time", "target_ibu", "hop_stand", "hops", "notes"});
@@ -276,7 +310,8 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
   }
   for_each_in_array(top, "hops", true, [&](const json& element, const std::string& pointer) {
     FieldReader reader(element, pointer, diagnostics);
-    reader.allow_only({"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "form", "notes"});
+    reader.allow_only(
+        {"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "cooling", "form", "notes"});
     HopAddition hop;
     hop.variety = reader.text("variety", false).value_or("");
     hop.lot = reader.text("lot", false).value_or("");
@@ -289,6 +324,7 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
     hop.minutes = reader.quantity("time", Dimension::time, limits::addition_time, false);
     hop.temperature_c = reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, false);
     hop.form = read_enum<HopForm>(reader, "form", false, form_from, "pellet, whole or powder");
+    hop.cooling = read_cooling(reader, use, hop.temperature_c, diagnostics);
     if (use == HopUse::boil && !hop.minutes && !reader.has("time") && reader.ok())
       diagnostics.add(reader.at("time"), "is missing (a boil addition needs its minutes before flame-out)");
     if (use == HopUse::whirlpool) {
@@ -433,6 +469,10 @@ json recipe_to_json(const Recipe& recipe) {
     h["use"] = std::string(to_string(hop.use));
     if (hop.minutes) h["time"] = fmt::format("{:.6g} min", *hop.minutes);
     if (hop.temperature_c) h["temperature"] = fmt::format("{:.6g} C", *hop.temperature_c);
+    if (hop.cooling && hop.cooling->to_c) h["cooling"] = {{"to", fmt::format("{:.6g} C", *hop.cooling->to_c)}};
+    if (hop.cooling && hop.cooling->per_minute)
+      h["cooling"] = {{"constant", *hop.cooling->per_minute},
+                      {"ambient", fmt::format("{:.6g} C", hop.cooling->ambient_c)}};
     if (hop.form) h["form"] = std::string(to_string(*hop.form));
     hops.push_back(std::move(h));
   }

@@ -77,6 +77,15 @@ struct Stock {
   std::string source_file;
 };
 
+/// How the wort cools while whirlpool hops sit in it (recipe key "cooling"): straight from the
+/// addition's temperature to `to_c` over its minutes, or by Newton's law of cooling with constant
+/// `per_minute` toward `ambient_c`. Exactly one of `to_c` and `per_minute` is set.
+struct Cooling {
+  std::optional<double> to_c;
+  std::optional<double> per_minute;
+  double ambient_c = 20.0;
+};
+
 /// One hop addition in a recipe.
 struct HopAddition {
   std::string variety;  // empty when only a lot is named
@@ -85,7 +94,8 @@ struct HopAddition {
   std::optional<double> alpha_acid;  // % the recipe was written for
   HopUse use = HopUse::boil;
   std::optional<double> minutes;        // boil minutes, stand minutes, or dry-hop contact time
-  std::optional<double> temperature_c;  // whirlpool only
+  std::optional<double> temperature_c;  // whirlpool only: the temperature it goes in at
+  std::optional<Cooling> cooling;       // whirlpool only: the course after that (none: held)
   std::optional<HopForm> form;
 };
 

@@ -22,6 +22,16 @@ std::string describe_use(HopUse use, std::optional<double> minutes, std::optiona
   return text;
 }
 
+std::string describe_use(const HopAddition& hop, UnitSystem units) {
+  if (hop.use != HopUse::whirlpool || !hop.cooling || !hop.temperature_c)
+    return describe_use(hop.use, hop.minutes, hop.temperature_c, units);
+  std::string text = describe_use(hop.use, hop.minutes, std::nullopt, units);
+  text += " from " + format_temperature(*hop.temperature_c, units);
+  if (hop.cooling->to_c) return text + " to " + format_temperature(*hop.cooling->to_c, units);
+  return text + fmt::format(", cooling k {:.3g}/min to {}", hop.cooling->per_minute.value_or(0.0),
+                            format_temperature(hop.cooling->ambient_c, units));
+}
+
 std::string_view hot_wort_caution() {
   return "Caution: whirlpool and hop-stand wort is near boiling and scalds; keep lids, hoses and hands clear, and "
          "follow your brewhouse's safety rules.";
@@ -85,7 +95,7 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
   for (const auto& line : bitterness.additions) {
     const bool dry = line.use == HopUse::dry_hop;
     table.add_row({std::to_string(line.index + 1), line.variety,
-                   describe_use(line.use, line.minutes, line.temperature_c, units),
+                   describe_use(recipe.hops[line.index], units) + (line.bitterness.rate_extrapolated ? " ~" : ""),
                    dry ? "-" : fmt::format("{:.1f} min", line.bitterness.effective_minutes),
                    format_mass(line.grams, units), std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
                    line.alpha_source == AlphaSource::none ? "-" : fmt::format("{:.1f} %", line.alpha_percent),
@@ -97,13 +107,18 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
   table.render(out);
   out << "  (boil-eq. = minutes counted as boiling; util. = alpha acid turned into IBU, with form and "
          "calibration factors)\n";
+  if (std::any_of(bitterness.additions.begin(), bitterness.additions.end(),
+                  [](const AdditionLine& line) { return line.bitterness.rate_extrapolated; }))
+    out << "  ~ sits in wort below 90 C: the isomerisation rate fit (Malowicki & Shellhammer 2005) is "
+           "extrapolated there\n";
 
   if (recipe.hop_stand)
     out << fmt::format(
         "\nHop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort "
-        "additions (Malowicki & Shellhammer 2005 rates).\n",
+        "additions (Malowicki & Shellhammer 2005 rates{}).\n",
         format_minutes(recipe.hop_stand->minutes), format_temperature(recipe.hop_stand->temperature_c, units),
-        bitterness.wort.stand_equivalent_minutes);
+        bitterness.wort.stand_equivalent_minutes,
+        recipe.hop_stand->temperature_c < kLowestMeasuredCelsius ? ", extrapolated below 90 C" : "");
   if (recipe.target_ibu)
     out << fmt::format("\nTarget {:.1f} IBU; computed {:.1f} IBU ({:+.1f} IBU).\n", *recipe.target_ibu,
                        bitterness.total_ibu, bitterness.total_ibu - *recipe.target_ibu);
@@ -138,6 +153,12 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
     a["use"] = std::string(to_string(line.use));
     a["minutes"] = line.minutes ? json(rounded(*line.minutes, 3)) : json(nullptr);
     a["temperature_c"] = line.temperature_c ? json(rounded(*line.temperature_c, 3)) : json(nullptr);
+    if (const auto& cooling = recipe.hops[line.index].cooling) {
+      if (cooling->to_c) a["cooling"] = {{"to_c", rounded(*cooling->to_c, 3)}};
+      if (cooling->per_minute)
+        a["cooling"] = {{"constant_per_minute", *cooling->per_minute}, {"ambient_c", rounded(cooling->ambient_c, 3)}};
+    }
+    a["rate_extrapolated"] = line.bitterness.rate_extrapolated;
     a["grams"] = rounded(line.grams, 3);
     a["form"] = std::string(to_string(line.form));
     a["form_assumed"] = line.form_assumed;

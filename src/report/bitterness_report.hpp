@@ -21,6 +21,8 @@ std::string format_minutes(double minutes);
 /// "boil 60 min", "whirlpool 20 min at 80 C", "dry-hop 4 d", "first-wort".
 std::string describe_use(HopUse use, std::optional<double> minutes, std::optional<double> temperature_c,
                          UnitSystem units);
+/// The same for a recipe addition, with its cooling course ("whirlpool 25 min from 98 C to 82 C").
+std::string describe_use(const HopAddition& hop, UnitSystem units);
 
 /// Hot-wort caution (whirlpool / hop stand present).
 std::string_view hot_wort_caution();

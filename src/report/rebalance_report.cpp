@@ -56,8 +56,7 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& row : result.additions) {
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
-    table.add_row({std::to_string(row.index + 1), row.variety,
-                   describe_use(row.use, hop.minutes, hop.temperature_c, units),
+    table.add_row({std::to_string(row.index + 1), row.variety, describe_use(hop, units),
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
                    dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
@@ -75,8 +74,7 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
     out << fmt::format(
         "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
         "total holds at {:.1f} IBU.\n",
-        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
-        result.ibu_change_absorbed, result.after.total_ibu);
+        row.index + 1, row.variety, describe_use(hop, units), result.ibu_change_absorbed, result.after.total_ibu);
   } else if (result.whirlpool_scaled) {
     out << fmt::format(
         "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "

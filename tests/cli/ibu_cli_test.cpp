@@ -124,3 +124,25 @@ TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the s
   CHECK(json["total_ibu"].get<double>() == doctest::Approx(4.40).epsilon(3e-3));
   CHECK(json["cautions"].size() == 2);  // hot wort, dogs
 }
+
+TEST_CASE("ibu: a whirlpool that cools 98 C to 82 C over 25 min integrates k1(T(t)) and is marked below 90 C") {
+  // SciPy quad of exp(-11858 (1/T - 1/373.15)) over T = 98 -> 82 C straight in 25 min: t_eq 11.2801 min;
+  // U = 1.0528 x (1 - e^(-0.04 x 11.2801)) / 4.15 = 0.09212; 500 mg/L -> 46.06 IBU. To 92 C: t_eq
+  // 16.4121, U 0.12210, 61.05 IBU (Tinseth; Malowicki & Shellhammer 2005; derived with SciPy).
+  const auto result = run_cli({"ibu", "--json", fixture("bh-cooling-whirlpool.json")});
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  REQUIRE(json["additions"].size() == 2);
+  CHECK(json["additions"][0]["effective_minutes"].get<double>() == doctest::Approx(11.280).epsilon(1e-4));
+  CHECK(json["additions"][0]["ibu"].get<double>() == doctest::Approx(46.06).epsilon(1e-4));
+  CHECK(json["additions"][0]["rate_extrapolated"] == true);
+  CHECK(json["additions"][0]["cooling"]["to_c"].get<double>() == 82.0);
+  CHECK(json["additions"][1]["ibu"].get<double>() == doctest::Approx(61.05).epsilon(1e-4));
+  CHECK(json["additions"][1]["rate_extrapolated"] == false);
+  const auto text = run_cli({"ibu", fixture("bh-cooling-whirlpool.json")});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("whirlpool 25 min from 98 C to 82 C ~") != std::string::npos);
+  CHECK(text.out.find("whirlpool 25 min from 98 C to 92 C ~") == std::string::npos);
+  CHECK(text.out.find("~ sits in wort below 90 C") != std::string::npos);
+}

@@ -36,7 +36,7 @@ BlendCandidate candidate(std::string name, Eigen::VectorXd aroma, double oil, do
 /// 20 L at 1.050, 4 g/L late (80 g), 30 % whirlpool at 80 C for 20 min, 35 IBU, 12 % bittering hop.
 BlendRequest brew() {
   BlendRequest request;
-  request.plan.wort = {20.0, 1.050, 60.0, 0.0};
+  request.plan.wort = {20.0, 1.050, 60.0, 0.0, std::nullopt};
   request.plan.late = bine::late_amount({bine::LateDose::Kind::grams_per_litre, 4.0}, 20.0);
   request.plan.ibu.whirlpool_share = 0.3;
   request.plan.ibu.target_ibu = 35.0;

@@ -46,7 +46,7 @@ std::vector<BlendCandidate> synthetic_candidates(std::size_t count, std::mt19937
 
 BlendRequest base_request() {
   BlendRequest request;
-  request.plan.wort = {20.0, 1.050, 60.0, 0.0};
+  request.plan.wort = {20.0, 1.050, 60.0, 0.0, std::nullopt};
   request.plan.late = bine::late_amount({bine::LateDose::Kind::grams_per_litre, 4.0}, 20.0);
   request.plan.ibu.whirlpool_share = 0.3;
   request.plan.ibu.target_ibu = 35.0;
