@@ -48,7 +48,8 @@ std::optional<Storage> read_storage(OptionReader& reader, const std::string& tex
   return Storage{*temperature, *package};
 }
 
-/// --stability (a % or a class word) or --hsi: how well the variety keeps, with where it came from.
+/// --stability (a % or a class word): how well the variety keeps, with where it came from. The HSI is
+/// a state, never a rate (docs/methods.md#hsi): it does not say how well the variety keeps.
 std::optional<double> read_stability(OptionReader& reader, const AgeOptions& options, std::string& source) {
   if (!options.stability.empty()) {
     if (auto word = stability_of_class(options.stability)) {
@@ -57,12 +58,6 @@ std::optional<double> read_stability(OptionReader& reader, const AgeOptions& opt
     }
     source = "--stability";
     return reader.quantity("--stability", options.stability, Dimension::percent, limits::stability);
-  }
-  if (!options.hsi.empty()) {
-    if (auto hsi = reader.quantity("--hsi", options.hsi, Dimension::number, limits::hsi)) {
-      source = fmt::format("--hsi {:g}: {:.1f} % lost = 110 x log10(HSI / 0.25)", *hsi, percent_lost_from_hsi(*hsi));
-      return 100.0 - percent_lost_from_hsi(*hsi);
-    }
   }
   return std::nullopt;
 }
@@ -76,11 +71,18 @@ AgeArgs parse_age_args(const AgeOptions& options) {
   const auto storage = read_storage(reader, options.stored);
   const auto packaged = reader.date("--packaged", options.packaged);
   const auto on = reader.brew_day(options.on);
-  const int sources = !options.variety.empty() + !options.stability.empty() + !options.hsi.empty();
-  reader.require(sources == 1, fmt::format("--variety, --stability, --hsi: {} given (expected exactly one, to say "
-                                           "how well the variety keeps)",
+  const int sources = !options.variety.empty() + !options.stability.empty();
+  reader.require(sources == 1, fmt::format("--variety, --stability: {} given (expected exactly one, to say how well "
+                                           "the variety keeps; an HSI is a state and does not say it)",
                                            sources));
   const auto stability = read_stability(reader, options, args.query.stability_source);
+  if (!options.hsi.empty())
+    if (auto hsi = reader.quantity("--hsi", options.hsi, Dimension::number, limits::hsi))
+      args.query.notes.push_back(fmt::format(
+          "HSI {:.2f}: about {:.1f} % of the harvest alpha was lost before the analysis (110 x log10(HSI / 0.25)); a "
+          "certificate alpha from the same analysis already includes it, so it is not taken off again, and the HSI "
+          "does not change the storage rate",
+          *hsi, percent_lost_from_hsi(*hsi)));
   if (packaged && on && *packaged > on->date)
     reader.add(fmt::format("--packaged: {}: after the date --on {} (expected a packaging date on or before it)",
                            options.packaged, format_date(on->date)));
@@ -121,14 +123,15 @@ void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   age->add_option("--variety", options->variety, "take the variety's stability from the catalog");
   age->add_option("--stability", options->stability,
                   "% of alpha left after 6 months at 20 C, or good (80), fair (65), poor (50)");
-  age->add_option("--hsi", options->hsi, "a measured Hop Storage Index of the variety");
+  age->add_option("--hsi", options->hsi,
+                  "the lot's measured Hop Storage Index: reports the loss before the analysis (not a rate)");
   age->add_option("--on", options->on, "the day to estimate for, YYYY-MM-DD (default: today)");
   age->add_flag("--json", options->json, "print JSON");
   age->footer(
       "Examples:\n"
       "  bine age --alpha 11.2 --packaged 2025-10-01 --stored \"-1 C,vacuum\" --variety Keelstone --on 2026-06-01\n"
       "  bine age --alpha 6.0 --packaged 2025-12-01 --stored \"0 F,vacuum\" --stability 50 --json\n"
-      "  bine age --alpha 9 --packaged 2026-01-10 --stored \"4 C,sealed\" --hsi 0.31\n"
+      "  bine age --alpha 9 --packaged 2026-01-10 --stored \"4 C,sealed\" --stability 80 --hsi 0.31\n"
       "Model: first-order loss after Garetz (1994); rate halves per 15 C colder; vacuum 0.5, sealed 0.75, open 1.0.");
   commands.add(age,
                [&globals, options](const Console& console) { run_age(console, globals, parse_age_args(*options)); });

@@ -1,9 +1,11 @@
 // bine blend: design late hops (whirlpool + dry hop) to a target aroma while holding the recipe's IBU.
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 #include <memory>
 
+#include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
@@ -27,6 +29,7 @@ struct BlendOptions {
   std::string recipe;
   RecipeFileOptions recipe_file;
   std::string stock;
+  CellarOptions cellar;
   std::string max_varieties;
   std::string rate;      // g/L, default 4
   std::string oil_dose;  // mL/hL
@@ -49,6 +52,7 @@ struct BlendArgs {
   std::string recipe;
   BeerXmlReadOptions recipe_file;
   std::string stock;
+  CellarChoice cellar;
   std::size_t max_varieties = 3;
   double others = 0.25;
   BlendChoices choices;  // IBU, bittering, split, late-hop dose, wort without a recipe
@@ -95,6 +99,9 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.json = o.json;
   args.html = o.html;
   args.write = o.write;
+  args.cellar = read_cellar_options(reader, o.cellar);
+  reader.require(o.cellar.on.empty() || !o.stock.empty(),
+                 fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", o.cellar.on));
   if (auto k = reader.count("--max-varieties", o.max_varieties, limits::blend_varieties, 3)) args.max_varieties = *k;
   BlendChoices& choices = args.choices;
   choices.dose = read_dose(reader, o);
@@ -130,6 +137,10 @@ std::vector<std::string> blend_notes(const BlendArgs& args, const BlendRequest& 
   if (args.choices.no_bittering && !request.plan.kept.empty())
     notes.push_back("--no-bittering: every boil addition is kept as written");
   notes.insert(notes.end(), candidate_notes.begin(), candidate_notes.end());
+  if (!args.cellar.allow_stale &&
+      std::any_of(candidate_notes.begin(), candidate_notes.end(),
+                  [](const std::string& note) { return note.find(" stale ") != std::string::npos; }))
+    notes.push_back("pass --allow-stale to blend stale lots too");
   notes.push_back(fmt::format("searched {} subsets of a pool of {} candidates (of {})", result.subsets_solved,
                               result.pool_size, request.candidates.size()));
   return notes;
@@ -139,17 +150,19 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   const UnitSystem units = globals.unit_system();
   // 1. Load the catalogs, the stock and the recipe.
   const DataSet data = load_data(globals, console);
-  const std::optional<Stock> stock = args.stock.empty() ? std::nullopt : std::optional(load_stock(args.stock));
+  const std::optional<Cellar> cellar =
+      args.stock.empty() ? std::nullopt : std::optional(load_cellar(args.stock, data.catalog, args.cellar));
   const std::optional<RecipeFile> file =
       args.recipe.empty() ? std::nullopt : std::optional(read_recipe_file(args.recipe, args.recipe_file));
   const std::optional<Recipe> recipe = file ? std::optional(file->recipe) : std::nullopt;
   // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
   request.target = target_from(args, data);
-  CandidateSet candidates = blend_candidates(data.catalog, data.lexicon, stock ? &*stock : nullptr, args.like);
+  CandidateSet candidates =
+      blend_candidates(data.catalog, data.lexicon, cellar ? &*cellar : nullptr, args.like, args.cellar.allow_stale);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
-  request.plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr, args.choices,
+  request.plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, cellar ? &*cellar : nullptr, args.choices,
                             BitternessSettings{});
   request.candidates = std::move(candidates.candidates);
   request.max_varieties = args.max_varieties;
@@ -161,8 +174,10 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   // 4. Render and write.
   std::vector<std::string> notes = blend_notes(args, request, candidates.notes, result);
   if (file) notes.insert(notes.begin(), file->notes.begin(), file->notes.end());
-  const BlendReportContext context{&data.lexicon, &request, recipe ? recipe->name : std::string(), stock.has_value(),
-                                   std::move(notes)};
+  if (cellar) notes.insert(notes.begin(), brew_day_line(args.cellar));
+  BlendReportContext context{&data.lexicon,      &request,     recipe ? recipe->name : std::string(),
+                             cellar.has_value(), std::nullopt, std::move(notes)};
+  if (cellar) context.on = cellar->on;
   if (!args.html.empty()) write_file_atomically(args.html, blend_to_html(result, context, units));
   if (!args.write.empty() && recipe)
     write_recipe_file(args.write, *file, blended_recipe(*recipe, request.plan, result), &data.catalog);
@@ -181,7 +196,9 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   blend->add_option("--recipe", options->recipe,
                     "recipe file (bine JSON or BeerXML): volume, gravity, IBU; its late hops are replaced");
   add_recipe_file_options(blend, options->recipe_file);
-  blend->add_option("--stock", options->stock, "stock file: blend only lots on hand, within their amounts");
+  blend->add_option("--stock", options->stock,
+                    "stock file: blend only lots on hand, within their amounts, aged to the brew day");
+  add_cellar_options(blend, options->cellar, true);
   blend->add_option("--max-varieties", options->max_varieties, "at most this many varieties or lots (default 3)");
   blend->add_option("--rate", options->rate, "total late hops in g/L (default 4g/L)");
   blend->add_option("--oil-dose", options->oil_dose, "or fix the oil delivered, in mL of oil per hL of wort");
@@ -201,6 +218,7 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
       "Examples:\n"
       "  bine blend --target \"floral=4,citrus=4\" --recipe pale-ale.json --stock stock.json\n"
       "  bine blend --like Tidewell --recipe pale-ale.json --max-varieties 2 --json\n"
+      "  bine blend --like Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --allow-stale\n"
       "  bine blend --target \"tropical=4,stone-fruit=3\" --volume 20L --ibu 30 --no-bittering --rate 6g/L\n"
       "The blend's aroma is the oil-weighted mean of its hops' profiles (a linear first approximation).");
   commands.add(

@@ -6,6 +6,7 @@
 #include <memory>
 
 #include "cli/bitterness_options.hpp"
+#include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
@@ -26,7 +27,7 @@ struct RebalanceOptions {
   RecipeFileOptions recipe_file;
   std::vector<std::string> lots;  // "VARIETY=ALPHA%[,oil=ML]"
   std::string stock;
-  std::string on;
+  CellarOptions cellar;
   BitternessOptions bitterness;
   bool json = false;
   std::string write;
@@ -43,7 +44,7 @@ struct RebalanceArgs {
   BeerXmlReadOptions recipe_file;
   std::vector<LotOption> lots;
   std::string stock;
-  BrewDay on;
+  CellarChoice cellar;
   BitternessSettings settings;
   bool json = false;
   std::string write;
@@ -101,7 +102,7 @@ RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
                      "them from your cold store)");
   for (const auto& text : options.lots)
     if (auto lot = read_lot(reader, text)) args.lots.push_back(std::move(*lot));
-  if (auto on = reader.brew_day(options.on)) args.on = *on;
+  args.cellar = read_cellar_options(reader, options.cellar);
   reader.throw_if_any();
   return args;
 }
@@ -136,12 +137,13 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
   const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
   const Recipe& recipe = file.recipe;
   RebalanceContext context;
-  context.on = args.on.date;
-  context.on_from_clock = args.on.from_clock;
+  context.on = args.cellar.on.date;
+  context.on_from_clock = args.cellar.on.from_clock;
   context.from_stock = !args.stock.empty();
   std::vector<std::string> stock_notes;
   if (context.from_stock)
-    context.lots = lots_from_stock(recipe, load_stock(args.stock), data.catalog, args.on.date, stock_notes);
+    context.lots = lots_from_stock(recipe, load_cellar(args.stock, data.catalog, args.cellar), args.cellar.allow_stale,
+                                   stock_notes);
   else
     context.lots = lots_for_recipe(args.lots, recipe);
   // 2. Rebalance.
@@ -171,7 +173,7 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   rebalance->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   rebalance->add_option("--lot", options->lots, "a lot to brew with: VARIETY=ALPHA%[,oil=ML] (repeatable)");
   rebalance->add_option("--stock", options->stock, "take each variety's lot from this stock file (most on hand)");
-  rebalance->add_option("--on", options->on, "brew day, YYYY-MM-DD, to age stock lots to (default: today)");
+  add_cellar_options(rebalance, options->cellar, true);
   add_bitterness_options(rebalance, options->bitterness);
   add_recipe_file_options(rebalance, options->recipe_file);
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");

@@ -4,6 +4,7 @@
 
 #include <memory>
 
+#include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "engine/hop_index.hpp"
@@ -20,7 +21,7 @@ struct SwapOptions {
   std::string variety;
   std::string purpose = "aroma";
   std::string stock;
-  std::string on;
+  CellarOptions cellar;
   std::string top;
   bool pairs = false;
   bool json = false;
@@ -28,8 +29,8 @@ struct SwapOptions {
 };
 
 struct SwapArgs {
-  SwapRequest request;  // without catalog data; the stock is attached once loaded
-  BrewDay brew_day;
+  SwapRequest request;  // without catalog data; the cellar is attached once loaded
+  CellarChoice cellar;
   std::string stock;
   bool json = false;
   std::string html;
@@ -48,12 +49,10 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
   else
     reader.add(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
   if (auto top = reader.count("--top", options.top, limits::substitutes_listed, 5)) args.request.top = *top;
-  if (auto on = reader.brew_day(options.on)) {
-    args.brew_day = *on;
-    args.request.on = on->date;
-  }
-  reader.require(options.on.empty() || !options.stock.empty(),
-                 fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.on));
+  args.cellar = read_cellar_options(reader, options.cellar);
+  reader.require(
+      options.cellar.on.empty() || !options.stock.empty(),
+      fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.cellar.on));
   reader.throw_if_any();
   return args;
 }
@@ -62,20 +61,17 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   use_single_thread();  // one query: threads would only add start-up time
   // 1. Load: lexicon and catalogs, and the stock file when given.
   const DataSet data = load_data(globals, console);
-  Stock stock;
+  Cellar cellar;
   if (!args.stock.empty()) {
-    stock = load_stock(args.stock);
-    if (stock.name.empty()) stock.name = args.stock;
-    args.request.stock = &stock;
+    cellar = load_cellar(args.stock, data.catalog, args.cellar);
+    args.request.cellar = &cellar;
   }
   // 2. Compute: vectorise, index, search, re-score, amount factors, pairs.
   SwapResult result = [&] {
     const auto timer = console.time("vectorise, index and rank");
     return find_substitutes(data.catalog, data.lexicon, args.request);
   }();
-  if (result.from_stock && args.brew_day.from_clock)
-    result.notes.push_back(
-        fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(args.brew_day.date)));
+  if (result.from_stock) result.notes.push_back(brew_day_line(args.cellar));
   if (data.catalog.demo)
     result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
   // 3. Render.
@@ -95,7 +91,7 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("VARIETY", options->variety, "the variety to replace (case and accents do not matter)")->required();
   swap->add_option("--for", options->purpose, "the job the hop does: aroma (default) or bittering");
   swap->add_option("--stock", options->stock, "only lots on hand in this stock file, with their alpha today");
-  swap->add_option("--on", options->on, "brew day, YYYY-MM-DD, to age stock lots to (default: today)");
+  add_cellar_options(swap, options->cellar, false);
   swap->add_option("--top", options->top, "how many substitutes to list (1-100, default 5)");
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
@@ -103,10 +99,13 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"
-      "of the missing variety: oil ratio for aroma, alpha ratio for bittering (so IBU holds).\n\n"
+      "of the missing variety: oil ratio for aroma, alpha ratio for bittering (so IBU holds).\n"
+      "With --stock every lot is aged to the brew day; stale lots (below --stale-below of their\n"
+      "certificate alpha, or an oxidised HSI) are ranked below every fresh lot.\n\n"
       "Examples:\n"
       "  bine swap Tidewell\n"
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs\n"
+      "  bine swap Tidewell --stock stock.json --on 2026-12-01 --stale-below 80%\n"
       "  bine swap Keelstone --for bittering --top 3 --json\n"
       "  bine --units us swap Tidewell --html tidewell.html");
   commands.add(swap,

@@ -11,6 +11,7 @@
 
 #include "engine/bitterness.hpp"
 #include "engine/blend_plan.hpp"
+#include "engine/cellar.hpp"
 #include "model/hops.hpp"
 #include "model/lexicon.hpp"
 
@@ -22,7 +23,8 @@ struct BlendCandidate {
   std::string lot;               // empty in catalog mode
   Eigen::VectorXd aroma;         // intensities 0-5 per lexicon axis
   double oil_ml_per_100g = 0.0;  // lot value, else the catalog range midpoint
-  double alpha_percent = 0.0;    // lot certificate value, else the catalog range midpoint
+  double alpha_percent = 0.0;    // lot alpha on the brew day, else the catalog range midpoint
+  std::string alpha_note;        // how alpha_percent was obtained
   HopForm form = HopForm::pellet;
   std::optional<double> on_hand_g;  // stock mode only
 };
@@ -34,12 +36,13 @@ struct CandidateSet {
   std::size_t without_aroma = 0;  // skipped: no aroma data (no intensities, tags or oils)
 };
 
-/// Catalog mode (stock == nullptr): every variety with aroma data whose purpose is not bittering-
-/// only. Stock mode: every lot with grams on hand whose variety the catalog knows. `exclude` names a
-/// variety to leave out (the one the target imitates). Varieties without oil data are skipped and
-/// noted.
-CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
-                              std::string_view exclude);
+/// Catalog mode (cellar == nullptr): every variety with aroma data whose purpose is not bittering-
+/// only, at its catalog midpoints. Stock mode: every lot with grams on hand whose variety the catalog
+/// knows, with its alpha on the cellar's brew day; stale lots only when `allow_stale`. `exclude`
+/// names a variety to leave out (the one the target imitates). Varieties without oil data are
+/// skipped and noted.
+CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
+                              std::string_view exclude, bool allow_stale = false);
 
 /// The aroma to aim at and the weight of each axis in the objective.
 struct BlendTarget {

@@ -3,6 +3,7 @@
 // lot's own oil and alpha where it has them (docs/methods.md#blend-profile). What is left out is
 // noted, one note per reason.
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
@@ -21,7 +22,7 @@ std::string join_names(const std::vector<std::string>& names) {
 
 /// The names left out, by reason.
 struct LeftOut {
-  std::vector<std::string> no_aroma, no_oil, unknown;
+  std::vector<std::string> no_aroma, no_oil, unknown, stale;
 };
 
 /// Sets the candidate's aroma from the variety; false (and noted) when it has no aroma data.
@@ -49,25 +50,32 @@ void add_catalog_candidates(const Catalog& catalog, const Lexicon& lexicon, cons
       continue;
     }
     candidate.oil_ml_per_100g = variety.total_oil->mid();
-    candidate.alpha_percent = variety.alpha_acid ? variety.alpha_acid->mid() : 0.0;
+    const CatalogAlpha alpha = catalog_alpha(variety);
+    candidate.alpha_percent = alpha.alpha_percent.value_or(0.0);
+    candidate.alpha_note = alpha.note;
     set.candidates.push_back(std::move(candidate));
   }
 }
 
-void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock& stock,
-                          const std::string& excluded, CandidateSet& set, LeftOut& left_out) {
-  for (const auto& lot : stock.lots) {
-    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0) continue;
+void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar& cellar,
+                          const std::string& excluded, bool allow_stale, CandidateSet& set, LeftOut& left_out) {
+  for (const auto& aged : cellar.lots) {
+    const Lot& lot = aged.lot;
+    if (!aged.on_hand()) continue;
     if (!excluded.empty() && fold_name(lot.variety) == excluded) continue;
     const Variety* variety = find_variety(catalog, lot.variety);
-    const std::string label = fmt::format("{} ({})", lot.variety, lot.lot);
+    const std::string label = fmt::format("{} ({})", lot.variety, aged.code);
     if (variety == nullptr) {
       left_out.unknown.push_back(label);
       continue;
     }
+    if (aged.stale && !allow_stale) {
+      left_out.stale.push_back(fmt::format("{}: {}", label, aged.stale_reason));
+      continue;
+    }
     BlendCandidate candidate;
     candidate.variety = variety->name;
-    candidate.lot = lot.lot;
+    candidate.lot = aged.lot.lot;
     candidate.form = lot.form;
     candidate.on_hand_g = lot.on_hand_g;
     if (!take_aroma(*variety, lexicon, label, candidate, left_out)) continue;
@@ -78,23 +86,24 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
       continue;
     }
     candidate.oil_ml_per_100g = *oil;
-    candidate.alpha_percent =
-        lot.alpha_acid ? *lot.alpha_acid : (variety->alpha_acid ? variety->alpha_acid->mid() : 0.0);
+    candidate.alpha_percent = aged.alpha_today.value_or(0.0);
+    candidate.alpha_note = aged.alpha_note;
+    if (aged.stale) candidate.alpha_note += "; stale (" + aged.stale_reason + "), allowed";
     set.candidates.push_back(std::move(candidate));
   }
 }
 
 }  // namespace
 
-CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
-                              std::string_view exclude) {
+CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
+                              std::string_view exclude, bool allow_stale) {
   CandidateSet set;
   LeftOut left_out;
   const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
-  if (stock == nullptr)
+  if (cellar == nullptr)
     add_catalog_candidates(catalog, lexicon, excluded, set, left_out);
   else
-    add_stock_candidates(catalog, lexicon, *stock, excluded, set, left_out);
+    add_stock_candidates(catalog, lexicon, *cellar, excluded, allow_stale, set, left_out);
   set.without_aroma = left_out.no_aroma.size();
   if (!left_out.no_aroma.empty())
     set.notes.push_back(
@@ -105,6 +114,10 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   if (!left_out.unknown.empty())
     set.notes.push_back(fmt::format("{} lots skipped: variety not in any catalog ({})", left_out.unknown.size(),
                                     join_names(left_out.unknown)));
+  if (!left_out.stale.empty())
+    set.notes.push_back(fmt::format("{} stale {} left out ({})", left_out.stale.size(),
+                                    left_out.stale.size() == 1 ? "lot" : "lots",
+                                    fmt::format("{}", fmt::join(left_out.stale, "; "))));
   return set;
 }
 

@@ -20,28 +20,35 @@
 namespace bine {
 namespace {
 
-const Lot* lot_for(const HopAddition& hop, const Stock* stock) {
-  if (stock == nullptr) return nullptr;
-  if (!hop.lot.empty()) return find_lot(*stock, hop.lot);
-  for (const auto& lot : stock->lots)
-    if (fold_name(lot.variety) == fold_name(hop.variety) && lot.on_hand_g && *lot.on_hand_g > 0.0) return &lot;
+/// The addition's lot: the one it names, else the first of its variety on hand.
+const CellarLot* lot_for(const HopAddition& hop, const Cellar* cellar) {
+  if (cellar == nullptr) return nullptr;
+  if (!hop.lot.empty()) return cellar->find(hop.lot);
+  for (const CellarLot* lot : cellar->lots_of(hop.variety))
+    if (lot->on_hand()) return lot;
   return nullptr;
 }
 
+/// The alpha on the brew day of the lot the charge is drawn from, else the addition's own.
+std::optional<double> charge_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar) {
+  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today) return lot->alpha_today;
+  return addition_alpha(hop, catalog, cellar);
+}
+
 /// The charge from a variety the brewer named: its first lot on hand, else the catalog's values.
-BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, const Stock* stock, double minutes) {
+BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, const Cellar* cellar, double minutes) {
   const Variety& known = require_variety(catalog, named.name, named.named_by);
   HopAddition probe;
   probe.variety = known.name;
   BitteringHop hop;
   hop.variety = known.name;
   hop.minutes = minutes;
-  if (const Lot* lot = lot_for(probe, stock)) {
-    hop.lot = lot->lot;
-    hop.form = lot->form;
-    hop.on_hand_g = lot->on_hand_g;
+  if (const CellarLot* lot = lot_for(probe, cellar)) {
+    hop.lot = lot->lot.lot;
+    hop.form = lot->lot.form;
+    hop.on_hand_g = lot->lot.on_hand_g;
   }
-  const auto alpha = addition_alpha(probe, catalog, stock);
+  const auto alpha = charge_alpha(probe, catalog, cellar);
   if (!alpha)
     throw InputError(fmt::format("{}: {}: no alpha acid known", named.named_by, known.name), {Remedy::add_alpha_acid});
   hop.alpha_percent = *alpha;
@@ -49,18 +56,19 @@ BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, c
 }
 
 /// The charge from the recipe's own addition, with its lot's amount on hand when it is in stock.
-BitteringHop bittering_as_written(const Recipe& recipe, std::size_t index, const Catalog& catalog, const Stock* stock) {
+BitteringHop bittering_as_written(const Recipe& recipe, std::size_t index, const Catalog& catalog,
+                                  const Cellar* cellar) {
   const HopAddition& hop = recipe.hops[index];
   BitteringHop bittering;
   bittering.variety = hop.variety;
   bittering.lot = hop.lot;
-  bittering.alpha_percent = *addition_alpha(hop, catalog, stock);
+  bittering.alpha_percent = *charge_alpha(hop, catalog, cellar);
   bittering.form = hop.form.value_or(HopForm::pellet);
   bittering.minutes = hop.minutes.value_or(recipe.boil_minutes);
   bittering.use = hop.use;
-  if (const Lot* lot = lot_for(hop, stock)) {
-    bittering.lot = lot->lot;
-    bittering.on_hand_g = lot->on_hand_g;
+  if (const CellarLot* lot = lot_for(hop, cellar)) {
+    bittering.lot = lot->lot.lot;
+    bittering.on_hand_g = lot->lot.on_hand_g;
   }
   return bittering;
 }
@@ -75,7 +83,7 @@ struct RecipeAsWritten {
 
 /// Computes every addition's IBU; takes the whirlpool stand and dry-hop time into `plan`. Throws
 /// InputError listing every addition whose alpha acid is not known.
-RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, const Stock* stock, BlendPlan& plan) {
+RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, const Cellar* cellar, BlendPlan& plan) {
   RecipeAsWritten written;
   written.ibu.assign(recipe.hops.size(), 0.0);
   bool have_whirlpool = false;
@@ -87,7 +95,7 @@ RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, con
       if (!plan.dry_hop_minutes) plan.dry_hop_minutes = hop.minutes;
       continue;
     }
-    const auto alpha = addition_alpha(hop, catalog, stock);
+    const auto alpha = addition_alpha(hop, catalog, cellar);
     if (!alpha) {
       problems.push_back(fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)",
                                      recipe.source_file, i, hop.variety));
@@ -144,13 +152,13 @@ std::optional<std::size_t> largest_boil_addition(const Recipe& recipe, const std
 /// The bittering charge for a recipe: the named variety at the largest addition's time, else that
 /// addition itself. Throws InputError when there is neither.
 BitteringHop recipe_bittering(const Recipe& recipe, std::optional<std::size_t> largest, const Catalog& catalog,
-                              const Stock* stock, const BlendChoices& choices) {
+                              const Cellar* cellar, const BlendChoices& choices) {
   if (!choices.bittering.name.empty()) {
     const double minutes =
         largest && recipe.hops[*largest].minutes ? *recipe.hops[*largest].minutes : recipe.boil_minutes;
-    return bittering_from(choices.bittering, catalog, stock, minutes);
+    return bittering_from(choices.bittering, catalog, cellar, minutes);
   }
-  if (largest) return bittering_as_written(recipe, *largest, catalog, stock);
+  if (largest) return bittering_as_written(recipe, *largest, catalog, cellar);
   throw InputError(fmt::format("{}: /hops: no boil addition to use as the bittering charge", recipe.source_file),
                    {Remedy::name_bittering_variety, Remedy::no_bittering});
 }
@@ -167,7 +175,7 @@ void keep_boil_additions(const Recipe& recipe, const std::vector<double>& ibu, B
 }
 
 /// Without a recipe: the wort and the IBU as the brewer gave them, a 60-minute boil.
-BlendPlan plan_without_recipe(const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
+BlendPlan plan_without_recipe(const Catalog& catalog, const Cellar* cellar, const BlendChoices& choices,
                               const BitternessSettings& settings) {
   BlendPlan plan;
   plan.bitterness = settings;
@@ -178,7 +186,7 @@ BlendPlan plan_without_recipe(const Catalog& catalog, const Stock* stock, const 
   plan.ibu.target_source = IbuTargetSource::given;
   if (choices.split) plan.ibu.whirlpool_share = *choices.split;
   plan.late = late_amount(choices.dose, plan.wort.volume_l);
-  if (!choices.no_bittering) plan.bittering = bittering_from(choices.bittering, catalog, stock, 60.0);
+  if (!choices.no_bittering) plan.bittering = bittering_from(choices.bittering, catalog, cellar, 60.0);
   return plan;
 }
 
@@ -189,26 +197,26 @@ LateAmount late_amount(const LateDose& dose, double volume_l) {
   return {LateAmount::Kind::grams, dose.value * volume_l};
 }
 
-std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Stock* stock) {
+std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar) {
   if (hop.alpha_acid) return hop.alpha_acid;
-  if (const Lot* lot = lot_for(hop, stock); lot != nullptr && lot->alpha_acid) return lot->alpha_acid;
+  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today) return lot->alpha_today;
   if (const Variety* variety = find_variety(catalog, hop.variety); variety != nullptr && variety->alpha_acid)
     return variety->alpha_acid->mid();
   return std::nullopt;
 }
 
-BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
+BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Cellar* cellar, const BlendChoices& choices,
                      const BitternessSettings& settings) {
-  if (recipe == nullptr) return plan_without_recipe(catalog, stock, choices, settings);
+  if (recipe == nullptr) return plan_without_recipe(catalog, cellar, choices, settings);
   BlendPlan plan;
   plan.bitterness = settings;
   plan.wort = wort_of(*recipe);
-  const RecipeAsWritten written = read_additions(*recipe, catalog, stock, plan);
+  const RecipeAsWritten written = read_additions(*recipe, catalog, cellar, plan);
   plan.ibu = recipe_budget(*recipe, choices, written);
   plan.late = late_amount(choices.dose, plan.wort.volume_l);
   const std::optional<std::size_t> largest = largest_boil_addition(*recipe, written.ibu);
   if (!choices.no_bittering) {
-    plan.bittering = recipe_bittering(*recipe, largest, catalog, stock, choices);
+    plan.bittering = recipe_bittering(*recipe, largest, catalog, cellar, choices);
     plan.bittering_index = largest;
   }
   keep_boil_additions(*recipe, written.ibu, plan);

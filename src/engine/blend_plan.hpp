@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "engine/bitterness.hpp"
+#include "engine/cellar.hpp"
 #include "model/hops.hpp"
 
 namespace bine {
@@ -94,14 +95,14 @@ struct BlendPlan {
   std::optional<double> dry_hop_minutes;
 };
 
-/// The alpha acid of a recipe addition: its own value, else its lot's or the first lot of its variety
-/// in stock, else the catalog midpoint. nullopt when none is known.
-std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Stock* stock);
+/// The alpha acid of a recipe addition: its own value, else its lot's (or the first lot of its variety
+/// on hand) on the cellar's brew day, else the catalog midpoint. nullopt when none is known.
+std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar);
 
 /// Plans a blend for `recipe` (or, without one, for the wort the choices describe). Throws
 /// InputError naming the recipe field, or the variety as the choices name it, when something needed
 /// is missing.
-BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Stock* stock, const BlendChoices& choices,
+BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Cellar* cellar, const BlendChoices& choices,
                      const BitternessSettings& settings);
 
 /// The recipe with its late additions replaced by the blend and the bittering charge re-solved.

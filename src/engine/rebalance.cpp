@@ -21,7 +21,6 @@
 #include <cmath>
 #include <map>
 
-#include "engine/storage_loss.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -215,72 +214,65 @@ RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot
   return result;
 }
 
-std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& stock, const Catalog& catalog, Date on,
+namespace {
+
+/// A stock lot as the lot rebalancing brews with.
+ReplacementLot replacement_from(const std::string& variety, const CellarLot& c, std::size_t count) {
+  ReplacementLot lot;
+  lot.variety = variety;
+  lot.lot_code = c.code;
+  lot.form = c.lot.form;
+  lot.total_oil = c.lot.total_oil;
+  lot.on_hand_g = c.lot.on_hand_g;
+  lot.certificate_alpha = c.lot.alpha_acid;
+  lot.packaged = c.lot.packaged;
+  lot.storage = c.lot.storage;
+  lot.lots_of_variety = count;
+  lot.alpha_percent = *c.alpha_today;
+  lot.days = c.days;
+  lot.remaining = c.remaining;
+  lot.stability_percent = c.stability_percent;
+  lot.stability_source = c.stability_source;
+  lot.alpha_note = c.alpha_note;
+  lot.hsi_note = c.hsi_note;
+  lot.aged = c.basis == AlphaBasis::aged;
+  lot.stale = c.stale;
+  lot.stale_reason = c.stale_reason;
+  return lot;
+}
+
+}  // namespace
+
+std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& cellar, bool allow_stale,
                                             std::vector<std::string>& notes) {
   std::vector<ReplacementLot> chosen;
-  std::vector<std::string> problems;
   std::vector<std::string> seen;
   for (const auto& hop : recipe.hops) {
     if (hop.variety.empty()) continue;
     const std::string folded = fold_name(hop.variety);
     if (std::find(seen.begin(), seen.end(), folded) != seen.end()) continue;
     seen.push_back(folded);
-
-    const Lot* best = nullptr;
-    std::size_t best_index = 0;
+    const CellarLot* best = nullptr;
     std::size_t count = 0;
-    for (std::size_t i = 0; i < stock.lots.size(); ++i) {
-      const Lot& lot = stock.lots[i];
-      if (fold_name(lot.variety) != folded) continue;
-      if (lot.packaged && *lot.packaged > on)
-        problems.push_back(fmt::format("{}: /lots/{}/packaged: {} is after the brew day {}", stock.source_file, i,
-                                       format_date(*lot.packaged), format_date(on)));
-      if (!lot.alpha_acid) continue;
-      ++count;
-      if (best == nullptr || lot.on_hand_g.value_or(0.0) > best->on_hand_g.value_or(0.0)) {
-        best = &lot;
-        best_index = i;
+    for (const CellarLot* c : cellar.lots_of(hop.variety)) {
+      if (!c->lot.alpha_acid) continue;
+      if (c->stale && !allow_stale) {
+        notes.push_back(fmt::format("lot {} of {} is stale ({}); left out", c->code, hop.variety, c->stale_reason));
+        continue;
       }
+      ++count;
+      if (best == nullptr || c->lot.on_hand_g.value_or(0.0) > best->lot.on_hand_g.value_or(0.0)) best = c;
     }
     if (best == nullptr) {
-      notes.push_back(
-          fmt::format("no stock lot of {} with a certificate alpha; its additions are kept as written", hop.variety));
+      notes.push_back(fmt::format(
+          "no usable stock lot of {} with a certificate alpha; its additions are kept as written", hop.variety));
       continue;
     }
-    ReplacementLot lot;
-    lot.variety = hop.variety;
-    lot.lot_code = best->lot.empty() ? fmt::format("lot {}", best_index + 1) : best->lot;
-    lot.form = best->form;
-    lot.total_oil = best->total_oil;
-    lot.on_hand_g = best->on_hand_g;
-    lot.certificate_alpha = best->alpha_acid;
-    lot.packaged = best->packaged;
-    lot.storage = best->storage;
-    lot.lots_of_variety = count;
-    lot.alpha_percent = *best->alpha_acid;
-    if (best->hsi) {
-      lot.stability_percent = 100.0 - percent_lost_from_hsi(*best->hsi);
-      lot.stability_source = fmt::format("from its HSI {:.2f}", *best->hsi);
-    } else if (const Variety* variety = find_variety(catalog, hop.variety); variety != nullptr && variety->stability) {
-      lot.stability_percent = *variety->stability;
-      lot.stability_source = "catalog";
-    } else {
-      lot.stability_percent = kStabilityFair;
-      lot.stability_source = "no catalog value; fair class assumed";
-    }
-    if (best->packaged && best->storage) {
-      lot.days = std::max(0L, days_between(*best->packaged, on));
-      const AgedAlpha aged = age_alpha(
-          StorageHistory{*best->alpha_acid, *lot.stability_percent, *best->storage, static_cast<double>(lot.days)});
-      lot.alpha_percent = aged.alpha_percent;
-      lot.remaining = aged.remaining;
-    } else {
+    if (best->basis != AlphaBasis::aged)
       notes.push_back(
-          fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", lot.lot_code));
-    }
-    chosen.push_back(std::move(lot));
+          fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", best->code));
+    chosen.push_back(replacement_from(hop.variety, *best, count));
   }
-  if (!problems.empty()) throw InputError(problems, {Remedy::later_brew_day});
   return chosen;
 }
 

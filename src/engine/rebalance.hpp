@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "engine/bitterness.hpp"
+#include "engine/cellar.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/hops.hpp"
 
@@ -26,7 +27,12 @@ struct ReplacementLot {
   long days = 0;
   double remaining = 1.0;
   std::optional<double> stability_percent;
-  std::string stability_source;     // "catalog", "HSI 0.31", "fair class (no catalog value)"
+  std::string stability_source;  // "catalog", "fair class assumed, no catalog value"
+  std::string alpha_note;        // how the alpha on brew day was obtained (cellar.hpp)
+  std::string hsi_note;          // the lot's HSI state in words, if measured
+  bool aged = false;             // alpha aged from packaging to the brew day
+  bool stale = false;            // allowed in although stale
+  std::string stale_reason;
   std::size_t lots_of_variety = 1;  // lots of this variety in stock; the largest is chosen
 };
 
@@ -76,9 +82,9 @@ bool recipe_uses_variety(const Recipe& recipe, std::string_view variety);
 RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
                           const BitternessSettings& settings);
 
-/// For each variety the recipe uses, the stock lot with most on hand, its alpha aged to `on`.
-/// Throws InputError (`STOCK: /lots/N/packaged: ... after --on ...`) for a lot packaged after `on`.
-std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Stock& stock, const Catalog& catalog, Date on,
+/// For each variety the recipe uses, the cellar lot with most on hand, its alpha on the cellar's brew
+/// day; stale lots are left out (and noted) unless `allow_stale`.
+std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& cellar, bool allow_stale,
                                             std::vector<std::string>& notes);
 
 }  // namespace bine

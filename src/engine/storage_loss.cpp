@@ -8,11 +8,11 @@
 //   SF = 1.0 open / not airtight, 0.75 sealed with air, 0.5 vacuum or inert gas (from memory).
 // By construction 180 days at 20 C open leave exactly (100 - PL) %, the variety's stability.
 //
-// The variety property PL comes from the catalog's "stability" (% remaining, PL = 100 - it), from a
-// word class (good ~80 %, fair ~65 %, poor ~50 % remaining; common practice), or from a measured Hop
-// Storage Index through % lost = 110 x log10(HSI / 0.25) [Garetz 1994, after Nickerson & Likens
-// 1979, J. Am. Soc. Brew. Chem. 37:184]. We read that relation as the 6-month loss the HSI predicts,
-// i.e. the HSI stands in for the variety's stability; an HSI at or below 0.25 (fresh) means no loss.
+// The variety property PL comes from the catalog's "stability" (% remaining, PL = 100 - it) or from a
+// word class (good ~80 %, fair ~65 %, poor ~50 % remaining; common practice). A measured Hop Storage
+// Index is a state, not a rate: % lost = 110 x log10(HSI / 0.25) [Garetz 1994, after Nickerson &
+// Likens 1979, J. Am. Soc. Brew. Chem. 37:184] is what the sample had lost when it was analysed
+// (0 at or below HSI 0.25: fresh). It never sets PL (docs/methods.md#hsi; engine/cellar.cpp).
 //
 // Limits: TF is a fit for cold storage; above 20 C it is extrapolated (flagged). The model ignores
 // light, moisture and the loss before packaging.

@@ -22,7 +22,8 @@ double loss_rate_per_day(double percent_lost_six_months);
 double temperature_factor(double celsius);
 /// SF: 1.0 open, 0.75 sealed with air, 0.5 vacuum or inert gas (values from memory).
 double package_factor(Package package);
-/// % of alpha lost from a measured Hop Storage Index: 110 x log10(HSI / 0.25), floored at 0.
+/// % of alpha the sample had lost when analysed, from its Hop Storage Index: 110 x log10(HSI / 0.25),
+/// floored at 0. A state on the analysis date, never a storage rate.
 double percent_lost_from_hsi(double hsi);
 
 /// The storage history of one lot.

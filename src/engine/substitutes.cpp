@@ -26,7 +26,6 @@
 #include <cmath>
 
 #include "engine/blend_solver.hpp"
-#include "engine/storage_loss.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -36,10 +35,8 @@ namespace {
 
 struct Candidate {
   const Variety* variety = nullptr;
-  const Lot* lot = nullptr;
+  const CellarLot* lot = nullptr;
   Descriptors descriptors;
-  std::optional<double> alpha_today;
-  std::string alpha_note;
 };
 
 std::optional<double> mid_of(const std::optional<Range>& range) {
@@ -47,44 +44,18 @@ std::optional<double> mid_of(const std::optional<Range>& range) {
   return range->mid();
 }
 
-// The lot's alpha on the brew day (Garetz 1994 via storage_loss), or the certificate value with a note.
-void age_lot(Candidate& candidate, Date on, const SubstituteSettings& settings) {
-  const Lot& lot = *candidate.lot;
-  if (!lot.alpha_acid) {
-    candidate.alpha_note = "no lot alpha; catalog range used";
-    return;
-  }
-  if (!lot.packaged || !lot.storage) {
-    candidate.alpha_today = lot.alpha_acid;
-    candidate.alpha_note = "certificate value (no packaged date or storage to age it)";
-    return;
-  }
-  StorageHistory history;
-  history.alpha_percent = *lot.alpha_acid;
-  history.storage = *lot.storage;
-  history.days = static_cast<double>(std::max(0L, days_between(*lot.packaged, on)));
-  if (lot.hsi) {
-    history.stability_percent = 100.0 - percent_lost_from_hsi(*lot.hsi);
-    candidate.alpha_note = "aged from the measured HSI";
-  } else if (candidate.variety->stability) {
-    history.stability_percent = *candidate.variety->stability;
-    candidate.alpha_note = "aged from the variety's storage stability";
-  } else {
-    history.stability_percent = settings.default_stability;
-    candidate.alpha_note =
-        fmt::format("aged assuming fair stability ({:.0f} % left after 6 months)", settings.default_stability);
-  }
-  candidate.alpha_today = age_alpha(history).alpha_percent;
-}
-
 Substitute make_substitute(const Candidate& c, const Descriptors& missing, const Variety& missing_variety,
                            const Vectorizer& vectorizer, const std::vector<std::string>& axes,
                            const SubstituteSettings& settings) {
   Substitute s;
   s.variety = *c.variety;
-  if (c.lot) s.lot = *c.lot;
-  s.alpha_today = c.alpha_today;
-  s.alpha_note = c.alpha_note;
+  if (c.lot) {
+    s.lot = c.lot->lot;
+    s.alpha_today = c.lot->alpha_today;
+    s.alpha_note = c.lot->alpha_note;
+    s.stale = c.lot->stale;
+    s.stale_reason = c.lot->stale_reason;
+  }
   const PairSimilarity sim = vectorizer.similarity(missing, c.descriptors);
   s.similarity = sim.percent();
   s.confidence = sim.confidence;
@@ -97,11 +68,12 @@ Substitute make_substitute(const Candidate& c, const Descriptors& missing, const
   std::optional<double> offered;
   std::string offered_from = "catalog";
   if (aroma_job) {
-    offered = (c.lot && c.lot->total_oil) ? c.lot->total_oil : mid_of(c.variety->total_oil);
-    if (c.lot && c.lot->total_oil) offered_from = "lot";
+    offered = (c.lot && c.lot->lot.total_oil) ? c.lot->lot.total_oil : mid_of(c.variety->total_oil);
+    if (c.lot && c.lot->lot.total_oil) offered_from = "lot";
   } else {
-    offered = c.alpha_today ? c.alpha_today : mid_of(c.variety->alpha_acid);
-    if (c.alpha_today) offered_from = "lot, today";
+    const bool from_lot = c.lot && c.lot->alpha_today && c.lot->basis != AlphaBasis::catalog_midpoint;
+    offered = from_lot ? c.lot->alpha_today : mid_of(c.variety->alpha_acid);
+    offered_from = from_lot ? "lot, on the brew day" : "catalog midpoint";
   }
   s.amount_factor = amount_factor(vectorizer.purpose(), wanted, offered);
   const std::string_view what = aroma_job ? "oil" : "alpha";
@@ -194,14 +166,14 @@ IndexedCatalog index_catalog(const Catalog& catalog, const Vectorizer& vectorize
 /// The catalog positions that may answer, and, with stock, the lots on hand of each.
 struct Eligible {
   std::vector<std::int64_t> ids;
-  std::vector<std::vector<const Lot*>> lots_of;  // by catalog position; empty without stock
+  std::vector<std::vector<const CellarLot*>> lots_of;  // by catalog position; empty without stock
 };
 
 Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request,
                             std::vector<std::string>& notes) {
   const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
   Eligible eligible;
-  if (!request.stock) {
+  if (!request.cellar) {
     for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
       if (!is_missing(catalog.varieties[i])) eligible.ids.push_back(static_cast<std::int64_t>(i));
     if (eligible.ids.empty())
@@ -209,19 +181,19 @@ Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, cons
     return eligible;
   }
   eligible.lots_of.resize(catalog.varieties.size());
-  for (const auto& lot : request.stock->lots) {
-    const Variety* variety = find_variety(catalog, lot.variety);
+  for (const auto& lot : request.cellar->lots) {
+    const Variety* variety = find_variety(catalog, lot.lot.variety);
     if (!variety) {
-      notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
+      notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.code, lot.lot.variety));
       continue;
     }
-    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
+    if (!lot.on_hand() || is_missing(*variety)) continue;
     eligible.lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
   }
   for (std::size_t i = 0; i < eligible.lots_of.size(); ++i)
     if (!eligible.lots_of[i].empty()) eligible.ids.push_back(static_cast<std::int64_t>(i));
   if (eligible.ids.empty())
-    throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}", request.stock->source_file,
+    throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}", request.cellar->source_file,
                                  missing.name),
                      {Remedy::add_stock, Remedy::whole_catalog});
   return eligible;
@@ -233,32 +205,29 @@ std::vector<Candidate> candidates_near(const Catalog& catalog, const IndexedCata
                                        const SwapRequest& request, const SubstituteSettings& settings) {
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
-  const auto hits = indexed.index.search_subset(query.data(), request.stock ? k : k + 1, eligible.ids);
+  const auto hits = indexed.index.search_subset(query.data(), request.cellar ? k : k + 1, eligible.ids);
   std::vector<Candidate> candidates;
   for (const auto& hit : hits) {
     const auto i = static_cast<std::size_t>(hit.id);
     const Variety& variety = catalog.varieties[i];
-    if (!request.stock) {
-      candidates.push_back({&variety, nullptr, indexed.described[i], std::nullopt, {}});
+    if (!request.cellar) {
+      candidates.push_back({&variety, nullptr, indexed.described[i]});
       continue;
     }
-    for (const Lot* lot : eligible.lots_of[i]) {
-      Candidate c{&variety, lot, {}, std::nullopt, {}};
-      age_lot(c, request.on, settings);
-      c.descriptors = vectorizer.describe(variety, *lot, c.alpha_today);
-      candidates.push_back(std::move(c));
-    }
+    for (const CellarLot* lot : eligible.lots_of[i])
+      candidates.push_back({&variety, lot, vectorizer.describe(variety, lot->lot, lot->alpha_today)});
   }
   return candidates;
 }
 
-/// Positions of `ranked` best first: similarity, then variety name, then lot code.
+/// Positions of `ranked` best first: fresh before stale, then similarity, variety name, lot code.
 std::vector<std::size_t> ranking_order(const std::vector<Substitute>& ranked) {
   std::vector<std::size_t> order(ranked.size());
   for (std::size_t i = 0; i < order.size(); ++i) order[i] = i;
   std::sort(order.begin(), order.end(), [&](std::size_t x, std::size_t y) {
     const Substitute& a = ranked[x];
     const Substitute& b = ranked[y];
+    if (a.stale != b.stale) return b.stale;
     if (a.similarity != b.similarity) return a.similarity > b.similarity;
     if (a.variety.name != b.variety.name) return a.variety.name < b.variety.name;
     return (a.lot ? a.lot->lot : "") < (b.lot ? b.lot->lot : "");
@@ -282,8 +251,10 @@ std::vector<SubstitutePair> fit_pairs(const std::vector<Candidate>& candidates, 
       const Descriptors mixed = blend_descriptors(a.descriptors, b.descriptors, shares[0]);
       const double similarity = vectorizer.similarity(wanted, mixed).percent();
       if (similarity < best_single + settings.min_pair_gain) continue;
-      pairs.push_back(
-          {{a.variety->name, b.variety->name}, {a.lot ? a.lot->lot : "", b.lot ? b.lot->lot : ""}, shares, similarity});
+      pairs.push_back({{a.variety->name, b.variety->name},
+                       {a.lot ? a.lot->lot.lot : "", b.lot ? b.lot->lot.lot : ""},
+                       shares,
+                       similarity});
     }
   }
   std::sort(pairs.begin(), pairs.end(), [](const SubstitutePair& p, const SubstitutePair& q) {
@@ -302,10 +273,10 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
   result.missing = missing;
   result.purpose = request.purpose;
   result.axes = lexicon.axis_names();
-  result.from_stock = request.stock != nullptr;
-  if (request.stock) {
-    result.stock_name = request.stock->name;
-    result.on = request.on;
+  result.from_stock = request.cellar != nullptr;
+  if (request.cellar) {
+    result.stock_name = request.cellar->name;
+    result.on = request.cellar->on;
   }
   // 1. Vectorise the catalog and index it.
   const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);

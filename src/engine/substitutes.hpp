@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "engine/aroma_vector.hpp"
+#include "engine/cellar.hpp"
 #include "engine/hop_index.hpp"
 #include "model/hops.hpp"
 #include "model/lexicon.hpp"
@@ -23,10 +24,9 @@ struct SubstituteSettings {
   std::size_t candidate_multiplier = 4;  // ... or this many times --top
   double difference_threshold = 0.75;    // aroma intensity gap (0-5 scale) worth a word
   std::size_t max_differences = 3;
-  std::size_t pair_pool = 12;       // best single substitutes tried pairwise for --pairs
-  double min_pair_share = 0.10;     // a pair whose smaller share is below this is one hop, really
-  double min_pair_gain = 0.5;       // similarity points a pair must gain over the best single
-  double default_stability = 65.0;  // % left after 6 months when a variety has none ("fair")
+  std::size_t pair_pool = 12;    // best single substitutes tried pairwise for --pairs
+  double min_pair_share = 0.10;  // a pair whose smaller share is below this is one hop, really
+  double min_pair_gain = 0.5;    // similarity points a pair must gain over the best single
 };
 
 /// What to replace, for what job, from where.
@@ -35,8 +35,7 @@ struct SwapRequest {
   SwapPurpose purpose = SwapPurpose::aroma;
   std::size_t top = 5;
   bool pairs = false;
-  const Stock* stock = nullptr;  // restrict to lots on hand when set
-  Date on{};                     // brew day, for the lots' alpha today
+  const Cellar* cellar = nullptr;  // restrict to lots on hand, aged to its brew day, when set
 };
 
 /// One aroma axis where the substitute differs noticeably (delta = substitute - missing, 0-5 scale).
@@ -49,8 +48,10 @@ struct AromaDifference {
 struct Substitute {
   Variety variety;
   std::optional<Lot> lot;
-  std::optional<double> alpha_today;         // lot alpha aged to the brew day (%)
-  std::string alpha_note;                    // how alpha_today was obtained, or why it was not aged
+  std::optional<double> alpha_today;  // lot alpha aged to the brew day (%)
+  std::string alpha_note;             // how alpha_today was obtained, or why it was not aged
+  bool stale = false;                 // ranked below every fresh lot
+  std::string stale_reason;
   double similarity = 0.0;                   // 0-100
   double confidence = 0.0;                   // 0-1
   std::optional<double> amount_factor;       // grams of substitute per gram of the missing variety
@@ -84,8 +85,8 @@ struct SwapResult {
   std::vector<std::string> notes;  // skipped lots, missing data, assumptions
 };
 
-/// Ranks substitutes for request.missing. Throws InputError for an unknown variety and Infeasible
-/// when nothing can be ranked (no other variety, or no stocked lot of a catalog variety).
+/// Ranks substitutes for request.missing (stale lots below every fresh one). Throws InputError for an unknown variety
+/// and Infeasible when nothing can be ranked (no other variety, or no stocked lot of a catalog variety).
 SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
                             const SubstituteSettings& settings = {});
 

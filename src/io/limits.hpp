@@ -38,5 +38,6 @@ inline constexpr Bounds pellet_factor{0.5, 2.0, "the pellet factor"};
 inline constexpr Bounds calibration{0.0, 5.0, "a calibration factor", true};
 inline constexpr Bounds blend_varieties{1.0, 6.0, "varieties in a blend"};
 inline constexpr Bounds substitutes_listed{1.0, 100.0, "substitutes listed"};
+inline constexpr Bounds stale_below{0.0, 100.0, "a share of the certificate alpha (%)"};
 
 }  // namespace bine::limits

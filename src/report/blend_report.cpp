@@ -31,6 +31,14 @@ std::string_view source_words(IbuTargetSource source) {
   return "";
 }
 
+/// How the part's alpha was obtained (the candidate's note), or its value when the request has none.
+std::string alpha_note_of(const BlendPart& part, const BlendReportContext& context) {
+  const auto& candidates = context.request->candidates;
+  if (part.candidate < candidates.size() && !candidates[part.candidate].alpha_note.empty())
+    return candidates[part.candidate].alpha_note;
+  return fmt::format("{:.2f} %", part.alpha_percent);
+}
+
 /// The amounts, the whirlpool stand, and one row per part.
 void render_parts(std::ostream& out, const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
   const BlendPlan& plan = context.request->plan;
@@ -49,6 +57,9 @@ void render_parts(std::ostream& out, const BlendResult& result, const BlendRepor
                    format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
                    fmt::format("{:.1f} IBU", part.whirlpool_ibu)});
   blend.render(out, "  ");
+  out << (context.on ? fmt::format("  alpha on the brew day, {}:\n", format_date(*context.on)) : "  alpha:\n");
+  for (const auto& part : result.parts)
+    out << fmt::format("    {}: {}\n", part_name(part), alpha_note_of(part, context));
 }
 
 /// Target versus blend on every axis the target or the blend uses.
@@ -163,7 +174,8 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"whirlpool_g", rounded(part.whirlpool_g, 2)},
            {"dry_hop_g", rounded(part.dry_hop_g, 2)},
            {"whirlpool_ibu", rounded(part.whirlpool_ibu, 2)},
-           {"alpha_acid", rounded(part.alpha_percent, 2)}};
+           {"alpha_acid", rounded(part.alpha_percent, 2)},
+           {"alpha_note", alpha_note_of(part, context)}};
     if (!part.lot.empty()) v["lot"] = part.lot;
     if (part.left_g) v["left_g"] = rounded(*part.left_g, 2);
     varieties.push_back(v);
@@ -199,6 +211,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"total_ibu", rounded(result.total_ibu, 2)},
            {"notes", context.notes},
            {"cautions", blend_cautions(result)}};
+  doc["on"] = context.on ? json(format_date(*context.on)) : json(nullptr);
   return doc;
 }
 

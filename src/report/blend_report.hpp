@@ -2,6 +2,7 @@
 // Rendering a blend: text tables for the terminal, one JSON document, and a self-contained HTML page
 // with an inline SVG chart (grouped bars of target versus blend per aroma axis).
 #include <nlohmann/json.hpp>
+#include <optional>
 #include <ostream>
 #include <string>
 #include <vector>
@@ -20,6 +21,7 @@ struct BlendReportContext {
   const BlendRequest* request = nullptr;
   std::string recipe_name;  // empty without --recipe
   bool stock_mode = false;
+  std::optional<Date> on;  // the brew day the stock lots were aged to (stock mode)
   std::vector<std::string> notes;
 };
 

@@ -28,6 +28,8 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
   if (lot.total_oil) text += fmt::format(", oil {:.2f} mL/100 g", *lot.total_oil);
   if (lot.form) text += fmt::format(", {}", to_string(*lot.form));
   if (lot.on_hand_g) text += fmt::format(", {} on hand", format_mass(*lot.on_hand_g, units));
+  if (!lot.hsi_note.empty()) text += "; " + lot.hsi_note;
+  if (lot.stale) text += fmt::format("; stale ({}), used as allowed", lot.stale_reason);
   return text;
 }
 
@@ -121,6 +123,8 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
     l["stability_source"] = lot.stability_source;
     l["total_oil"] = lot.total_oil ? json(rounded(*lot.total_oil, 4)) : json(nullptr);
     l["on_hand_g"] = lot.on_hand_g ? json(rounded(*lot.on_hand_g, 3)) : json(nullptr);
+    l["stale"] = lot.stale;
+    if (lot.stale) l["stale_reason"] = lot.stale_reason;
     lots.push_back(std::move(l));
   }
   out["lots"] = std::move(lots);

@@ -116,7 +116,11 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
     item["on_hand_g"] =
         (s.lot && s.lot->on_hand_g) ? nlohmann::json(rounded(*s.lot->on_hand_g, 1)) : nlohmann::json(nullptr);
     item["alpha_today_percent"] = s.alpha_today ? nlohmann::json(rounded(*s.alpha_today, 2)) : nlohmann::json(nullptr);
-    if (s.lot) item["alpha_note"] = s.alpha_note;
+    if (s.lot) {
+      item["alpha_note"] = s.alpha_note;
+      item["stale"] = s.stale;
+      if (s.stale) item["stale_reason"] = s.stale_reason;
+    }
     item["similarity"] = rounded(s.similarity, 1);
     item["confidence"] = rounded(s.confidence, 2);
     item["amount_factor"] = s.amount_factor ? nlohmann::json(rounded(*s.amount_factor, 3)) : nlohmann::json(nullptr);
@@ -171,13 +175,21 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
     if (r.from_stock) {
       row.push_back(s.lot ? s.lot->lot : "");
       row.push_back((s.lot && s.lot->on_hand_g) ? format_mass(*s.lot->on_hand_g, units) : "n/a");
-      row.push_back(s.alpha_today ? fmt::format("{:.1f} %", *s.alpha_today) : "n/a");
+      row.push_back(s.alpha_today ? fmt::format("{:.1f} %{}", *s.alpha_today, s.stale ? " (stale)" : "") : "n/a");
     }
     row.insert(row.end(), {fmt::format("{:.0f}/100", s.similarity), fmt::format("{:.0f} %", 100.0 * s.confidence),
                            factor_text(s), words_text(s, r)});
     table.add_row(row);
   }
   table.render(out);
+  if (r.from_stock) {
+    out << "\nLots on the brew day\n";
+    for (const auto& s : r.substitutes)
+      if (s.lot) {
+        out << fmt::format("  {}: {}\n", name_of(s), s.alpha_note);
+        if (s.stale) out << fmt::format("    stale: {}; ranked below every fresh lot\n", s.stale_reason);
+      }
+  }
 
   out << "\nChemistry side by side (catalog ranges)\n";
   TextTable chem({{"Variety", Align::left},

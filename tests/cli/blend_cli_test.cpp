@@ -15,7 +15,7 @@ using bine::test::run_cli;
 
 TEST_CASE("bine blend from stock holds the recipe's 38 IBU and stays within stock") {
   const auto run = run_cli({"blend", "--target", "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock",
-                            example("stock.json"), "--json"});
+                            example("stock.json"), "--on", "2026-12-01", "--json"});
   INFO(run.err);
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
@@ -31,6 +31,30 @@ TEST_CASE("bine blend from stock holds the recipe's 38 IBU and stays within stoc
     CHECK(v["left_g"].get<double>() >= 0.0);
   }
   CHECK(grams == doctest::Approx(80.0).epsilon(1e-3));  // 4 g/L (default) x 20 L
+}
+
+TEST_CASE("blend from a warm store promises the IBU with the lots' alpha on the brew day, not the certificate") {
+  // tests/fixtures/cellar-warm-stock.json: every lot packaged 2026-08-01, sealed at 12 C; brew day
+  // 2026-10-20 (80 days). Rookstack (catalog stability 55 %), certificate 12.0 %: Garetz 1994 by hand,
+  // k = ln(100/55)/180 = 0.0033213 per day, TF = 2^((12-20)/15) = 0.69096, SF 0.75,
+  // exp(-0.0033213 x 0.69096 x 0.75 x 80) = exp(-0.13769) = 0.87137 -> 10.456 %.
+  const bine::test::TempDir dir;
+  const std::string written = (dir.path() / "brew.json").string();
+  const auto run = run_cli(
+      {"blend", "--target", "citrus=4,tropical=3", "--recipe", bine::test::fixture("cellar-warm-ipa.json"), "--stock",
+       bine::test::fixture("cellar-warm-stock.json"), "--on", "2026-10-20", "--json", "--write", written});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const auto doc = nlohmann::json::parse(run.out);
+  CHECK(doc["on"] == "2026-10-20");
+  CHECK(doc["bittering"]["lot"] == "RK-1");
+  CHECK(doc["bittering"]["alpha_acid"].get<double>() == doctest::Approx(10.456).epsilon(1e-3));
+  for (const auto& v : doc["varieties"]) CHECK(v["alpha_note"].get<std::string>().find("80 days") != std::string::npos);
+  CHECK(std::abs(doc["total_ibu"].get<double>() - 38.0) <= 0.05);  // the recipe's target_ibu
+  // The written recipe carries the alpha of the brew day, so it reads back at the IBU promised.
+  const auto ibu = run_cli({"ibu", written, "--json"});
+  REQUIRE(ibu.status == 0);
+  CHECK(std::abs(nlohmann::json::parse(ibu.out)["total_ibu"].get<double>() - 38.0) <= 0.05);
 }
 
 TEST_CASE("bine blend JSON is byte-identical across runs") {

@@ -66,5 +66,5 @@ TEST_CASE("rebalance --json is byte-identical run to run") {
 TEST_CASE("blend --json is byte-identical run to run (faiss search and QP included)") {
   check_twice({"blend", "--target", "floral=4,citrus=4", "--recipe", kExamples + "/pale-ale.json", "--json"});
   check_twice({"blend", "--like", "Tidewell", "--recipe", kExamples + "/pale-ale.json", "--stock",
-               kExamples + "/stock.json", "--max-varieties", "2", "--json"});
+               kExamples + "/stock.json", "--on", "2026-12-01", "--max-varieties", "2", "--json"});
 }

@@ -99,6 +99,26 @@ TEST_CASE("age: 180 days at 20 C open leave the catalog stability (fixture catal
   CHECK(json["remaining"].get<double>() == doctest::Approx(0.70).epsilon(1e-5));
 }
 
+TEST_CASE("age --hsi reports a state and never changes the rate (docs/methods.md#hsi check value)") {
+  // docs/methods.md#hsi, derived from Garetz 1994: certificate 9.0 % with HSI 0.31 analysed
+  // 2026-01-10, sealed at 4 C, stability 80 %, on 2026-12-01 (325 days) -> 7.79 %; the HSI itself
+  // says 110 x log10(0.31 / 0.25) = 10.3 % was lost before the analysis.
+  const std::vector<std::string> base{"age",        "--alpha",     "9",  "--packaged", "2026-01-10", "--stored",
+                                      "4 C,sealed", "--stability", "80", "--on",       "2026-12-01", "--json"};
+  std::vector<std::string> with_hsi = base;
+  with_hsi.insert(with_hsi.end(), {"--hsi", "0.31"});
+  const auto measured = run_cli(with_hsi);
+  const auto plain = run_cli(base);
+  INFO(measured.err);
+  REQUIRE(measured.status == 0);
+  REQUIRE(plain.status == 0);
+  const auto a = nlohmann::json::parse(measured.out);
+  const auto b = nlohmann::json::parse(plain.out);
+  CHECK(a["alpha_acid"].get<double>() == doctest::Approx(7.79).epsilon(1e-3));
+  CHECK(a["alpha_acid"].get<double>() == b["alpha_acid"].get<double>());
+  CHECK(a["notes"].dump().find("10.3 %") != std::string::npos);
+}
+
 TEST_CASE("age rejects a packaging date after --on, bad storage and missing stability, exit 2") {
   const auto future = run_cli({"age", "--alpha", "6", "--packaged", "2026-12-02", "--stored", "-2 C,vacuum",
                                "--stability", "50", "--on", "2026-12-01"});

@@ -99,12 +99,17 @@ TEST_CASE("a renamed copy given with --catalog is the first substitute, bitterin
 TEST_CASE("swap text honours --units us, and --html writes a page with charts") {
   const bine::test::TempDir dir;
   const fs::path html = dir.path() / "swap.html";
-  const auto run =
-      run_cli({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--html", html.string()});
+  const auto run = run_cli({"--units", "us", "swap", "Tidewell", "--stock", kStock, "--on", "2026-12-01", "--top", "20",
+                            "--html", html.string()});
   REQUIRE(run.status == 0);
-  // Seawick SW-25-021 is "3 lb" and Warmstrand WS-25-040 "12 oz" on hand in the stock file.
+  // Seawick SW-25-021 is "3 lb" and Warmstrand WS-25-040 "12 oz" on hand in the stock file. WS-25-040
+  // (6.8 %, packaged 2025-05-02, -2 C vacuum, stability 52 %) keeps 68.4 % by 2026-12-01 (Garetz 1994,
+  // hand: k = ln(100/52)/180 = 0.0036329, TF 2^(-22/15) = 0.36182, SF 0.5, 578 d: exp(-0.37988) = 0.6840;
+  // below 75 %): stale, so it is listed last, marked.
   CHECK(run.out.find("3.00 lb") != std::string::npos);
   CHECK(run.out.find("12.00 oz") != std::string::npos);
+  CHECK(run.out.find("(stale)") != std::string::npos);
+  CHECK(run.out.find("stale: ") != std::string::npos);
   CHECK(run.out.find(" kg") == std::string::npos);
   CHECK(run.out.find("hop creep") != std::string::npos);
   const std::string page = bine::test::slurp(html);

@@ -160,7 +160,8 @@ TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future 
   stock.lots = {small, big};
   const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60)});
   std::vector<std::string> notes;
-  const auto lots = bine::lots_from_stock(recipe, stock, test_catalog(), *bine::parse_date("2026-12-01"), notes);
+  const auto lots = bine::lots_from_stock(
+      recipe, bine::age_cellar(stock, test_catalog(), *bine::parse_date("2026-12-01")), false, notes);
   REQUIRE(lots.size() == 1);
   CHECK(lots[0].lot_code == "B-big");
   CHECK(lots[0].lots_of_variety == 2);
@@ -169,7 +170,7 @@ TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future 
   CHECK(lots[0].alpha_percent == doctest::Approx(5.31).epsilon(1e-3));
 
   try {
-    bine::lots_from_stock(recipe, stock, test_catalog(), *bine::parse_date("2025-11-30"), notes);
+    bine::age_cellar(stock, test_catalog(), *bine::parse_date("2025-11-30"));
     FAIL("expected InputError");
   } catch (const bine::InputError& e) {
     REQUIRE(e.lines().size() == 1);

@@ -70,9 +70,9 @@ TEST_CASE("with stock only lots on hand of catalog varieties are ranked") {
 
   bine::SwapRequest request;
   request.missing = "Tidewell";
-  request.stock = &stock;
+  const bine::Cellar cellar = bine::age_cellar(stock, data.catalog, *bine::parse_date("2026-12-01"));
+  request.cellar = &cellar;
   request.top = 100;
-  request.on = *bine::parse_date("2026-12-01");
   const auto result = bine::find_substitutes(data.catalog, data.lexicon, request);
   CHECK(result.from_stock);
   std::set<std::string> seen;
@@ -131,8 +131,8 @@ TEST_CASE("amount factors by hand") {
   lot.storage = bine::Storage{-18.0, bine::Package::vacuum};
   lot.on_hand_g = 1000.0;
   stock.lots.push_back(lot);
-  request.stock = &stock;
-  request.on = *bine::parse_date("2026-01-01");
+  const bine::Cellar cellar = bine::age_cellar(stock, catalog, *bine::parse_date("2026-01-01"));
+  request.cellar = &cellar;
   bitter = bine::find_substitutes(catalog, data.lexicon, request);
   REQUIRE(bitter.substitutes.size() == 1);
   CHECK(*bitter.substitutes[0].alpha_today == doctest::Approx(5.31).epsilon(2e-3));

@@ -1,0 +1,39 @@
+#pragma once
+// The options that say how the cold store is read on the brew day (--on, --stale-below,
+// --allow-stale), bound and read the same way by every command that takes a stock file, and the one
+// place a stock file becomes a Cellar (engine/cellar.hpp).
+#include <CLI/CLI.hpp>
+#include <string>
+
+#include "cli/option_values.hpp"
+#include "engine/cellar.hpp"
+
+namespace bine::cli {
+
+struct CellarOptions {
+  std::string on;
+  std::string stale_below;
+  bool allow_stale = false;
+};
+
+/// What the options give.
+struct CellarChoice {
+  BrewDay on;
+  CellarSettings settings;
+  bool allow_stale = false;
+};
+
+/// Adds --on, --stale-below and --allow-stale to `command`. `allow_stale_option`: whether the
+/// command leaves stale lots out (blend, rebalance) and so offers --allow-stale.
+void add_cellar_options(CLI::App* command, CellarOptions& options, bool allow_stale_option);
+
+/// The choice the options give; problems go to `reader`.
+CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& options);
+
+/// The stock file aged to the brew day.
+Cellar load_cellar(const std::string& stock_file, const Catalog& catalog, const CellarChoice& choice);
+
+/// "lots aged to 2026-12-01 (today; pass --on DATE to reproduce)": the line every stock output prints.
+std::string brew_day_line(const CellarChoice& choice);
+
+}  // namespace bine::cli
