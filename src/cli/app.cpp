@@ -6,7 +6,9 @@
 
 #include <CLI/CLI.hpp>
 #include <algorithm>
+#include <cerrno>
 #include <cstdlib>
+#include <cstring>
 #include <exception>
 #include <new>
 
@@ -92,7 +94,9 @@ DataSet load_data(const GlobalOptions& globals, const Console& console) {
   return load_data(globals.data, globals.catalogs);
 }
 
-int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
+namespace {
+
+int run_command_line(int argc, char** argv, std::ostream& out, std::ostream& err) {
   try {
     CLI::App app{std::string(kAbout)};
     app.name("bine");
@@ -138,6 +142,22 @@ int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
     return 70;
   }
   return 0;
+}
+
+}  // namespace
+
+int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
+  const int status = run_command_line(argc, argv, out, err);
+  // Output that never arrived (a full disk, a closed stdout) is a failure, not a success.
+  out.flush();
+  if (out) return status;
+  // The stream keeps no error code; errno still holds the failed write's when it is one of these.
+  const int saved = errno;
+  const bool known =
+      saved == ENOSPC || saved == EBADF || saved == EIO || saved == EPIPE || saved == EFBIG || saved == EDQUOT;
+  err << "bine: error: the output could not be written"
+      << (known ? std::string(" (") + std::strerror(saved) + ")" : std::string()) << '\n';
+  return status != 0 ? status : kExitOutputFailed;
 }
 
 }  // namespace bine::cli

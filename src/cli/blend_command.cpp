@@ -178,6 +178,8 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   BlendReportContext context{&data.lexicon,      &request,     recipe ? recipe->name : std::string(),
                              cellar.has_value(), std::nullopt, std::move(notes)};
   if (cellar) context.on = cellar->on;
+  // The blended recipe is checked by the recipe loader's bounds before anything is shown or written.
+  if (recipe) checked_recipe_text(blended_recipe(*recipe, request.plan, result), "the blended recipe");
   if (!args.html.empty()) write_file_atomically(args.html, blend_to_html(result, context, units));
   if (!args.write.empty() && recipe)
     write_recipe_file(args.write, *file, blended_recipe(*recipe, request.plan, result), &data.catalog);
@@ -212,8 +214,10 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   blend->add_option("--volume", options->volume, "batch volume without --recipe (e.g. 20L)");
   blend->add_option("--gravity", options->gravity, "boil gravity without --recipe (default 1.050)");
   blend->add_flag("--json", options->json, "print JSON (canonical units: g, C, min)");
-  blend->add_option("--html", options->html, "write a self-contained HTML report with a chart");
-  blend->add_option("--write", options->write, "write the recipe with the new late hops and bittering charge");
+  blend->add_option("--html", options->html, "write a self-contained HTML report with a chart")
+      ->check(output_file_name());
+  blend->add_option("--write", options->write, "write the recipe with the new late hops and bittering charge")
+      ->check(output_file_name());
   blend->footer(
       "Examples:\n"
       "  bine blend --target \"floral=4,citrus=4\" --recipe pale-ale.json --stock stock.json\n"

@@ -39,6 +39,17 @@ class CommandTable {
   std::vector<std::pair<CLI::App*, Run>> commands_;
 };
 
+/// For options that name a file bine writes (--write, --html): refuses an empty name (`--write ''`),
+/// which would otherwise read as "not given".
+inline CLI::Validator output_file_name() {
+  return CLI::Validator(
+      [](std::string& value) {
+        return value.empty() ? std::string("an empty file name (expected a file name such as out.json)")
+                             : std::string();
+      },
+      "FILE");
+}
+
 void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);

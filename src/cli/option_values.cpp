@@ -5,13 +5,25 @@
 #include <charconv>
 #include <chrono>
 #include <cmath>
+#include <ctime>
 
 #include "model/errors.hpp"
 #include "model/names.hpp"
 
 namespace bine::cli {
 
-Date today() { return std::chrono::floor<std::chrono::days>(std::chrono::system_clock::now()); }
+// The brewer's calendar date: local time (TZ), not UTC, so at 00:30 in UTC+14 it is already today.
+Date today() {
+  ::tzset();  // localtime_r need not read TZ itself (POSIX)
+  const std::time_t now = std::time(nullptr);
+  std::tm local{};
+  if (::localtime_r(&now, &local) == nullptr)
+    return std::chrono::floor<std::chrono::days>(std::chrono::system_clock::now());
+  const std::chrono::year_month_day date{std::chrono::year(local.tm_year + 1900),
+                                         std::chrono::month(static_cast<unsigned>(local.tm_mon + 1)),
+                                         std::chrono::day(static_cast<unsigned>(local.tm_mday))};
+  return std::chrono::sys_days(date);
+}
 
 std::optional<double> OptionReader::quantity(std::string_view option, std::string_view text, Dimension dimension,
                                              const Bounds& bounds) {
@@ -68,7 +80,11 @@ void OptionReader::require(bool condition, std::string line) {
 }
 
 void OptionReader::throw_if_any() const {
-  if (!problems_.empty()) throw InputError(problems_);
+  if (problems_.empty()) return;
+  if (problems_.size() <= kMaxProblemLines) throw InputError(problems_);
+  std::vector<std::string> lines(problems_.begin(), problems_.begin() + kMaxProblemLines);
+  lines.push_back(more_problems_line("", problems_.size() - kMaxProblemLines));
+  throw InputError(std::move(lines));
 }
 
 }  // namespace bine::cli

@@ -19,7 +19,7 @@ struct BrewDay {
   bool from_clock = false;  // --on not given: the output says so, so the run can be repeated
 };
 
-/// Today's calendar date.
+/// Today's local calendar date (the TZ of the brewer's machine, not UTC).
 Date today();
 
 class OptionReader {

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <map>
 #include <memory>
 
 #include "cli/bitterness_options.hpp"
@@ -115,6 +116,7 @@ std::vector<ReplacementLot> lots_for_recipe(const std::vector<LotOption>& option
       used.push_back(hop.variety);
   OptionReader reader;
   std::vector<ReplacementLot> lots;
+  std::map<std::string, int> times_given;  // folded variety -> --lot options naming it so far
   for (const auto& [text, lot] : options) {
     if (!recipe_uses_variety(recipe, lot.variety)) {
       const std::string hint = did_you_mean(lot.variety, used);
@@ -122,9 +124,10 @@ std::vector<ReplacementLot> lots_for_recipe(const std::vector<LotOption>& option
                              hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
       continue;
     }
-    for (const auto& earlier : lots)
-      if (fold_name(earlier.variety) == fold_name(lot.variety))
-        reader.add(fmt::format("--lot: \"{}\": {} is given twice (expected one --lot per variety)", text, lot.variety));
+    // Said once per variety however often it is repeated.
+    if (++times_given[fold_name(lot.variety)] == 2)
+      reader.add(
+          fmt::format("--lot: \"{}\": {} is given more than once (expected one --lot per variety)", text, lot.variety));
     lots.push_back(lot);
   }
   reader.throw_if_any();
@@ -153,7 +156,9 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
   }();
   result.notes.insert(result.notes.begin(), stock_notes.begin(), stock_notes.end());
   result.notes.insert(result.notes.begin(), file.notes.begin(), file.notes.end());
-  // 3. Save the recipe to brew, if asked, then render.
+  // 3. Check the result by the recipe loader's bounds (nothing is shown or written otherwise), save
+  //    it if asked, then render.
+  checked_recipe_text(result.recipe_after, "the rebalanced recipe");
   if (!args.write.empty()) {
     const std::string written = write_recipe_file(args.write, file, result.recipe_after, &data.catalog);
     result.notes.push_back(fmt::format("rebalanced recipe written to {}", written));
@@ -177,8 +182,10 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   add_bitterness_options(rebalance, options->bitterness);
   add_recipe_file_options(rebalance, options->recipe_file);
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");
-  rebalance->add_option("--write", options->write,
-                        "save the rebalanced recipe to this file (written atomically; .xml: BeerXML 1.0)");
+  rebalance
+      ->add_option("--write", options->write,
+                   "save the rebalanced recipe to this file (written atomically; .xml: BeerXML 1.0)")
+      ->check(output_file_name());
   rebalance->footer(
       "Examples:\n"
       "  bine rebalance pale-ale.json --lot \"Keelstone=14.9%\" --lot \"Tidewell=7.9%,oil=1.4\"\n"

@@ -95,7 +95,8 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("--top", options->top, "how many substitutes to list (1-100, default 5)");
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
-  swap->add_option("--html", options->html, "also write a self-contained HTML report with aroma charts to FILE");
+  swap->add_option("--html", options->html, "also write a self-contained HTML report with aroma charts to FILE")
+      ->check(output_file_name());
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"

@@ -260,7 +260,9 @@ Recipe blended_recipe(const Recipe& recipe, const BlendPlan& plan, const BlendRe
       hop.lot = part.lot;
       hop.grams = grams;
       hop.use = use;
-      hop.alpha_acid = part.alpha_percent;
+      // A candidate without a known alpha has 0 here; the recipe then gives none (a file may not
+      // say 0 % alpha acid, and bine never writes what it would refuse to read).
+      if (part.alpha_percent > 0.0) hop.alpha_acid = part.alpha_percent;
       hop.form = part.form;
       if (use == HopUse::whirlpool) {
         hop.minutes = plan.whirlpool_minutes;

@@ -2,6 +2,7 @@
 // members, smaller subsets first, then local moves over the whole candidate list. Both keep one
 // best-so-far (BestBlend) and count every QP solved.
 #include <algorithm>
+#include <cmath>
 #include <numeric>
 
 #include "engine/blend_steps.hpp"
@@ -9,11 +10,11 @@
 namespace bine::blend_steps {
 namespace {
 
-/// Calls visit(subset) for every subset of `pool` of size 1..k, smaller subsets first.
+/// Calls visit(subset) for every subset of `pool` of size `from`..k, smaller subsets first.
 template <typename Visit>
-void for_each_subset(const std::vector<std::size_t>& pool, std::size_t k, Visit visit) {
+void for_each_subset(const std::vector<std::size_t>& pool, std::size_t from, std::size_t k, Visit visit) {
   std::vector<std::size_t> subset;
-  for (std::size_t size = 1; size <= std::min(k, pool.size()); ++size) {
+  for (std::size_t size = from; size <= std::min(k, pool.size()); ++size) {
     std::vector<std::size_t> index(size);
     std::iota(index.begin(), index.end(), 0);
     while (true) {
@@ -64,17 +65,45 @@ void offer(SubsetSearch& search, const std::vector<std::size_t>& subset, BestBle
   }
 }
 
+/// Subsets of n things with `from` to k members, saturating at the budget's double.
+std::size_t subsets_between(std::size_t n, std::size_t from, std::size_t k) {
+  std::size_t total = 0;
+  for (std::size_t size = from; size <= std::min(n, k); ++size) {
+    double count = 1.0;  // C(n, size)
+    for (std::size_t i = 0; i < size; ++i) count = count * static_cast<double>(n - i) / static_cast<double>(i + 1);
+    total += static_cast<std::size_t>(std::min(count, 2.0 * kSubsetBudget));
+  }
+  return total;
+}
+
 BestBlend search_every_subset(SubsetSearch& search, const std::vector<std::size_t>& pool) {
   prepare_gram(search.prepared, pool, search.request);
   BestBlend best;
-  for_each_subset(pool, search.request.max_varieties,
-                  [&](const std::vector<std::size_t>& subset) { offer(search, subset, best); });
+  const auto visit = [&](const std::vector<std::size_t>& subset) { offer(search, subset, best); };
+  const std::size_t k = search.request.max_varieties;
+  if (search.request.pool.exhaustive || subsets_between(pool.size(), 1, k) <= kSubsetBudget) {
+    for_each_subset(pool, 1, k, visit);
+    return best;
+  }
+  // Bounded: every subset of the pool up to the largest size whose count stays within half the
+  // budget, then the larger subsets (up to K) of the relaxation's heaviest members.
+  search.bounded = true;
+  std::size_t small = 1;
+  while (small < k && subsets_between(pool.size(), 1, small + 1) <= kSubsetBudget / 2) ++small;
+  for_each_subset(pool, 1, small, visit);
+  const Relaxation relaxed = relax_pool(search.prepared, pool);
+  std::vector<std::size_t> heavy = relaxed.members;
+  while (heavy.size() > k && subsets_between(heavy.size(), small + 1, k) > kSubsetBudget / 2) heavy.pop_back();
+  std::sort(heavy.begin(), heavy.end());  // candidate order, as in the pool
+  for_each_subset(heavy, small + 1, k, visit);
   return best;
 }
 
 void improve_locally(SubsetSearch& search, BestBlend& best) {
-  // Each round is at most K x N small QPs; a blend at J = 0 cannot improve.
-  for (std::size_t round = 0; round < search.request.pool.swap_rounds && best.objective > 1e-12; ++round) {
+  // Each round is at most K x N small QPs; a blend at J = 0 cannot improve. After a bounded pool
+  // search the best may have fewer than K members: K more rounds let it grow to K first.
+  const std::size_t rounds = search.request.pool.swap_rounds + (search.bounded ? search.request.max_varieties : 0);
+  for (std::size_t round = 0; round < rounds && best.objective > 1e-12; ++round) {
     BestBlend move = best_move(search, best);
     if (!move.found()) break;
     best = std::move(move);

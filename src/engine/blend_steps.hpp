@@ -84,16 +84,34 @@ struct SubsetSearch {
   Prepared& prepared;
   SubsetLimits limits;
   std::size_t solved = 0;
+  bool bounded = false;  // the pool had too many subsets to solve them all (see search_every_subset)
 };
+
+/// Subsets solved at most in one pool search before it is bounded (docs/methods.md#blend-search).
+inline constexpr std::size_t kSubsetBudget = 50000;
 
 /// Solves `subset` and keeps it in `best` when feasible and lower than best by more than 1e-12
 /// (ties keep the smaller, earlier subset).
 void offer(SubsetSearch& search, const std::vector<std::size_t>& subset, BestBlend& best);
-/// The best of every subset of `pool` with 1 to max_varieties members.
+/// The best of every subset of `pool` with 1 to max_varieties members; when they number more than
+/// kSubsetBudget (K = 5 or 6 with many axes named), the best of every subset small enough to fit
+/// the budget and of every subset of up to K of the relaxation's heaviest members, and `bounded`.
 BestBlend search_every_subset(SubsetSearch& search, const std::vector<std::size_t>& pool);
 /// Local improvement over every candidate: adds while below max_varieties members, else swaps one,
 /// taking the best move until none lowers J (at most `swap_rounds` rounds).
 void improve_locally(SubsetSearch& search, BestBlend& best);
+
+// --- blend_relaxation.cpp: the blend over the whole pool without K or the limits ---
+
+/// The least J over every mix of the pool (no K, no IBU or stock rows): a lower bound for every
+/// subset, and the members it uses (at most axes + 1), heaviest first.
+struct Relaxation {
+  double objective = 0.0;
+  std::vector<std::size_t> members;  // candidate indices
+  std::vector<double> weights;       // their oil shares
+};
+/// Wolfe's nearest-point algorithm over the pool; needs prepare_gram(pool) first.
+Relaxation relax_pool(const Prepared& prepared, const std::vector<std::size_t>& pool);
 
 // --- blend_checks.cpp: what makes a request infeasible ---
 

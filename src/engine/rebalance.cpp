@@ -21,6 +21,7 @@
 #include <cmath>
 #include <map>
 
+#include "io/limits.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -183,6 +184,31 @@ std::vector<Shortfall> shortfalls(const Recipe& recipe, const std::vector<Rebala
   return found;
 }
 
+/// The total must really hold before anything says so: a lot whose alpha has aged to almost nothing
+/// gives (almost) no IBU per gram, and no amount of it holds the total. Within 0.05 IBU + 0.5 %.
+void check_total_held(const RebalanceResult& result, const std::vector<ReplacementLot>& lots) {
+  const double before = result.before.total_ibu;
+  const double after = result.after.total_ibu;
+  if (!std::isfinite(before))
+    throw Infeasible(
+        "the recipe's IBU is not a finite number (is the batch volume or an amount far outside brewing sizes?), so "
+        "nothing is computed from it");
+  if (std::isfinite(after) && std::abs(after - before) <= 0.05 + 0.005 * before) return;
+  const ReplacementLot* weakest = nullptr;
+  for (const auto& lot : lots)
+    if (weakest == nullptr || lot.alpha_percent < weakest->alpha_percent) weakest = &lot;
+  std::string why;
+  if (weakest != nullptr)
+    why = fmt::format(" ({}{} has {:.2f} % alpha acid{})", weakest->variety,
+                      weakest->lot_code.empty() ? std::string() : " lot " + weakest->lot_code, weakest->alpha_percent,
+                      weakest->certificate_alpha
+                          ? fmt::format(", {:.0f} % of its certificate's after storage", 100.0 * weakest->remaining)
+                          : std::string());
+  throw Infeasible(fmt::format("these lots cannot hold the recipe's {:.1f} IBU: the total would be {:.1f} IBU{}",
+                               before, after, why),
+                   {Remedy::add_stock});
+}
+
 }  // namespace
 
 RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
@@ -201,6 +227,7 @@ RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot
                                                   a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
                                                   w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
   }
+  check_total_held(result, lots);
   result.recipe_after = std::move(w.after);
   // 4. Stock shortfalls.
   result.shortfalls = shortfalls(recipe, result.additions, lots);
@@ -246,6 +273,7 @@ ReplacementLot replacement_from(const std::string& variety, const CellarLot& c, 
 std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& cellar, bool allow_stale,
                                             std::vector<std::string>& notes) {
   std::vector<ReplacementLot> chosen;
+  std::vector<std::string> spent;  // lots aged below any hop's alpha
   std::vector<std::string> seen;
   for (const auto& hop : recipe.hops) {
     if (hop.variety.empty()) continue;
@@ -268,11 +296,20 @@ std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& 
           "no usable stock lot of {} with a certificate alpha; its additions are kept as written", hop.variety));
       continue;
     }
+    // Nothing is computed from an alpha below what any hop keeps (the loaders' bound): such a lot
+    // would need tonnes to bitter, or round to no IBU at all.
+    if (*best->alpha_today < limits::alpha_acid.min)
+      spent.push_back(fmt::format(
+          "{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): below the "
+          "{} % any hop keeps, too little to brew with",
+          cellar.source_file, best->code, hop.variety, *best->alpha_today, format_date(cellar.on),
+          *best->lot.alpha_acid, best->days, limits::alpha_acid.min));
     if (best->basis != AlphaBasis::aged)
       notes.push_back(
           fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", best->code));
     chosen.push_back(replacement_from(hop.variety, *best, count));
   }
+  if (!spent.empty()) throw Infeasible(spent.front(), {Remedy::add_stock});
   return chosen;
 }
 

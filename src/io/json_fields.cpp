@@ -52,26 +52,62 @@ std::string type_name(const nlohmann::json& value) {
   }
 }
 
+void report_guard_stop(std::string_view text, const JsonGuardStop& stop, Diagnostics& diagnostics) {
+  switch (stop.kind) {
+    case JsonGuardStop::Kind::too_deep: {
+      const TextPosition at = position_of_depth(text, kMaxJsonDepth + 1);
+      diagnostics.add_file(
+          fmt::format("nested deeper than {} levels at line {}, column {} (bine files need fewer than 10)",
+                      kMaxJsonDepth, at.line, at.column));
+      break;
+    }
+    case JsonGuardStop::Kind::duplicate_key:
+      diagnostics.add(stop.pointer, fmt::format("the key {} appears twice in this object (keep one)",
+                                                brief(nlohmann::json(stop.key))));
+      break;
+    case JsonGuardStop::Kind::not_finite:
+    case JsonGuardStop::Kind::none:
+      diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");
+      break;
+  }
+}
+
 }  // namespace
+
+TextPosition position_of_depth(std::string_view text, std::size_t depth) {
+  TextPosition at;
+  std::size_t level = 0;
+  bool in_string = false;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    if (in_string) {
+      if (c == '\\')
+        ++i, ++at.column;
+      else if (c == '"')
+        in_string = false;
+    } else if (c == '"') {
+      in_string = true;
+    } else if (c == '[' || c == '{') {
+      if (++level >= depth) return at;
+    } else if (c == ']' || c == '}') {
+      if (level > 0) --level;
+    } else if (c == '\n') {
+      ++at.line;
+      at.column = 0;
+    }
+    ++at.column;
+  }
+  return at;
+}
 
 std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics& diagnostics) {
   try {
-    auto value = nlohmann::json::parse(text.begin(), text.end(), nullptr, true, false);
-    // nlohmann turns overlong numbers into +-inf instead of failing; reject them here.
-    bool finite = true;
-    std::vector<const nlohmann::json*> todo{&value};
-    while (!todo.empty() && finite) {
-      const auto* node = todo.back();
-      todo.pop_back();
-      if (node->is_number_float() && !std::isfinite(node->get<double>())) finite = false;
-      if (node->is_structured())
-        for (const auto& child : *node) todo.push_back(&child);
-    }
-    if (!finite) {
-      diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");
-      return std::nullopt;
-    }
-    return value;
+    nlohmann::json value;
+    nlohmann::detail::json_sax_dom_parser<nlohmann::json> builder(value, true);
+    JsonGuard guard(builder);
+    if (nlohmann::json::sax_parse(text.begin(), text.end(), &guard)) return value;
+    report_guard_stop(text, guard.stop(), diagnostics);
+    return std::nullopt;
   } catch (const nlohmann::json::out_of_range&) {
     diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");
     return std::nullopt;
@@ -176,6 +212,16 @@ std::optional<std::string> FieldReader::text(std::string_view key, bool required
   auto result = value->get<std::string>();
   if (required && result.find_first_not_of(" \t") == std::string::npos) {
     diagnostics_.add(at(key), "is empty (expected a name)");
+    return std::nullopt;
+  }
+  return result;
+}
+
+std::optional<std::string> FieldReader::name(std::string_view key, bool required) {
+  auto result = text(key, required);
+  if (!result) return result;
+  if (auto problem = name_problem(*result)) {
+    diagnostics_.add(at(key), fmt::format("{} {}", brief(nlohmann::json(*result)), *problem));
     return std::nullopt;
   }
   return result;

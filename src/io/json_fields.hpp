@@ -9,6 +9,7 @@
 #include <string_view>
 #include <vector>
 
+#include "io/json_guard.hpp"
 #include "model/errors.hpp"
 #include "model/hops.hpp"
 #include "model/quantity.hpp"
@@ -23,12 +24,10 @@ struct Bounds {
   bool min_exclusive = false;  // true: the value must be > min (amounts, volumes)
 };
 
-/// Parses JSON text; on failure reports "not valid JSON at line L, column C (...)" and returns
-/// nullopt. Rejects NaN/Infinity (not JSON) and numbers too large for a double.
+/// Parses JSON text through JsonGuard; on failure reports "not valid JSON at line L, column C (...)"
+/// and returns nullopt. Rejects NaN/Infinity (not JSON), numbers too large for a double, nesting
+/// deeper than kMaxJsonDepth and a key given twice in one object.
 std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics& diagnostics);
-
-/// Appends an escaped key to a JSON pointer ("/hops" + "0" -> "/hops/0"), RFC 6901.
-std::string pointer_join(const std::string& pointer, std::string_view key);
 
 /// A short printable form of a JSON value for messages (strings quoted, long values cut).
 std::string brief(const nlohmann::json& value);
@@ -48,6 +47,8 @@ class FieldReader {
   void allow_only(std::initializer_list<std::string_view> known);
 
   std::optional<std::string> text(std::string_view key, bool required);
+  /// A name (variety, lot, axis): text without control characters (model/names.hpp name_problem).
+  std::optional<std::string> name(std::string_view key, bool required);
   std::optional<bool> boolean(std::string_view key, bool required);
   /// A number in the canonical unit or a string with a unit, checked against bounds.
   std::optional<double> quantity(std::string_view key, Dimension dimension, const Bounds& bounds, bool required);

@@ -20,7 +20,7 @@ using nlohmann::json;
 json parse_or_throw(std::string_view text, Diagnostics& diagnostics) {
   auto document = parse_json_text(text, diagnostics);
   diagnostics.throw_if_any();
-  return *document;
+  return std::move(*document);
 }
 
 // Reads an array at `key`, calling `each(element, pointer)`.
@@ -61,7 +61,7 @@ Lexicon lexicon_from(const json& document, Diagnostics& diagnostics) {
     FieldReader reader(element, pointer, diagnostics);
     reader.allow_only({"name", "description", "tags"});
     AromaAxis axis;
-    axis.name = reader.text("name", true).value_or("");
+    axis.name = reader.name("name", true).value_or("");
     axis.description = reader.text("description", false).value_or("");
     if (!axis.name.empty() && !seen_axes.insert(fold_name(axis.name)).second)
       diagnostics.add(reader.at("name"), fmt::format("axis \"{}\" appears twice", axis.name));
@@ -82,7 +82,7 @@ Lexicon lexicon_from(const json& document, Diagnostics& diagnostics) {
     FieldReader reader(element, pointer, diagnostics);
     reader.allow_only({"name", "axes", "source", "note"});
     CompoundAssociation compound;
-    compound.compound = reader.text("name", true).value_or("");
+    compound.compound = reader.name("name", true).value_or("");
     compound.source = reader.text("source", true).value_or("");
     if (const json* weights = reader.raw("axes"); weights != nullptr) {
       FieldReader weights_reader(*weights, reader.at("axes"), diagnostics);
@@ -113,7 +113,7 @@ Variety variety_from(const json& element, const std::string& pointer, const Lexi
   reader.allow_only({"name", "origin", "purpose", "alpha_acid", "beta_acid", "cohumulone", "total_oil", "oils",
                      "stability", "aroma", "tags", "notes"});
   Variety variety;
-  variety.name = reader.text("name", true).value_or("");
+  variety.name = reader.name("name", true).value_or("");
   variety.origin = reader.text("origin", false).value_or("");
   variety.purpose = read_enum<Purpose>(reader, "purpose", false, purpose_from, "aroma, bittering or dual");
   variety.alpha_acid = reader.range("alpha_acid", Dimension::percent, limits::alpha_acid, false);
@@ -228,8 +228,8 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
     reader.allow_only({"variety", "lot", "form", "alpha_acid", "beta_acid", "total_oil", "packaged", "storage",
                        "on_hand", "hsi", "notes"});
     Lot lot;
-    lot.variety = reader.text("variety", true).value_or("");
-    lot.lot = reader.text("lot", false).value_or("");
+    lot.variety = reader.name("variety", true).value_or("");
+    lot.lot = reader.name("lot", false).value_or("");
     if (!lot.lot.empty() && !lot_codes.insert(fold_name(lot.lot)).second)
       diagnostics.add(reader.at("lot"), fmt::format("lot \"{}\" appears twice", lot.lot));
     lot.form =
@@ -313,8 +313,8 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
     reader.allow_only(
         {"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "cooling", "form", "notes"});
     HopAddition hop;
-    hop.variety = reader.text("variety", false).value_or("");
-    hop.lot = reader.text("lot", false).value_or("");
+    hop.variety = reader.name("variety", false).value_or("");
+    hop.lot = reader.name("lot", false).value_or("");
     if (hop.variety.empty() && hop.lot.empty() && reader.ok())
       diagnostics.add(reader.at("variety"), "is missing (give a variety or a lot)");
     hop.grams = reader.quantity("amount", Dimension::mass, limits::hop_mass, true).value_or(0.0);
@@ -478,6 +478,20 @@ json recipe_to_json(const Recipe& recipe) {
   }
   out["hops"] = std::move(hops);
   return out;
+}
+
+std::string checked_recipe_text(const Recipe& recipe, const std::string& what) {
+  std::string text = recipe_to_json(recipe).dump(2) + "\n";
+  if (text.size() > kMaxInputBytes)
+    throw Infeasible(fmt::format("{} would be a {:.1f} MB file, larger than the {} MB bine reads, so it is not written",
+                                 what, static_cast<double>(text.size()) / 1e6, kMaxInputBytes / (1024 * 1024)));
+  try {
+    parse_recipe(text, what);
+  } catch (const InputError& error) {
+    throw Infeasible(fmt::format("the result is outside what a recipe may hold, so it is neither shown nor written: {}",
+                                 error.lines().front()));
+  }
+  return text;
 }
 
 }  // namespace bine

@@ -37,4 +37,10 @@ FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon);
 /// A recipe as JSON in our format, canonical units (for --write).
 nlohmann::json recipe_to_json(const Recipe& recipe);
 
+/// A computed recipe as bine writes it (recipe_to_json, indented), checked first by the recipe
+/// loader's own bounds and the input size limit, so bine never shows or writes a recipe it would
+/// refuse to read (a NaN amount, an alpha below the bounds, a file over 32 MB). `what` names it in
+/// messages ("the rebalanced recipe"). Throws Infeasible with the loader's reason.
+std::string checked_recipe_text(const Recipe& recipe, const std::string& what);
+
 }  // namespace bine

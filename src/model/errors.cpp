@@ -1,5 +1,8 @@
 #include "model/errors.hpp"
 
+#include <utf8proc.h>
+
+#include <cstdio>
 #include <string_view>
 
 namespace bine {
@@ -35,6 +38,20 @@ std::size_t utf8_length(std::string_view text, std::size_t i) {
   return length;
 }
 
+// "\u200B" for a character that shows nothing (zero-width space and joiners, byte order mark,
+// soft hyphen, bidirectional controls: Unicode's default ignorables and format characters), else "".
+std::string invisible_escape(std::string_view sequence) {
+  utf8proc_int32_t code = 0;
+  if (utf8proc_iterate(reinterpret_cast<const utf8proc_uint8_t*>(sequence.data()),
+                       static_cast<utf8proc_ssize_t>(sequence.size()), &code) <= 0)
+    return {};
+  const utf8proc_property_t* property = utf8proc_get_property(code);
+  if (!property->ignorable && property->category != UTF8PROC_CATEGORY_CF) return {};
+  char text[16];
+  std::snprintf(text, sizeof text, "\\u%04X", static_cast<unsigned>(code));
+  return text;
+}
+
 // User text (file content, arguments) ends up inside messages. Keep each problem on one printable
 // line: control characters and bytes that are not UTF-8 are shown as escapes (\n, \xFF).
 std::string printable(std::string_view text) {
@@ -52,7 +69,10 @@ std::string printable(std::string_view text) {
       out += "\\t";
       ++i;
     } else if (const std::size_t length = c >= 0x80 ? utf8_length(text, i) : 0; length > 0) {
-      out.append(text.substr(i, length));
+      if (const std::string escape = invisible_escape(text.substr(i, length)); !escape.empty())
+        out += escape;  // "Test\u200Bvine", not a name that looks like another
+      else
+        out.append(text.substr(i, length));
       i += length;
     } else {
       static constexpr char kHex[] = "0123456789ABCDEF";
@@ -79,14 +99,33 @@ InputError::InputError(std::vector<std::string> lines, std::vector<Remedy> remed
       lines_(printable(std::move(lines))),
       remedies_(std::move(remedies)) {}
 
-void Diagnostics::add(const std::string& pointer, const std::string& message) {
-  lines_.push_back(file_ + ": " + (pointer.empty() ? std::string("/") : pointer) + ": " + message);
+void Diagnostics::push(std::string line) {
+  if (lines_.size() < kMaxProblemLines)
+    lines_.push_back(std::move(line));
+  else
+    ++more_;
 }
 
-void Diagnostics::add_file(const std::string& message) { lines_.push_back(file_ + ": " + message); }
+void Diagnostics::add(const std::string& pointer, const std::string& message) {
+  if (lines_.size() >= kMaxProblemLines) {
+    ++more_;
+    return;
+  }
+  push(file_ + ": " + (pointer.empty() ? std::string("/") : pointer) + ": " + message);
+}
+
+void Diagnostics::add_file(const std::string& message) { push(file_ + ": " + message); }
 
 void Diagnostics::throw_if_any() const {
-  if (!lines_.empty()) throw InputError(lines_);
+  if (lines_.empty()) return;
+  std::vector<std::string> lines = lines_;
+  if (more_ > 0) lines.push_back(more_problems_line(file_ + ": ", more_));
+  throw InputError(std::move(lines));
+}
+
+std::string more_problems_line(const std::string& prefix, std::size_t more) {
+  return prefix + "... and " + std::to_string(more) + (more == 1 ? " more problem" : " more problems") +
+         " (fix these first)";
 }
 
 }  // namespace bine

@@ -63,6 +63,13 @@ class Infeasible : public std::runtime_error {
   std::vector<Remedy> remedies_;
 };
 
+/// At most this many problem lines are reported for one file or one command line; the rest are
+/// counted ("... and 2999950 more problems"), so a broken file cannot flood the terminal or memory.
+inline constexpr std::size_t kMaxProblemLines = 50;
+
+/// The line that ends a capped list: "PREFIX... and N more problems (fix these first)".
+std::string more_problems_line(const std::string& prefix, std::size_t more);
+
 /// Collects every problem found in one file before stopping, so the brewer fixes them in one go.
 /// Lines read `FILE: /json/pointer: what is wrong (what is expected)`.
 class Diagnostics {
@@ -73,13 +80,17 @@ class Diagnostics {
   void add_file(const std::string& message);
   bool empty() const { return lines_.empty(); }
   const std::string& file() const { return file_; }
+  /// The first kMaxProblemLines problems.
   const std::vector<std::string>& lines() const { return lines_; }
-  /// Throws InputError with every collected line when there is any.
+  /// Throws InputError with the collected lines (and how many more there were) when there is any.
   void throw_if_any() const;
 
  private:
+  void push(std::string line);
+
   std::string file_;
   std::vector<std::string> lines_;
+  std::size_t more_ = 0;  // problems beyond kMaxProblemLines, counted only
 };
 
 }  // namespace bine

@@ -1,7 +1,12 @@
 #include "model/names.hpp"
 
+#include <utf8proc.h>
+
 #include <algorithm>
 #include <cctype>
+#include <cstdio>
+#include <cstdlib>
+#include <memory>
 #include <numeric>
 
 namespace bine {
@@ -22,6 +27,21 @@ char fold_extended_a(unsigned code) {
   return index < base.size() ? base[index] : '?';
 }
 
+// NFC with default ignorables removed (utf8proc, Unicode's own tables); text that is not UTF-8
+// is left as it is.
+std::string normal_form(std::string_view name) {
+  bool ascii = true;
+  for (char c : name) ascii = ascii && static_cast<unsigned char>(c) < 0x80;
+  if (ascii) return std::string(name);  // the common case, and already normal
+  utf8proc_uint8_t* mapped = nullptr;
+  const auto length =
+      utf8proc_map(reinterpret_cast<const utf8proc_uint8_t*>(name.data()), static_cast<utf8proc_ssize_t>(name.size()),
+                   &mapped, static_cast<utf8proc_option_t>(UTF8PROC_STABLE | UTF8PROC_COMPOSE | UTF8PROC_IGNORE));
+  if (length < 0) return std::string(name);
+  const std::unique_ptr<utf8proc_uint8_t, decltype(&std::free)> owner(mapped, &std::free);
+  return std::string(reinterpret_cast<const char*>(mapped), static_cast<std::size_t>(length));
+}
+
 }  // namespace
 
 std::string_view trim_space(std::string_view text) {
@@ -30,7 +50,28 @@ std::string_view trim_space(std::string_view text) {
   return text;
 }
 
-std::string fold_name(std::string_view name) {
+std::optional<std::string> name_problem(std::string_view name) {
+  const auto* bytes = reinterpret_cast<const utf8proc_uint8_t*>(name.data());
+  utf8proc_ssize_t at = 0;
+  const auto size = static_cast<utf8proc_ssize_t>(name.size());
+  while (at < size) {
+    utf8proc_int32_t code = 0;
+    const auto length = utf8proc_iterate(bytes + at, size - at, &code);
+    if (length <= 0) return std::string("is not valid UTF-8 text");
+    if (utf8proc_category(code) == UTF8PROC_CATEGORY_CC) {
+      char hex[16];
+      std::snprintf(hex, sizeof hex, "U+%04X", static_cast<unsigned>(code));
+      return std::string("contains the control character ") + hex +
+             " (names may not hold NUL, BEL, escape sequences, tabs or line breaks)";
+    }
+    at += length;
+  }
+  return std::nullopt;
+}
+
+namespace {
+
+std::string fold_normal(std::string_view name) {
   std::string out;
   bool pending_space = false;
   auto put = [&](std::string_view piece) {
@@ -70,6 +111,10 @@ std::string fold_name(std::string_view name) {
   return out;
 }
 
+}  // namespace
+
+std::string fold_name(std::string_view name) { return fold_normal(normal_form(name)); }
+
 std::size_t edit_distance(std::string_view a, std::string_view b) {
   std::vector<std::size_t> row(b.size() + 1);
   std::iota(row.begin(), row.end(), std::size_t{0});
@@ -85,24 +130,60 @@ std::size_t edit_distance(std::string_view a, std::string_view b) {
   return row[b.size()];
 }
 
+std::size_t edit_distance_within(std::string_view a, std::string_view b, std::size_t bound) {
+  const std::size_t over = bound + 1;
+  const std::size_t gap = a.size() > b.size() ? a.size() - b.size() : b.size() - a.size();
+  if (gap > bound) return over;  // every length difference costs an insertion or deletion
+  // Row i holds distances from a[0..i) to b[0..j); only the band |i - j| <= bound can stay within
+  // the bound (Ukkonen 1985), cells outside it count as over.
+  std::vector<std::size_t> row(b.size() + 1, over);
+  for (std::size_t j = 0; j <= std::min(b.size(), bound); ++j) row[j] = j;
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    const std::size_t first = i > bound ? i - bound : 1;
+    const std::size_t last = std::min(b.size(), i + bound);
+    std::size_t diagonal = row[first - 1];
+    row[first - 1] = first == 1 && i <= bound ? i : over;
+    std::size_t lowest = row[first - 1];
+    for (std::size_t j = first; j <= last; ++j) {
+      const std::size_t up = row[j];
+      row[j] = std::min({std::min(up, over) + 1, row[j - 1] + 1, diagonal + (a[i - 1] == b[j - 1] ? 0 : 1)});
+      row[j] = std::min(row[j], over);
+      diagonal = up;
+      lowest = std::min(lowest, row[j]);
+    }
+    if (lowest > bound) return over;  // no path through this row stays within the bound
+  }
+  return std::min(row[b.size()], over);
+}
+
+// Scores every known name against what was typed, keeping only the `limit` best within the
+// threshold; each distance is computed only as far as the worst one kept (length filter and early
+// exit in edit_distance_within), so a 10 kB name against 100,000 names stays fast.
 std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,
                                        std::size_t limit) {
   const std::string folded = fold_name(wanted);
-  std::vector<std::pair<std::size_t, std::string>> scored;
-  for (const auto& name : known) {
-    const std::string candidate = fold_name(name);
-    std::size_t distance = edit_distance(folded, candidate);
-    // A name that starts with what was typed is a strong hint.
-    if (!folded.empty() && candidate.rfind(folded, 0) == 0) distance = std::min<std::size_t>(distance, 1);
-    scored.emplace_back(distance, name);
-  }
-  std::stable_sort(scored.begin(), scored.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
   const std::size_t threshold = std::max<std::size_t>(3, folded.size() / 2);
-  std::vector<std::string> out;
-  for (const auto& [distance, name] : scored) {
-    if (out.size() >= limit || distance > threshold) break;
-    out.push_back(name);
+  std::vector<std::pair<std::size_t, std::size_t>> best;  // (distance, index in known), best first
+  for (std::size_t index = 0; index < known.size() && limit > 0; ++index) {
+    if (best.size() == limit && best.back().first == 0) break;
+    // Ties keep the earlier name, so once `limit` names are kept a new one must be strictly better.
+    const std::size_t bound = best.size() < limit ? threshold : best.back().first - 1;
+    const std::string candidate = fold_name(known[index]);
+    std::size_t distance = 0;
+    if (candidate == folded)
+      distance = 0;
+    else if (!folded.empty() && candidate.rfind(folded, 0) == 0)
+      distance = 1;  // a name that starts with what was typed is a strong hint
+    else
+      distance = edit_distance_within(folded, candidate, bound);
+    if (distance > bound) continue;
+    const auto at = std::upper_bound(best.begin(), best.end(), distance,
+                                     [](std::size_t d, const auto& entry) { return d < entry.first; });
+    best.insert(at, {distance, index});
+    if (best.size() > limit) best.pop_back();
   }
+  std::vector<std::string> out;
+  for (const auto& entry : best) out.push_back(known[entry.second]);
   return out;
 }
 

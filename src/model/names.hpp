@@ -1,6 +1,7 @@
 #pragma once
 // Matching variety names as brewers type them: case- and accent-insensitive, with "did you mean"
 // suggestions by edit distance over the known names (as ninja suggests targets).
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -8,14 +9,24 @@
 namespace bine {
 
 /// Folds case, Latin accents (UTF-8) and runs of spaces, hyphens and underscores, so
-/// "ETOILE-pale" and "Étoile Pâle" compare equal.
+/// "ETOILE-pale" and "Étoile Pâle" compare equal. The text is first put in Unicode normal form C
+/// (a decomposed "e" + combining acute is the composed "é") and stripped of invisible characters
+/// (zero-width space and joiners, word joiner, byte order mark, soft hyphen: Unicode's default
+/// ignorables), so "Tide\u200Bwell" is "Tidewell".
 std::string fold_name(std::string_view name);
+
+/// Why `name` cannot be a name (a control character such as NUL, BEL, ESC or a newline, which would
+/// break tables and terminals, or bytes that are not UTF-8), or nullopt when it can.
+std::optional<std::string> name_problem(std::string_view name);
 
 /// `text` without leading and trailing white space.
 std::string_view trim_space(std::string_view text);
 
 /// Levenshtein distance between two strings (bytes).
 std::size_t edit_distance(std::string_view a, std::string_view b);
+
+/// edit_distance(a, b) when it is at most `bound`, else bound + 1; costs O(bound x length) at most.
+std::size_t edit_distance_within(std::string_view a, std::string_view b, std::size_t bound);
 
 /// Up to `limit` known names closest to `wanted` (folded comparison), best first.
 std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,

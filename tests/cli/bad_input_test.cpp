@@ -4,6 +4,7 @@
 // fragment, and leak no exception or sanitizer text. A crash or a signal would end the test
 // executable itself, which CTest reports as a failure.
 #include <doctest/doctest.h>
+#include <sys/stat.h>
 
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -43,6 +44,37 @@ fs::path make_big_file(const fs::path& folder) {
   return path;
 }
 
+/// The file of a case with "made", written at test time: "deep" is prefix, `open` x levels, `close`
+/// x levels, suffix (100,000 levels is 200 kB a file, too big to commit); "fifo" is a named pipe
+/// (nothing ever writes to it); "fifo-link" a symlink to one; "data-with-fifo" a data folder whose
+/// catalog folder holds a pipe named like a catalog.
+fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int index) {
+  const fs::path path = folder / ("made-" + std::to_string(index) + ".json");
+  const std::string kind = made.at("kind");
+  if (kind == "fifo" || kind == "fifo-link") {
+    const fs::path fifo = folder / ("pipe-" + std::to_string(index) + ".json");
+    REQUIRE(::mkfifo(fifo.c_str(), 0600) == 0);
+    if (kind == "fifo") return fifo;
+    fs::create_symlink(fifo, path);
+    return path;
+  }
+  if (kind == "data-with-fifo") {
+    const fs::path data = folder / ("data-" + std::to_string(index));
+    fs::create_directories(data / "catalog");
+    fs::copy_file(fs::path(BINE_SOURCE_DATA_DIR) / "lexicon.json", data / "lexicon.json");
+    REQUIRE(::mkfifo((data / "catalog" / "pipe.json").c_str(), 0600) == 0);
+    return data;
+  }
+  REQUIRE(kind == "deep");
+  std::ofstream out(path, std::ios::binary);
+  const auto levels = made.at("levels").get<int>();
+  out << made.at("prefix").get<std::string>();
+  for (int i = 0; i < levels; ++i) out << made.at("open").get<std::string>();
+  for (int i = 0; i < levels; ++i) out << made.at("close").get<std::string>();
+  out << made.at("suffix").get<std::string>();
+  return path;
+}
+
 const std::vector<std::string> kLeaks{"what()",           "terminate",     "exception",      "nlohmann", "Assertion",
                                       "AddressSanitizer", "runtime error", "internal error", "[json."};
 
@@ -70,8 +102,10 @@ TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem"
     const std::string name = item.at("name");
     const std::string file =
         item.contains("file") ? (kCases / "files" / item.at("file").get<std::string>()).string() : "";
+    const std::string made = item.contains("made") ? make_case_file(scratch.path(), item.at("made"), run).string() : "";
     auto expand = [&](std::string text) {
       text = replace_all(text, "{file}", file);
+      text = replace_all(text, "{made}", made);
       text = replace_all(text, "{big}", big.string());
       text = replace_all(text, "{data}", BINE_SOURCE_DATA_DIR);
       return replace_all(text, "{xff}", "\xff");

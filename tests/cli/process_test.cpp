@@ -6,6 +6,7 @@
 #include <fcntl.h>
 #include <unistd.h>
 
+#include <chrono>
 #include <cstdio>
 #include <iostream>
 #include <string>
@@ -93,4 +94,52 @@ TEST_CASE("in-process runs write only to the captured streams, never to the proc
   // Each run did write something, to the captured streams.
   for (const auto& run : runs) CHECK(!(run.out + run.err).empty());
   CHECK(runs[0].err.find("load data") != std::string::npos);  // --timings names the phase on err
+}
+
+TEST_CASE("output to a full disk or a closed stdout ends with exit 74 and says so") {
+  const auto full = run_bine({"catalog", "list"}, {{}, bine::test::Stdout::full_disk});
+  REQUIRE(full.exited);
+  CHECK(full.status == 74);  // EX_IOERR, sysexits.h
+  CHECK(full.err.find("bine: error: the output could not be written (No space left on device)") != std::string::npos);
+  const auto closed = run_bine({"catalog", "list"}, {{}, bine::test::Stdout::closed});
+  REQUIRE(closed.exited);
+  CHECK(closed.status == 74);
+  CHECK(closed.err.find("bine: error: the output could not be written") != std::string::npos);
+}
+
+namespace {
+
+// The calendar date at `offset_hours` east of UTC, by hand: UTC seconds plus the offset, in whole
+// days since 1970-01-01, as YYYY-MM-DD (std::chrono's civil calendar, not the C library's TZ code).
+std::string date_at_offset(int offset_hours) {
+  const auto now = std::chrono::system_clock::now() + std::chrono::hours(offset_hours);
+  const std::chrono::year_month_day day{std::chrono::floor<std::chrono::days>(now)};
+  char text[16];
+  std::snprintf(text, sizeof text, "%04d-%02u-%02u", static_cast<int>(day.year()), static_cast<unsigned>(day.month()),
+                static_cast<unsigned>(day.day()));
+  return text;
+}
+
+}  // namespace
+
+TEST_CASE("today is the local calendar date: UTC+14 and UTC-12 give two different days") {
+  // POSIX TZ strings (no time zone database needed): "std offset" with the offset west of UTC, so
+  // "LINT-14" is 14 hours east (as on Kiritimati) and "BAKR+12" 12 hours west; their dates always
+  // differ (26 hours apart).
+  const std::vector<std::pair<std::string, int>> zones{{"TZ=LINT-14", 14}, {"TZ=BAKR+12", -12}};
+  std::vector<std::string> seen;
+  for (const auto& [zone, offset] : zones) {
+    const std::string before = date_at_offset(offset);
+    const auto run =
+        run_bine({"age", "--alpha", "6.0", "--packaged", "2020-01-01", "--stored", "-18 C,vacuum", "--stability", "50"},
+                 {{zone}, bine::test::Stdout::captured});
+    const std::string after = date_at_offset(offset);
+    INFO(zone << ": " << run.out << run.err);
+    REQUIRE(run.status == 0);
+    const bool matches = run.out.find("on " + before + " (today") != std::string::npos ||
+                         run.out.find("on " + after + " (today") != std::string::npos;
+    CHECK(matches);
+    seen.push_back(run.out.substr(0, run.out.find('\n')));
+  }
+  CHECK(seen[0] != seen[1]);
 }

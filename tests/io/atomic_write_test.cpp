@@ -3,6 +3,7 @@
 // only once complete and flushed).
 #include <doctest/doctest.h>
 #include <signal.h>
+#include <sys/stat.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
@@ -120,4 +121,92 @@ TEST_CASE("writing into a missing folder or onto a directory is bad input naming
   fs::create_directory(folder.path / "a-folder");
   CHECK_THROWS_AS(bine::write_file_atomically(folder.path / "a-folder", "x"), bine::InputError);
   CHECK(fs::is_directory(folder.path / "a-folder"));
+}
+
+TEST_CASE("a write through a symlink replaces the link's target and keeps the link") {
+  const Folder folder;
+  fs::create_directory(folder.path / "recipes");
+  const fs::path real = folder.path / "recipes" / "pale.json";
+  { std::ofstream(real, std::ios::binary) << "old"; }
+  const fs::path link = folder.path / "current.json";
+  fs::create_symlink("recipes/pale.json", link);  // relative, as people make them
+  bine::write_file_atomically(link, "new");
+  CHECK(fs::is_symlink(fs::symlink_status(link)));
+  CHECK(read_bytes(real) == "new");
+  // The temporary file was made beside the target, and is gone.
+  CHECK(!temp_file_exists(folder.path / "recipes", "pale.json"));
+  CHECK(!temp_file_exists(folder.path, "current.json"));
+}
+
+TEST_CASE("a write keeps the old file's permission bits; a new file gets 0666 less the umask") {
+  const Folder folder;
+  const fs::path target = folder.path / "private.json";
+  { std::ofstream(target, std::ios::binary) << "old"; }
+  fs::permissions(target, fs::perms::owner_read | fs::perms::owner_write);  // 0600
+  bine::write_file_atomically(target, "new");
+  CHECK(fs::status(target).permissions() == (fs::perms::owner_read | fs::perms::owner_write));
+  const mode_t mask = ::umask(022);
+  const fs::path fresh = folder.path / "fresh.json";
+  bine::write_file_atomically(fresh, "new");
+  ::umask(mask);
+  CHECK(static_cast<unsigned>(fs::status(fresh).permissions()) == 0644u);  // 0666 & ~022, POSIX creat
+}
+
+TEST_CASE("a write refuses an empty name and targets that are not regular files") {
+  const Folder folder;
+  CHECK_THROWS_WITH_AS(bine::write_file_atomically("", "x"), doctest::Contains("an empty output file name"),
+                       bine::InputError);
+  // /dev/null is a device (as /dev/stdout becomes once its links are followed): never replaced.
+  CHECK_THROWS_WITH_AS(bine::write_file_atomically("/dev/null", "x"), doctest::Contains("is not a regular file"),
+                       bine::InputError);
+  CHECK(fs::is_character_file("/dev/null"));
+  const fs::path pipe = folder.path / "pipe.json";
+  REQUIRE(::mkfifo(pipe.c_str(), 0600) == 0);
+  const fs::path link = folder.path / "link.json";
+  fs::create_symlink(pipe, link);
+  CHECK_THROWS_WITH_AS(bine::write_file_atomically(link, "x"), doctest::Contains("is not a regular file"),
+                       bine::InputError);
+  CHECK(fs::is_fifo(pipe));
+  CHECK(fs::is_symlink(fs::symlink_status(link)));
+}
+
+TEST_CASE("SIGTERM or SIGINT during a write removes the temporary file and leaves the old one") {
+  const Folder folder;
+  const fs::path target = folder.path / "recipe.json";
+  const std::string old_content = "{\"name\": \"before\"}\n";
+  constexpr std::size_t kNewBytes = 64u * 1024u * 1024u;
+  int interrupted = 0;
+  for (int attempt = 0; attempt < 6 && interrupted < 2; ++attempt) {
+    { std::ofstream(target, std::ios::binary | std::ios::trunc) << old_content; }
+    const int signal_number = attempt % 2 == 0 ? SIGTERM : SIGINT;
+    const pid_t child = ::fork();
+    REQUIRE(child >= 0);
+    if (child == 0) {
+      // As in bine itself: the default actions (the test runner catches SIGTERM and SIGINT).
+      ::signal(SIGTERM, SIG_DFL);
+      ::signal(SIGINT, SIG_DFL);
+      const std::string content(kNewBytes, 'x');
+      try {
+        bine::write_file_atomically(target, content);
+      } catch (...) {
+        ::_exit(2);
+      }
+      ::_exit(0);
+    }
+    const auto deadline = std::chrono::steady_clock::now() + std::chrono::seconds(20);
+    while (!temp_file_exists(folder.path, "recipe.json") && std::chrono::steady_clock::now() < deadline)
+      std::this_thread::sleep_for(std::chrono::microseconds(50));
+    ::kill(child, signal_number);
+    int status = 0;
+    REQUIRE(::waitpid(child, &status, 0) == child);
+    const std::string now = read_bytes(target);
+    CHECK((now == old_content || now == std::string(kNewBytes, 'x')));  // never a part
+    if (WIFSIGNALED(status)) {
+      // Ended by the signal as it would have been, after removing its temporary file.
+      CHECK(WTERMSIG(status) == signal_number);
+      if (now == old_content) ++interrupted;  // else it was caught just after the rename
+    }
+    CHECK(!temp_file_exists(folder.path, "recipe.json"));
+  }
+  CHECK(interrupted >= 1);
 }

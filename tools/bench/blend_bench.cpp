@@ -5,8 +5,14 @@
 // Targets name 1-3 axes with intensities 2-5. Brew: 20 L at 1.050, 4 g/L late, 30 % whirlpool at
 // 80 C for 20 min, 35 IBU held by a 12 % alpha bittering hop at 60 min.
 //
+// First, the demo catalog with every axis named at K = 5 and 6 (the bounded pool search of
+// docs/methods.md#blend-search), with the exhaustive search's objective for a few targets.
+//
 // Usage: blend_bench [--targets N] [--exhaustive-targets M] [--seed S] [--swap-rounds R]
-//                    [--exhaustive-cache FILE]
+//                    [--exhaustive-cache FILE] [--demo-targets N] [--demo-exhaustive M]
+//                    [--demo-exhaustive-6 M]
+// --demo-targets 0 skips the demo section; --demo-exhaustive (default 3) and --demo-exhaustive-6
+// (default 0) say how many demo targets are also searched exhaustively at K = 5 and 6.
 // --swap-rounds sets the local-improvement rounds after the pool search (0: pool only).
 // --exhaustive-cache keeps the exhaustive objectives per (seed, target) in FILE, so that repeated
 // runs compare against them without the ~6 s per target search; delete the file after engine changes
@@ -23,6 +29,9 @@
 #include <vector>
 
 #include "engine/blend.hpp"
+#include "engine/blend_plan.hpp"
+#include "io/data_dir.hpp"
+#include "io/loaders.hpp"
 
 namespace {
 
@@ -87,6 +96,55 @@ double seconds_since(std::chrono::steady_clock::time_point start) {
   return std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
 }
 
+/// The demo catalog (invented demo data, used here for timing only) with every one of its 14 axes
+/// named, intensities 0-4 from the seed, late hops for the demo pale ale: median time of the search
+/// at K = 5 and 6, and the gap to the exhaustive search over every subset of the whole catalog for
+/// the first `exhaustive5` (K = 5, about 30 s each) and `exhaustive6` (K = 6, minutes each) targets.
+void demo_catalog_section(std::size_t targets, std::size_t exhaustive5, std::size_t exhaustive6, unsigned seed) {
+  const bine::DataSet data = bine::load_data({BINE_SOURCE_DATA_DIR, "bench"}, {});
+  const bine::Recipe recipe = bine::load_recipe(std::string(BINE_SOURCE_DATA_DIR) + "/examples/pale-ale.json");
+  BlendRequest request;
+  request.candidates = bine::blend_candidates(data.catalog, data.lexicon, nullptr, "").candidates;
+  request.plan = bine::plan_blend(&recipe, data.catalog, nullptr, bine::BlendChoices{}, bine::BitternessSettings{});
+  std::mt19937 random(seed);
+  std::uniform_int_distribution<int> level(0, 4);
+  const auto axes = static_cast<Eigen::Index>(data.lexicon.size());
+  std::vector<bine::BlendTarget> goals;
+  for (std::size_t t = 0; t < targets; ++t) {
+    Eigen::VectorXd intensity(axes);
+    for (Eigen::Index a = 0; a < axes; ++a) intensity[a] = level(random);
+    goals.push_back(bine::target_from_spec(intensity, std::vector<bool>(static_cast<std::size_t>(axes), true), 0.25));
+  }
+  for (const std::size_t k : {std::size_t{5}, std::size_t{6}}) {
+    request.max_varieties = k;
+    request.pool.exhaustive = false;
+    std::vector<double> times, found, solved;
+    for (const auto& goal : goals) {
+      request.target = goal;
+      const auto start = std::chrono::steady_clock::now();
+      const bine::BlendResult result = bine::design_blend(request);
+      times.push_back(seconds_since(start));
+      found.push_back(result.objective);
+      solved.push_back(static_cast<double>(result.subsets_solved));
+    }
+    std::printf(
+        "demo catalog (%zu candidates), every axis named, K %zu: median %.1f ms per blend (max %.1f ms), "
+        "median %.0f subsets solved\n",
+        request.candidates.size(), k, 1e3 * median(times), 1e3 * *std::max_element(times.begin(), times.end()),
+        median(solved));
+    const std::size_t exhaustive = std::min(targets, k == 5 ? exhaustive5 : exhaustive6);
+    request.pool.exhaustive = true;
+    for (std::size_t t = 0; t < exhaustive; ++t) {
+      request.target = goals[t];
+      const auto start = std::chrono::steady_clock::now();
+      const double best = bine::design_blend(request).objective;
+      const double gap = best > 1e-9 ? (found[t] - best) / best : (found[t] > 1e-9 ? 1.0 : 0.0);
+      std::printf("  target %zu: J %.6f, exhaustive J %.6f (gap %.3f %%, exhaustive %.1f s)\n", t, found[t], best,
+                  100.0 * gap, seconds_since(start));
+    }
+  }
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -94,6 +152,7 @@ int main(int argc, char** argv) {
   unsigned seed = 7;
   std::size_t swap_rounds = bine::PoolSettings{}.swap_rounds;
   std::string cache_path;
+  std::size_t demo_targets = 20, demo_exhaustive5 = 3, demo_exhaustive6 = 0;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string option = argv[i];
     if (option == "--targets")
@@ -106,10 +165,17 @@ int main(int argc, char** argv) {
       swap_rounds = std::stoul(argv[i + 1]);
     else if (option == "--exhaustive-cache")
       cache_path = argv[i + 1];
+    else if (option == "--demo-targets")
+      demo_targets = std::stoul(argv[i + 1]);
+    else if (option == "--demo-exhaustive")
+      demo_exhaustive5 = std::stoul(argv[i + 1]);
+    else if (option == "--demo-exhaustive-6")
+      demo_exhaustive6 = std::stoul(argv[i + 1]);
   }
   std::setvbuf(stdout, nullptr, _IOLBF, 0);  // lines appear as they are measured
   std::printf("blend_bench --targets %zu --exhaustive-targets %zu --seed %u --swap-rounds %zu\n", targets,
               exhaustive_targets, seed, swap_rounds);
+  if (demo_targets > 0) demo_catalog_section(demo_targets, demo_exhaustive5, demo_exhaustive6, seed);
   std::map<std::pair<unsigned, std::size_t>, double> cache;
   if (!cache_path.empty()) {
     std::ifstream in(cache_path);
