@@ -4,6 +4,7 @@
 #include <cmath>
 #include <memory>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
@@ -26,6 +27,7 @@ struct BlendOptions {
   std::string like;
   std::string recipe;
   RecipeFileOptions recipe_file;
+  BitternessOptions bitterness;
   std::string stock;
   std::string max_varieties;
   std::string rate;      // g/L, default 4
@@ -48,6 +50,7 @@ struct BlendArgs {
   std::string like;
   std::string recipe;
   BeerXmlReadOptions recipe_file;
+  BitternessSettings settings;
   std::string stock;
   std::size_t max_varieties = 3;
   double others = 0.25;
@@ -91,6 +94,7 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.like = o.like;
   args.recipe = o.recipe;
   args.recipe_file = read_recipe_file_options(reader, o.recipe_file);
+  args.settings = read_bitterness_options(reader, o.bitterness);
   args.stock = o.stock;
   args.json = o.json;
   args.html = o.html;
@@ -149,8 +153,8 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   CandidateSet candidates = blend_candidates(data.catalog, data.lexicon, stock ? &*stock : nullptr, args.like);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
-  request.plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr, args.choices,
-                            BitternessSettings{});
+  request.plan =
+      plan_blend(recipe ? &*recipe : nullptr, data.catalog, stock ? &*stock : nullptr, args.choices, args.settings);
   request.candidates = std::move(candidates.candidates);
   request.max_varieties = args.max_varieties;
   // 3. Solve: choose the pool, solve every subset, hold IBU.
@@ -181,6 +185,7 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   blend->add_option("--recipe", options->recipe,
                     "recipe file (bine JSON or BeerXML): volume, gravity, IBU; its late hops are replaced");
   add_recipe_file_options(blend, options->recipe_file);
+  add_bitterness_options(blend, options->bitterness);
   blend->add_option("--stock", options->stock, "stock file: blend only lots on hand, within their amounts");
   blend->add_option("--max-varieties", options->max_varieties, "at most this many varieties or lots (default 3)");
   blend->add_option("--rate", options->rate, "total late hops in g/L (default 4g/L)");

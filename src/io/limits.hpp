@@ -36,6 +36,12 @@ inline constexpr Bounds share{0.0, 1.0, "a share"};
 inline constexpr Bounds axis_weight{0.0, 1.0, "an axis weight"};
 inline constexpr Bounds pellet_factor{0.5, 2.0, "the pellet factor"};
 inline constexpr Bounds calibration{0.0, 5.0, "a calibration factor", true};
+inline constexpr Bounds lab_ibu{0.0, 200.0, "a lab IBU"};
+inline constexpr Bounds factor_standard_error{0.0, 5.0, "a factor's standard error"};
+inline constexpr Bounds factor_bound{-5.0, 10.0, "a factor's interval bound"};
+inline constexpr Bounds degrees_of_freedom{1.0, 1e6, "degrees of freedom"};
+inline constexpr Bounds profile_version{1.0, 1e6, "a profile version"};
+inline constexpr Bounds alpha_tolerance{0.0, 50.0, "a certificate alpha tolerance (% of the value)"};
 inline constexpr Bounds blend_varieties{1.0, 6.0, "varieties in a blend"};
 inline constexpr Bounds substitutes_listed{1.0, 100.0, "substitutes listed"};
 

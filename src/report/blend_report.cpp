@@ -6,6 +6,7 @@
 #include <sstream>
 #include <string_view>
 
+#include "report/bitterness_report.hpp"
 #include "report/output_format.hpp"
 #include "report/table.hpp"
 
@@ -84,6 +85,7 @@ void render_ibu(std::ostream& out, const BlendResult& result, const BlendReportC
   ibu.add_rule();
   ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
   ibu.render(out, "  ");
+  if (plan.bitterness.brewhouse) out << "  " << brewhouse_line(plan.bitterness) << ".\n";
 }
 
 /// The lots the blend and the charge draw on, and what is left of each.
@@ -197,6 +199,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
              {"late", rounded(result.late_ibu, 2)},
              {"bittering", rounded(result.bittering_ibu, 2)}}},
            {"total_ibu", rounded(result.total_ibu, 2)},
+           {"brewhouse", brewhouse_json(plan.bitterness)},
            {"notes", context.notes},
            {"cautions", blend_cautions(result)}};
   return doc;
