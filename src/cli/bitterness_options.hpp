@@ -1,6 +1,6 @@
 #pragma once
-// The options that choose how bitterness is computed (--model, --pellet-factor, --calibration),
-// bound and read the same way by every command that computes IBU.
+// The options that choose how bitterness is computed (--model, --pellet-factor, --calibration,
+// --brewhouse or BINE_BREWHOUSE), bound and read the same way by every command that computes IBU.
 #include <CLI/CLI.hpp>
 #include <string>
 
@@ -10,15 +10,21 @@
 namespace bine::cli {
 
 struct BitternessOptions {
-  std::string model = "tinseth";
+  std::string model;  // empty: tinseth, or the profile's
   std::string pellet_factor;
   std::string calibration;
+  std::string brewhouse;  // empty: $BINE_BREWHOUSE, if set
 };
 
-/// Adds --model, --pellet-factor and --calibration to `command`.
+/// Adds --model and --pellet-factor (the model a calibration fits) to `command`.
+void add_model_options(CLI::App* command, BitternessOptions& options);
+/// Adds --model, --pellet-factor, --calibration and --brewhouse to `command`.
 void add_bitterness_options(CLI::App* command, BitternessOptions& options);
 
-/// The settings the options give; problems go to `reader`.
+/// The model and pellet factor the options give; problems go to `reader`.
+BitternessSettings read_model_options(OptionReader& reader, const BitternessOptions& options);
+/// The settings the options give, with the brewhouse profile's model, pellet factor and factors when
+/// --brewhouse (else BINE_BREWHOUSE) names one; problems go to `reader`.
 BitternessSettings read_bitterness_options(OptionReader& reader, const BitternessOptions& options);
 
 }  // namespace bine::cli

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <memory>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
@@ -30,6 +31,7 @@ struct BlendOptions {
   std::string like;
   std::string recipe;
   RecipeFileOptions recipe_file;
+  BitternessOptions bitterness;
   std::string stock;
   CellarOptions cellar;
   std::string max_varieties;
@@ -53,6 +55,7 @@ struct BlendArgs {
   std::string like;
   std::string recipe;
   BeerXmlReadOptions recipe_file;
+  BitternessSettings settings;
   std::string stock;
   CellarChoice cellar;
   std::size_t max_varieties = 3;
@@ -97,6 +100,7 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.like = o.like;
   args.recipe = o.recipe;
   args.recipe_file = read_recipe_file_options(reader, o.recipe_file);
+  args.settings = read_bitterness_options(reader, o.bitterness);
   args.stock = o.stock;
   args.json = o.json;
   args.html = o.html;
@@ -164,8 +168,8 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
       blend_candidates(data.catalog, data.lexicon, cellar ? &*cellar : nullptr, args.like, args.cellar.allow_stale);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
-  request.plan = plan_blend(recipe ? &*recipe : nullptr, data.catalog, cellar ? &*cellar : nullptr, args.choices,
-                            BitternessSettings{});
+  request.plan =
+      plan_blend(recipe ? &*recipe : nullptr, data.catalog, cellar ? &*cellar : nullptr, args.choices, args.settings);
   request.candidates = std::move(candidates.candidates);
   request.max_varieties = args.max_varieties;
   // 3. Solve: choose the pool, solve every subset, hold IBU.
@@ -200,6 +204,7 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   blend->add_option("--recipe", options->recipe,
                     "recipe file (bine JSON or BeerXML): volume, gravity, IBU; its late hops are replaced");
   add_recipe_file_options(blend, options->recipe_file);
+  add_bitterness_options(blend, options->bitterness);
   blend->add_option("--stock", options->stock,
                     "stock file: blend only lots on hand, within their amounts, aged to the brew day");
   add_cellar_options(blend, options->cellar, true);

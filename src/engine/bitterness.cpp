@@ -124,6 +124,10 @@ double rager_flame_out_utilization(double effective_minutes, double celsius) {
   return relative_isomerization_rate(celsius) * floor + (rager_utilization(effective_minutes) - floor);
 }
 
+bool is_late_addition(HopUse use, std::optional<double> minutes) {
+  return use == HopUse::whirlpool || (use == HopUse::boil && minutes.value_or(0.0) <= 0.0);
+}
+
 std::string_view to_string(IbuModel model) { return model == IbuModel::rager ? "rager" : "tinseth"; }
 
 std::optional<IbuModel> ibu_model_from(std::string_view text) {
@@ -187,7 +191,10 @@ AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_perc
   if (hop.use == HopUse::dry_hop) return result;  // dry hops add no IBU (below isomerisation)
   result.effective_minutes = effective_minutes(hop, wort);
   result.rate_extrapolated = sits_below_measured_range(hop, wort);
-  const double factors = form_factor(hop, settings) * settings.calibration;
+  const double brewhouse = is_late_addition(hop.use, hop.minutes)
+                               ? settings.late_calibration.value_or(settings.calibration)
+                               : settings.calibration;
+  const double factors = form_factor(hop, settings) * brewhouse;
   const double mg_per_litre = alpha_mg_per_litre(hop.grams, alpha_percent, wort.volume_l);
   switch (settings.model) {
     case IbuModel::tinseth:

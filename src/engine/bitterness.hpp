@@ -6,6 +6,7 @@
 #include <string_view>
 #include <vector>
 
+#include "model/brewhouse.hpp"
 #include "model/hops.hpp"
 
 namespace bine {
@@ -17,9 +18,15 @@ std::optional<IbuModel> ibu_model_from(std::string_view text);
 
 struct BitternessSettings {
   IbuModel model = IbuModel::tinseth;
-  double pellet_factor = 1.10;  // utilization multiplier for pellets and powder (common practice)
-  double calibration = 1.0;     // brewhouse calibration factor on every addition
+  double pellet_factor = 1.10;                // utilization multiplier for pellets and powder (common practice)
+  double calibration = 1.0;                   // brewhouse calibration factor on every addition (boil ones when split)
+  std::optional<double> late_calibration;     // a split profile's factor on whirlpool and flame-out additions
+  std::optional<BrewhouseProfile> brewhouse;  // the profile the factors came from, if any
 };
+
+/// Whirlpool additions and boil additions at 0 minutes (flame-out): the "late" additions a split
+/// brewhouse profile gives their own factor (docs/methods.md#calibration-batches).
+bool is_late_addition(HopUse use, std::optional<double> minutes);
 
 /// The wort the hops go into: volume at the end of the boil, boil gravity (the recipe's OG is used),
 /// boil length, and the boil-equivalent minutes of a hot stand after flame-out (recipe "hop_stand")

@@ -32,6 +32,47 @@ std::string describe_use(const HopAddition& hop, UnitSystem units) {
                             format_temperature(hop.cooling->ambient_c, units));
 }
 
+namespace {
+
+std::string factor_text(const FittedFactor& factor) {
+  return fmt::format("{:.3f} (95 % {:.3f}-{:.3f})", factor.value, factor.low, factor.high);
+}
+
+nlohmann::json factor_json(const FittedFactor& factor) {
+  return {
+      {"value", rounded(factor.value, 6)}, {"low_95", rounded(factor.low, 6)}, {"high_95", rounded(factor.high, 6)}};
+}
+
+}  // namespace
+
+std::string describe_profile(const BrewhouseProfile& profile) {
+  if (profile.boil_factor && profile.late_factor)
+    return fmt::format("boil factor {}, late-hop factor {}", factor_text(*profile.boil_factor),
+                       factor_text(*profile.late_factor));
+  return "factor " + factor_text(profile.factor);
+}
+
+std::string brewhouse_line(const BitternessSettings& settings) {
+  if (!settings.brewhouse) return "";
+  const BrewhouseProfile& profile = *settings.brewhouse;
+  return fmt::format("Brewhouse profile {} (fitted {} on {} batches): {}", profile.source_file,
+                     format_date(profile.made), profile.batches_used.size(), describe_profile(profile));
+}
+
+nlohmann::json brewhouse_json(const BitternessSettings& settings) {
+  if (!settings.brewhouse) return nullptr;
+  const BrewhouseProfile& profile = *settings.brewhouse;
+  nlohmann::json out{{"file", profile.source_file},
+                     {"date", format_date(profile.made)},
+                     {"batches", profile.batches_used.size()},
+                     {"factor", factor_json(profile.factor)}};
+  if (profile.boil_factor && profile.late_factor) {
+    out["boil_factor"] = factor_json(*profile.boil_factor);
+    out["late_factor"] = factor_json(*profile.late_factor);
+  }
+  return out;
+}
+
 std::string_view hot_wort_caution() {
   return "Caution: whirlpool and hop-stand wort is near boiling and scalds; keep lids, hoses and hands clear, and "
          "follow your brewhouse's safety rules.";
@@ -72,9 +113,13 @@ std::string_view alpha_source_text(AlphaSource source) {
 }
 
 std::string model_line(const RecipeBitterness& bitterness) {
-  return fmt::format("{} model, pellet factor {:.2f}, calibration {:.2f}",
-                     bitterness.settings.model == IbuModel::rager ? "Rager" : "Tinseth",
-                     bitterness.settings.pellet_factor, bitterness.settings.calibration);
+  const BitternessSettings& settings = bitterness.settings;
+  const std::string model = settings.model == IbuModel::rager ? "Rager" : "Tinseth";
+  if (settings.brewhouse)
+    return fmt::format("{} model, pellet factor {:.2f}, brewhouse profile {}", model, settings.pellet_factor,
+                       settings.brewhouse->source_file);
+  return fmt::format("{} model, pellet factor {:.2f}, calibration {:.2f}", model, settings.pellet_factor,
+                     settings.calibration);
 }
 
 }  // namespace
@@ -119,6 +164,7 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
         format_minutes(recipe.hop_stand->minutes), format_temperature(recipe.hop_stand->temperature_c, units),
         bitterness.wort.stand_equivalent_minutes,
         recipe.hop_stand->temperature_c < kLowestMeasuredCelsius ? ", extrapolated below 90 C" : "");
+  if (bitterness.settings.brewhouse) out << '\n' << brewhouse_line(bitterness.settings) << ".\n";
   if (recipe.target_ibu)
     out << fmt::format("\nTarget {:.1f} IBU; computed {:.1f} IBU ({:+.1f} IBU).\n", *recipe.target_ibu,
                        bitterness.total_ibu, bitterness.total_ibu - *recipe.target_ibu);
@@ -138,6 +184,8 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
   out["model"] = std::string(to_string(bitterness.settings.model));
   out["pellet_factor"] = bitterness.settings.pellet_factor;
   out["calibration"] = bitterness.settings.calibration;
+  if (bitterness.settings.late_calibration) out["late_calibration"] = *bitterness.settings.late_calibration;
+  out["brewhouse"] = brewhouse_json(bitterness.settings);
   out["batch_volume_l"] = recipe.batch_volume_l;
   out["original_gravity"] = rounded(recipe.original_gravity, 4);
   out["boil_minutes"] = recipe.boil_minutes;

@@ -24,6 +24,13 @@ std::string describe_use(HopUse use, std::optional<double> minutes, std::optiona
 /// The same for a recipe addition, with its cooling course ("whirlpool 25 min from 98 C to 82 C").
 std::string describe_use(const HopAddition& hop, UnitSystem units);
 
+/// "factor 0.912 (95 % 0.884-0.940)" or "boil factor ..., late-hop factor ...": a profile in one phrase.
+std::string describe_profile(const BrewhouseProfile& profile);
+/// "Brewhouse profile FILE (fitted DATE on N batches): factor ..." or "" without a profile.
+std::string brewhouse_line(const BitternessSettings& settings);
+/// The profile for JSON output: {"file", "date", "batches", "factor", "boil_factor", "late_factor"}, or null.
+nlohmann::json brewhouse_json(const BitternessSettings& settings);
+
 /// Hot-wort caution (whirlpool / hop stand present).
 std::string_view hot_wort_caution();
 /// Dry-hop refermentation caution (hop creep) for packaging.

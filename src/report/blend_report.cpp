@@ -5,6 +5,7 @@
 #include <cmath>
 #include <string_view>
 
+#include "report/bitterness_report.hpp"
 #include "report/output_format.hpp"
 #include "report/table.hpp"
 
@@ -94,6 +95,7 @@ void render_ibu(std::ostream& out, const BlendResult& result, const BlendReportC
   ibu.add_rule();
   ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
   ibu.render(out, "  ");
+  if (plan.bitterness.brewhouse) out << "  " << brewhouse_line(plan.bitterness) << ".\n";
 }
 
 /// The lots the blend and the charge draw on, and what is left of each.
@@ -208,6 +210,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
              {"late", rounded(result.late_ibu, 2)},
              {"bittering", rounded(result.bittering_ibu, 2)}}},
            {"total_ibu", rounded(result.total_ibu, 2)},
+           {"brewhouse", brewhouse_json(plan.bitterness)},
            {"notes", context.notes},
            {"cautions", blend_cautions(result)}};
   doc["on"] = context.on ? json(format_date(*context.on)) : json(nullptr);

@@ -41,6 +41,7 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
                      recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
                      context.on_from_clock ? " (today; pass --on to reproduce)" : "",
                      result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
+  if (result.before.settings.brewhouse) out << brewhouse_line(result.before.settings) << ".\n\n";
   out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
   for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
   out << '\n';
@@ -108,6 +109,7 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
   json out;
   out["recipe"] = recipe.name;
   out["model"] = std::string(to_string(result.before.settings.model));
+  out["brewhouse"] = brewhouse_json(result.before.settings);
   out["on"] = format_date(context.on);
   json lots = json::array();
   for (const auto& lot : context.lots) {
