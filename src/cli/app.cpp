@@ -108,6 +108,7 @@ int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
     setup_rebalance_command(app, globals, commands);
     setup_swap_command(app, globals, commands);
     setup_blend_command(app, globals, commands);
+    setup_stock_command(app, globals, commands);
     try {
       app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {

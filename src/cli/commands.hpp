@@ -45,5 +45,6 @@ void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable
 void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 
 }  // namespace bine::cli
