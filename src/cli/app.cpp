@@ -114,6 +114,7 @@ int run_command_line(int argc, char** argv, std::ostream& out, std::ostream& err
     setup_blend_command(app, globals, commands);
     setup_import_command(app, globals, commands);
     setup_calibrate_command(app, globals, commands);
+    setup_stock_command(app, globals, commands);
     try {
       app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {

@@ -58,5 +58,6 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
 void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_import_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_calibrate_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 
 }  // namespace bine::cli

@@ -1,0 +1,341 @@
+// bine stock: the cold store as a ledger. list shows every lot aged to a day; receive, adjust and
+// undo change it, each change journalled beside the stock file before the file is replaced, under
+// a lock (io/stock_ledger.hpp); history prints the journal.
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cstdlib>
+#include <memory>
+#include <set>
+
+#include "cli/commands.hpp"
+#include "cli/option_values.hpp"
+#include "engine/stock_view.hpp"
+#include "io/limits.hpp"
+#include "io/stock_ledger.hpp"
+#include "model/errors.hpp"
+#include "model/names.hpp"
+#include "report/stock_report.hpp"
+
+namespace bine::cli {
+namespace {
+
+struct ListOptions {
+  std::string stock;
+  std::string on;
+  std::string stale_below;
+  bool json = false;
+};
+
+/// A lot with less than this share of its certificate alpha is stale.
+constexpr Bounds kStaleBelow{1.0, 99.0, "a stale share"};
+
+struct ReceiveOptions {
+  std::string lot, variety, amount, alpha, packaged, stored, form = "pellet", beta, oil, hsi;
+};
+
+struct AdjustOptions {
+  std::string lot, to, reason;
+};
+
+struct HistoryOptions {
+  std::string lot;
+  bool json = false;
+};
+
+std::string stock_file_from(const std::string& option) {
+  if (!option.empty()) return option;
+  if (const char* env = std::getenv("BINE_STOCK"); env != nullptr && *env != '\0') return env;
+  throw InputError("no stock file (expected --stock FILE, or the BINE_STOCK environment variable)");
+}
+
+std::size_t find_lot(const Stock& stock, const std::string& code, const std::string& option) {
+  std::vector<std::string> codes;
+  for (std::size_t i = 0; i < stock.lots.size(); ++i) {
+    const std::string shown = stock.lots[i].lot.empty() ? fmt::format("lot {}", i + 1) : stock.lots[i].lot;
+    if (fold_name(shown) == fold_name(code)) return i;
+    codes.push_back(shown);
+  }
+  const std::string hint = did_you_mean(code, codes);
+  throw InputError(fmt::format("{}: \"{}\": no such lot in {} ({}expected one of {})", option, code, stock.source_file,
+                               hint.empty() ? "" : hint + "; ", fmt::join(codes, ", ")));
+}
+
+std::string lot_code(const Stock& stock, std::size_t index) {
+  return stock.lots[index].lot.empty() ? fmt::format("lot {}", index + 1) : stock.lots[index].lot;
+}
+
+void report_change(const Console& console, const StockLedger& ledger, const JournalEntry& entry,
+                   const GlobalOptions& globals) {
+  if (ledger.completed_pending())
+    console.err << "bine: note: completed the last journal entry, which an interrupted bine had not yet written to "
+                << ledger.stock_file().string() << '\n';
+  render_change(console.out, entry, globals.unit_system());
+  console.out << fmt::format("Written: {} (journal {})\n", ledger.stock_file().string(),
+                             ledger.journal_file().string());
+}
+
+// ---- list -----------------------------------------------------------------------------------------
+
+void run_list(const Console& console, const GlobalOptions& globals, const ListOptions& options,
+              const std::string& stock_option) {
+  OptionReader reader;
+  const auto on = reader.brew_day(options.on);
+  const auto stale_below =
+      reader.optional_quantity("--stale-below", options.stale_below, Dimension::percent, kStaleBelow);
+  reader.throw_if_any();
+  const std::string file = stock_file_from(options.stock.empty() ? stock_option : options.stock);
+  const DataSet data = load_data(globals, console);
+  std::optional<StockView> view;
+  {
+    const StockLedger ledger(file, true);  // completes an interrupted change before the list is read
+    view = view_stock(ledger.stock(), data.catalog, on->date, stale_below.value_or(75.0) / 100.0);
+  }
+  print_result(
+      console, options.json, [&] { return stock_list_to_json(*view); },
+      [&](std::ostream& out) {
+        render_stock_list(out, *view, globals.unit_system());
+        if (on->from_clock) out << "(listed for today; pass --on DATE to repeat the list)\n";
+      });
+}
+
+// ---- receive --------------------------------------------------------------------------------------
+
+std::optional<Storage> read_stored(OptionReader& reader, const std::string& text) {
+  const auto comma = text.rfind(',');
+  const auto package =
+      comma == std::string::npos ? std::nullopt : package_from(trim_space(std::string_view(text).substr(comma + 1)));
+  if (!package) {
+    reader.add(
+        fmt::format("--stored: \"{}\": no package or an unknown one (expected \"TEMP,PACKAGE\" such as "
+                    "\"-2 C,vacuum\"; package vacuum, sealed or open)",
+                    text));
+    return std::nullopt;
+  }
+  const auto temperature =
+      reader.quantity("--stored", text.substr(0, comma), Dimension::temperature, limits::storage_temperature);
+  if (!temperature) return std::nullopt;
+  return Storage{*temperature, *package};
+}
+
+/// The lot record --lot ... --stored give, in the stock file's format (canonical units).
+nlohmann::ordered_json read_receipt(const ReceiveOptions& o, double& grams) {
+  OptionReader reader;
+  reader.require(!trim_space(o.lot).empty(), "--lot: empty (expected the lot code on the certificate)");
+  reader.require(!trim_space(o.variety).empty(), "--variety: empty (expected the variety's name)");
+  const auto amount = reader.quantity("--amount", o.amount, Dimension::mass, limits::stock_mass);
+  const auto alpha = reader.quantity("--alpha", o.alpha, Dimension::percent, limits::alpha_acid);
+  const auto beta = reader.optional_quantity("--beta", o.beta, Dimension::percent, limits::beta_acid);
+  const auto oil = reader.optional_quantity("--oil", o.oil, Dimension::oil_content, limits::total_oil);
+  const auto hsi = reader.optional_quantity("--hsi", o.hsi, Dimension::number, limits::hsi);
+  const auto packaged = reader.date("--packaged", o.packaged);
+  const auto storage = read_stored(reader, o.stored);
+  const auto form = form_from(o.form);
+  if (!form) reader.add(fmt::format("--form: \"{}\": unknown (expected pellet, whole or powder)", o.form));
+  reader.throw_if_any();
+  grams = ledger_grams(*amount);
+  nlohmann::ordered_json record;
+  record["variety"] = std::string(trim_space(o.variety));
+  record["lot"] = std::string(trim_space(o.lot));
+  record["form"] = std::string(to_string(*form));
+  record["alpha_acid"] = *alpha;
+  if (beta) record["beta_acid"] = *beta;
+  if (oil) record["total_oil"] = *oil;
+  if (hsi) record["hsi"] = *hsi;
+  record["packaged"] = format_date(*packaged);
+  record["storage"] = {{"temperature", storage->temperature_c}, {"package", std::string(to_string(storage->package))}};
+  record["on_hand"] = fmt::format("{} g", grams);
+  return record;
+}
+
+void run_receive(const Console& console, const GlobalOptions& globals, const ReceiveOptions& options,
+                 const std::string& stock_option) {
+  double grams = 0.0;
+  const nlohmann::ordered_json record = read_receipt(options, grams);
+  StockLedger ledger(stock_file_from(stock_option));
+  const Stock& stock = ledger.stock();
+  for (std::size_t i = 0; i < stock.lots.size(); ++i)
+    if (fold_name(stock.lots[i].lot) == fold_name(record["lot"].get<std::string>()))
+      throw InputError(
+          fmt::format("--lot: \"{}\": already in {} as lot {} ({}) (expected a new lot code; to "
+                      "correct its amount use stock adjust)",
+                      options.lot, stock.source_file, i + 1, stock.lots[i].variety));
+  JournalEntry entry;
+  entry.command = "receive";
+  entry.changes.push_back(LotChange{LotChangeKind::added, stock.lots.size(), record["lot"].get<std::string>(),
+                                    record["variety"].get<std::string>(), 0.0, grams, record});
+  report_change(console, ledger, ledger.commit(std::move(entry)), globals);
+}
+
+// ---- adjust ---------------------------------------------------------------------------------------
+
+void run_adjust(const Console& console, const GlobalOptions& globals, const AdjustOptions& options,
+                const std::string& stock_option) {
+  OptionReader reader;
+  const auto to = reader.quantity("--to", options.to, Dimension::mass, limits::stock_mass);
+  reader.require(!trim_space(options.reason).empty(), "--reason: empty (expected why the count changed)");
+  reader.throw_if_any();
+  StockLedger ledger(stock_file_from(stock_option));
+  const Stock& stock = ledger.stock();
+  const std::size_t index = find_lot(stock, options.lot, "LOT");
+  JournalEntry entry;
+  entry.command = "adjust";
+  entry.reason = std::string(trim_space(options.reason));
+  entry.changes.push_back(LotChange{LotChangeKind::amount,
+                                    index,
+                                    lot_code(stock, index),
+                                    stock.lots[index].variety,
+                                    stock.lots[index].on_hand_g.value_or(0.0),
+                                    ledger_grams(*to),
+                                    {}});
+  report_change(console, ledger, ledger.commit(std::move(entry)), globals);
+}
+
+// ---- history and undo -----------------------------------------------------------------------------
+
+void run_history(const Console& console, const GlobalOptions& globals, const HistoryOptions& options,
+                 const std::string& stock_option) {
+  const StockLedger ledger(stock_file_from(stock_option), true);
+  std::vector<JournalEntry> shown;
+  for (const JournalEntry& entry : ledger.entries())
+    if (options.lot.empty() || std::any_of(entry.changes.begin(), entry.changes.end(), [&](const LotChange& c) {
+          return fold_name(c.lot) == fold_name(options.lot);
+        }))
+      shown.push_back(entry);
+  print_result(
+      console, options.json, [&] { return history_to_json(shown); },
+      [&](std::ostream& out) {
+        render_history(out, shown, globals.unit_system());
+        if (ledger.edited_since_last_entry())
+          out << fmt::format("note: {} was changed by hand since the last entry\n", ledger.stock_file().string());
+      });
+}
+
+/// The latest entry not yet undone (undo entries themselves are not undone: undo walks back).
+const JournalEntry* entry_to_undo(const std::vector<JournalEntry>& entries) {
+  std::set<std::size_t> undone;
+  for (auto it = entries.rbegin(); it != entries.rend(); ++it) {
+    if (it->undoes) {
+      undone.insert(*it->undoes);
+      continue;
+    }
+    if (undone.count(it->id) == 0) return &*it;
+  }
+  return nullptr;
+}
+
+void run_undo(const Console& console, const GlobalOptions& globals, const std::string& stock_option) {
+  StockLedger ledger(stock_file_from(stock_option));
+  const std::string file = ledger.stock_file().string();
+  if (ledger.edited_since_last_entry())
+    throw InputError(
+        fmt::format("{}: was edited by hand since journal entry {} (its SHA-256 is not the one the "
+                    "entry wrote); undo refuses to overwrite the edit (record the count with stock "
+                    "adjust, or undo the edit by hand)",
+                    file, ledger.entries().back().id));
+  const JournalEntry* target = entry_to_undo(ledger.entries());
+  if (target == nullptr)
+    throw Infeasible(fmt::format("{}: nothing to undo (the journal has no change left to reverse)", file));
+  JournalEntry entry;
+  entry.command = "undo";
+  entry.undoes = target->id;
+  entry.reason = fmt::format("{} of {}", target->command, target->time);
+  entry.changes = inverse_changes(target->changes);
+  report_change(console, ledger, ledger.commit(std::move(entry)), globals);
+}
+
+constexpr std::string_view kStockFooter =
+    "The stock file comes from --stock FILE or the BINE_STOCK environment variable. Every change is one JSON line\n"
+    "in FILE.journal, written before FILE is replaced; FILE.lock keeps two bine runs from changing it at once.\n"
+    "Examples:\n"
+    "  bine stock list --stock stock.json --on 2026-12-01\n"
+    "  bine stock --stock stock.json receive --lot TW-26-031 --variety Tidewell --amount \"5 kg\" --alpha 7.4 \\\n"
+    "      --packaged 2026-10-02 --stored \"-2 C,vacuum\"\n"
+    "  bine stock --stock stock.json adjust TW-25-044 --to \"2.2 kg\" --reason \"counted on the shelf\"\n"
+    "  bine stock --stock stock.json history TW-25-044\n"
+    "  bine stock --stock stock.json undo";
+
+void setup_list(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
+                const std::shared_ptr<std::string>& stock_option) {
+  auto options = std::make_shared<ListOptions>();
+  auto* list =
+      stock->add_subcommand("list", "every lot with its alpha today, freshness and amount; totals per variety");
+  list->add_option("STOCK", options->stock, "the stock file (else --stock or BINE_STOCK)");
+  list->add_option("--on", options->on, "the day to age every lot to, YYYY-MM-DD (default: today)");
+  list->add_option("--stale-below", options->stale_below,
+                   "a lot with less than this share of its certificate alpha is stale (default 75%)");
+  list->add_flag("--json", options->json, "print JSON");
+  list->footer(
+      "Examples:\n"
+      "  bine stock list stock.json --on 2026-12-01\n"
+      "  BINE_STOCK=stock.json bine --units us stock list --stale-below 80\n"
+      "  bine stock list stock.json --json");
+  commands.add(list, [&globals, options, stock_option](const Console& console) {
+    run_list(console, globals, *options, *stock_option);
+  });
+}
+
+void setup_receive(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
+                   const std::shared_ptr<std::string>& stock_option) {
+  auto o = std::make_shared<ReceiveOptions>();
+  auto* receive = stock->add_subcommand("receive", "put a new lot in the stock file (journalled)");
+  receive->add_option("--lot", o->lot, "the lot code on the certificate")->required();
+  receive->add_option("--variety", o->variety, "the variety")->required();
+  receive->add_option("--amount", o->amount, "amount received, with its unit (\"5 kg\", \"11 lb\")")->required();
+  receive->add_option("--alpha", o->alpha, "alpha acid % on the certificate")->required();
+  receive->add_option("--packaged", o->packaged, "packaging date, YYYY-MM-DD")->required();
+  receive->add_option("--stored", o->stored, "\"TEMP,PACKAGE\" such as \"-2 C,vacuum\" (vacuum|sealed|open)")
+      ->required();
+  receive->add_option("--form", o->form, "pellet (default), whole or powder");
+  receive->add_option("--beta", o->beta, "beta acid % on the certificate");
+  receive->add_option("--oil", o->oil, "total oil, mL/100 g");
+  receive->add_option("--hsi", o->hsi, "Hop Storage Index on the certificate");
+  receive->footer(
+      "Example:\n"
+      "  bine stock --stock stock.json receive --lot KS-26-002 --variety Keelstone --amount \"5 kg\" --alpha 12.1 \\\n"
+      "      --packaged 2026-10-20 --stored \"-2 C,vacuum\" --oil 1.8");
+  commands.add(receive, [&globals, o, stock_option](const Console& console) {
+    run_receive(console, globals, *o, *stock_option);
+  });
+}
+
+void setup_changes(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
+                   const std::shared_ptr<std::string>& stock_option) {
+  auto adjust_options = std::make_shared<AdjustOptions>();
+  auto* adjust = stock->add_subcommand("adjust", "set a lot's amount after a count (journalled)");
+  adjust->add_option("LOT", adjust_options->lot, "the lot code (or \"lot N\" for a lot without one)")->required();
+  adjust->add_option("--to", adjust_options->to, "the amount counted, with its unit (\"2.2 kg\")")->required();
+  adjust->add_option("--reason", adjust_options->reason, "why, for the journal")->required();
+  adjust->footer("Example:\n  bine stock --stock stock.json adjust TW-25-044 --to \"2.2 kg\" --reason \"shelf count\"");
+  commands.add(adjust, [&globals, adjust_options, stock_option](const Console& console) {
+    run_adjust(console, globals, *adjust_options, *stock_option);
+  });
+  auto history_options = std::make_shared<HistoryOptions>();
+  auto* history = stock->add_subcommand("history", "print the journal, or one lot's entries");
+  history->add_option("LOT", history_options->lot, "only entries that change this lot");
+  history->add_flag("--json", history_options->json, "print the entries as JSON");
+  history->footer(
+      "Examples:\n  bine stock --stock stock.json history\n  bine stock --stock stock.json history IM-25-031");
+  commands.add(history, [&globals, history_options, stock_option](const Console& console) {
+    run_history(console, globals, *history_options, *stock_option);
+  });
+  auto* undo = stock->add_subcommand("undo", "reverse the last journal entry not yet undone (itself journalled)");
+  undo->footer("Example:\n  bine stock --stock stock.json undo   # again to step further back");
+  commands.add(undo, [&globals, stock_option](const Console& console) { run_undo(console, globals, *stock_option); });
+}
+
+}  // namespace
+
+void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
+  auto stock_option = std::make_shared<std::string>();
+  auto* stock = app.add_subcommand("stock", "keep the cold store: list, receive, adjust, undo, history");
+  stock->add_option("--stock", *stock_option, "the stock file (default: $BINE_STOCK)");
+  stock->require_subcommand(1);
+  stock->fallthrough();
+  stock->footer(std::string(kStockFooter));
+  setup_list(stock, globals, commands, stock_option);
+  setup_receive(stock, globals, commands, stock_option);
+  setup_changes(stock, globals, commands, stock_option);
+}
+
+}  // namespace bine::cli

@@ -1,0 +1,145 @@
+// bine stock as real processes of the built binary: many at once on one stock file (the lock must
+// keep every update), and processes killed with SIGKILL at random points (the stock file must always
+// be complete and agree with its journal).
+#include <doctest/doctest.h>
+#include <fcntl.h>
+#include <signal.h>
+#include <sys/types.h>
+#include <sys/wait.h>
+#include <time.h>
+#include <unistd.h>
+
+#include <chrono>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <random>
+#include <string>
+#include <vector>
+
+#include "cli/run_binary.hpp"
+#include "cli/temp_dir.hpp"
+#include "io/stock_ledger.hpp"
+
+using bine::test::slurp;
+using nlohmann::json;
+
+namespace {
+
+/// Starts BINE_BINARY with `args`, output discarded, without waiting for it.
+pid_t start_bine(const std::vector<std::string>& args) {
+  std::string program = BINE_BINARY;
+  std::vector<std::string> copies(args);
+  std::vector<char*> argv{program.data()};
+  for (auto& arg : copies) argv.push_back(arg.data());
+  argv.push_back(nullptr);
+  const pid_t pid = ::fork();
+  if (pid == 0) {
+    const int null = ::open("/dev/null", O_WRONLY);
+    ::dup2(null, STDOUT_FILENO);
+    ::dup2(null, STDERR_FILENO);
+    ::execv(program.c_str(), argv.data());
+    ::_exit(127);
+  }
+  return pid;
+}
+
+/// Waits for `pid`; its exit status, or -signal when a signal ended it.
+int wait_for(pid_t pid) {
+  int status = 0;
+  if (::waitpid(pid, &status, 0) != pid) return -1000;
+  return WIFEXITED(status) ? WEXITSTATUS(status) : -WTERMSIG(status);
+}
+
+std::vector<json> journal_lines(const std::filesystem::path& stock) {
+  std::vector<json> lines;
+  std::ifstream in(stock.string() + ".journal");
+  for (std::string line; std::getline(in, line);) lines.push_back(json::parse(line));
+  return lines;
+}
+
+/// A stock file with one lot of 1 kg.
+void write_one_lot_stock(const std::filesystem::path& file) {
+  std::ofstream(file) << R"({"stock": {"name": "one lot"}, "lots": [{"variety": "Fernlight", "lot": "FL-1",
+    "alpha_acid": 10, "packaged": "2026-01-01", "storage": {"temperature": "-2 C", "package": "vacuum"},
+    "on_hand": "1 kg"}]})";
+}
+
+}  // namespace
+
+TEST_CASE("stock receive: 50 processes at once on one stock file all land (the lock loses no update)") {
+  const bine::test::TempDir dir;
+  const auto stock = dir.path() / "stock.json";
+  write_one_lot_stock(stock);
+  std::vector<pid_t> children;
+  for (int i = 0; i < 50; ++i)
+    children.push_back(start_bine({"stock", "--stock", stock.string(), "receive", "--lot", "R-" + std::to_string(i),
+                                   "--variety", "Fernlight", "--amount", "1 kg", "--alpha", "9", "--packaged",
+                                   "2026-02-01", "--stored", "-2 C,vacuum"}));
+  int failures = 0;
+  for (const pid_t child : children) failures += wait_for(child) != 0;
+  CHECK(failures == 0);
+  const json document = json::parse(slurp(stock));
+  CHECK(document["lots"].size() == 51);
+  const auto lines = journal_lines(stock);
+  REQUIRE(lines.size() == 50);
+  // The entries chain: each starts from the file the one before wrote, and the last wrote this file.
+  for (std::size_t i = 1; i < lines.size(); ++i) CHECK(lines[i]["stock_before"] == lines[i - 1]["stock_after"]);
+  CHECK(lines.back()["stock_after"] == bine::sha256_hex(slurp(stock)));
+}
+
+namespace {
+
+double on_hand_g(const std::filesystem::path& stock) {
+  const std::string text = json::parse(slurp(stock))["lots"][0]["on_hand"].get<std::string>();
+  return std::stod(text.substr(0, text.find(' ')));  // "990 g"; the first write turns "1 kg" into grams
+}
+
+}  // namespace
+
+TEST_CASE(
+    "stock adjust killed with SIGKILL at random points (200 rounds): the file is whole and agrees with the journal") {
+  const bine::test::TempDir dir;
+  const auto stock = dir.path() / "stock.json";
+  write_one_lot_stock(stock);
+  std::mt19937 random(20261202);  // fixed seed: the same kill points on every run
+  // Kills spread from before exec to past the end of a full run.
+  const auto start = std::chrono::steady_clock::now();
+  REQUIRE(
+      bine::test::run_bine({"stock", "--stock", stock.string(), "adjust", "FL-1", "--to", "999 g", "--reason", "first"})
+          .status == 0);
+  const auto full_us = std::chrono::duration_cast<std::chrono::microseconds>(std::chrono::steady_clock::now() - start);
+  std::uniform_int_distribution<long> delay_us(0, std::max<long>(1000, static_cast<long>(full_us.count())));
+  int killed = 0;
+  int pending = 0;  // rounds that ended between the journal line and the stock file
+  for (int round = 0; round < 200; ++round) {
+    INFO("round " << round);
+    const pid_t child = start_bine({"stock", "--stock", stock.string(), "adjust", "FL-1", "--to",
+                                    std::to_string(998 - round) + " g", "--reason", "round"});
+    const long wait = delay_us(random);
+    const timespec pause{wait / 1000000, (wait % 1000000) * 1000};
+    ::nanosleep(&pause, nullptr);
+    ::kill(child, SIGKILL);
+    killed += wait_for(child) == -SIGKILL;
+    // Whole: the stock file always parses.
+    const std::string text = slurp(stock);
+    REQUIRE_NOTHROW(json::parse(text));
+    // Agrees: the file is the one the last entry wrote, or (killed between journal and file) the one
+    // it started from, which the next command completes.
+    const auto lines = journal_lines(stock);
+    REQUIRE(!lines.empty());
+    const json& last = lines.back();
+    const std::string hash = bine::sha256_hex(text);
+    REQUIRE((hash == last["stock_after"] || hash == last["stock_before"]));
+    const bool written = hash == last["stock_after"];
+    pending += !written;
+    // The amount is the last entry's after (written) or before (pending).
+    CHECK(on_hand_g(stock) == (written ? last["changes"][0]["after_g"] : last["changes"][0]["before_g"]));
+    // The entries chain: each starts from the file the one before wrote.
+    for (std::size_t i = 1; i < lines.size(); ++i) REQUIRE(lines[i]["stock_before"] == lines[i - 1]["stock_after"]);
+  }
+  // Some runs must have been cut short for the test to say anything.
+  CHECK(killed > 20);
+  MESSAGE("killed " << killed << " of 200 runs, " << pending << " between journal and stock file; one full run took "
+                    << full_us.count() << " us");
+}
