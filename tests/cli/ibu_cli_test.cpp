@@ -147,7 +147,7 @@ TEST_CASE("ibu: a whirlpool that cools 98 C to 82 C over 25 min integrates k1(T(
   CHECK(text.out.find("~ sits in wort below 90 C") != std::string::npos);
 }
 
-TEST_CASE("ibu: every IBU with its 90 % interval; a recipe alpha within the certificate tolerance") {
+TEST_CASE("ibu: every IBU with its 90 % interval, a recipe alpha within the certificate tolerance") {
   // 28 g at 10 % (recipe alpha, +-5 % read as a 90 % range): IBU linear in alpha, so the interval is
   // 32.293 x 0.95 to 32.293 x 1.05 = 30.678-33.908 IBU (hand arithmetic; exact, no draws).
   const auto result = run_cli({"ibu", "--json", fixture("h3-single-boil.json")});
