@@ -8,7 +8,9 @@
 #include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
+#include "engine/ibu_interval.hpp"
 #include "engine/recipe_bitterness.hpp"
+#include "io/limits.hpp"
 #include "io/recipe_file.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/html_reports.hpp"
@@ -20,6 +22,7 @@ struct IbuOptions {
   std::string recipe;
   RecipeFileOptions recipe_file;
   BitternessOptions bitterness;
+  std::string alpha_tolerance;
   bool json = false;
   std::string html;
 };
@@ -28,6 +31,7 @@ struct IbuArgs {
   std::string recipe;
   BeerXmlReadOptions recipe_file;
   BitternessSettings settings;
+  double alpha_tolerance = kDefaultCertificateTolerancePercent;
   bool json = false;
   std::string html;
 };
@@ -40,6 +44,9 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
+  if (auto tolerance = reader.optional_quantity("--alpha-tolerance", options.alpha_tolerance, Dimension::percent,
+                                                limits::alpha_tolerance))
+    args.alpha_tolerance = *tolerance;
   reader.throw_if_any();
   return args;
 }
@@ -55,12 +62,13 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
     return recipe_bitterness(recipe, data.catalog, args.settings);
   }();
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
+  const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance);
   // 3. Render.
   write_html(args.html,
              [&] { return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe)); });
   print_result(
-      console, args.json, [&] { return bitterness_to_json(recipe, bitterness); },
-      [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system()); });
+      console, args.json, [&] { return bitterness_to_json(recipe, bitterness, &intervals); },
+      [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system(), &intervals); });
 }
 
 }  // namespace
@@ -71,17 +79,21 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   ibu->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   add_bitterness_options(ibu, options->bitterness);
   add_recipe_file_options(ibu, options->recipe_file);
+  ibu->add_option("--alpha-tolerance", options->alpha_tolerance,
+                  "a certificate's alpha tolerance, +- % of the value, read as a 90 % range (default 5 %)");
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
   add_html_option(ibu, options->html);
   ibu->footer(
       "Examples:\n"
       "  bine ibu pale-ale.json\n"
       "  bine ibu pale-ale.json --model rager\n"
+      "  bine ibu pale-ale.json --brewhouse brewhouse.json --alpha-tolerance 3%\n"
       "  bine --units us ibu hazy-ipa.json --json\n"
       "  bine ibu their-recipe.xml --recipe-name \"Harbour Pale\" --whirlpool-temp 85C\n"
       "  bine ibu pale-ale.json --html pale-ale.html     # brew-day sheet to print\n"
       "Whirlpool additions count their boil-equivalent minutes (Malowicki & Shellhammer 2005);\n"
-      "a recipe \"hop_stand\" adds its boil-equivalent minutes to boil and first-wort additions.");
+      "a recipe \"hop_stand\" adds its boil-equivalent minutes to boil and first-wort additions.\n"
+      "Every IBU comes with its 90 % interval (alpha range or certificate tolerance, brewhouse factor).");
   commands.add(ibu,
                [&globals, options](const Console& console) { run_ibu(console, globals, parse_ibu_args(*options)); });
 }

@@ -124,7 +124,17 @@ std::string model_line(const RecipeBitterness& bitterness) {
 
 }  // namespace
 
-void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units) {
+std::string ibu_with_interval(double ibu, const IbuRange& range) {
+  const int decimals = range.high - range.low < 5.0 ? 1 : 0;
+  return fmt::format("{:.1f} IBU ({:.{}f}-{:.{}f})", ibu, std::max(range.low, 0.0), decimals, range.high, decimals);
+}
+
+void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
+                       const IbuIntervals* intervals) {
+  const auto ibu_text = [&](double ibu, std::optional<std::size_t> row) {
+    if (intervals == nullptr) return fmt::format("{:.1f} IBU", ibu);
+    return ibu_with_interval(ibu, row ? intervals->additions[*row] : intervals->total);
+  };
   out << fmt::format("{}: {} at OG {:.3f}, {} boil; {}\n\n", recipe.name.empty() ? recipe.source_file : recipe.name,
                      format_volume(recipe.batch_volume_l, units), recipe.original_gravity,
                      format_minutes(recipe.boil_minutes), model_line(bitterness));
@@ -137,6 +147,7 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
                    {"alpha", Align::right},
                    {"util.", Align::right},
                    {"IBU", Align::right}});
+  std::size_t row = 0;
   for (const auto& line : bitterness.additions) {
     const bool dry = line.use == HopUse::dry_hop;
     table.add_row({std::to_string(line.index + 1), line.variety,
@@ -145,13 +156,19 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
                    format_mass(line.grams, units), std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
                    line.alpha_source == AlphaSource::none ? "-" : fmt::format("{:.1f} %", line.alpha_percent),
                    dry ? "-" : fmt::format("{:.1f} %", 100.0 * line.bitterness.utilization),
-                   fmt::format("{:.1f} IBU", line.bitterness.ibu)});
+                   dry ? fmt::format("{:.1f} IBU", line.bitterness.ibu) : ibu_text(line.bitterness.ibu, row)});
+    ++row;
   }
   table.add_rule();
-  table.add_row({"", "total", "", "", "", "", "", "", fmt::format("{:.1f} IBU", bitterness.total_ibu)});
+  table.add_row({"", "total", "", "", "", "", "", "", ibu_text(bitterness.total_ibu, std::nullopt)});
   table.render(out);
   out << "  (boil-eq. = minutes counted as boiling; util. = alpha acid turned into IBU, with form and "
          "calibration factors)\n";
+  if (intervals != nullptr)
+    out << fmt::format(
+        "  (IBU (low-high) = 90 % interval from the alpha's catalog range or certificate tolerance{}; {})\n",
+        bitterness.settings.brewhouse ? " and the brewhouse factor" : "",
+        intervals->monte_carlo ? "10^4 seeded draws" : "exact, linear");
   if (std::any_of(bitterness.additions.begin(), bitterness.additions.end(),
                   [](const AdditionLine& line) { return line.bitterness.rate_extrapolated; }))
     out << "  ~ sits in wort below 90 C: the isomerisation rate fit (Malowicki & Shellhammer 2005) is "
@@ -177,7 +194,8 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
                      bitterness.total_ibu, recipe.original_gravity, bitterness.bu_gu, bitterness.bu_gu_reading);
 }
 
-nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness) {
+nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness,
+                                  const IbuIntervals* intervals) {
   using nlohmann::json;
   json out;
   out["recipe"] = recipe.name;
@@ -215,10 +233,19 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
     a["effective_minutes"] = rounded(line.bitterness.effective_minutes, 3);
     a["utilization"] = rounded(line.bitterness.utilization, 5);
     a["ibu"] = rounded(line.bitterness.ibu, 3);
+    if (intervals != nullptr) {
+      a["ibu_low"] = rounded(intervals->additions[additions.size()].low, 3);
+      a["ibu_high"] = rounded(intervals->additions[additions.size()].high, 3);
+    }
     additions.push_back(std::move(a));
   }
   out["additions"] = std::move(additions);
   out["total_ibu"] = rounded(bitterness.total_ibu, 3);
+  if (intervals != nullptr) {
+    out["total_ibu_low"] = rounded(intervals->total.low, 3);
+    out["total_ibu_high"] = rounded(intervals->total.high, 3);
+    out["interval"] = {{"coverage", kIntervalCoverage}, {"monte_carlo", intervals->monte_carlo}};
+  }
   out["bu_gu"] = rounded(bitterness.bu_gu, 4);
   out["bu_gu_reading"] = bitterness.bu_gu_reading;
   out["notes"] = bitterness.notes;

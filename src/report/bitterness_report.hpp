@@ -5,6 +5,7 @@
 #include <ostream>
 #include <string>
 
+#include "engine/ibu_interval.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/quantity.hpp"
 #include "report/output_format.hpp"
@@ -12,9 +13,15 @@
 namespace bine {
 
 /// Text report: one row per addition, totals, notes, cautions; the last line is the BU:GU reading.
-void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units);
-/// JSON report in canonical units (g, L, C, min, %); deterministic.
-nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness);
+/// With `intervals`, every IBU carries its 90 % interval ("38.9 IBU (35-43)").
+void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
+                       const IbuIntervals* intervals = nullptr);
+/// JSON report in canonical units (g, L, C, min, %); deterministic. With `intervals`, ibu_low and
+/// ibu_high beside each IBU (total_ibu_low, total_ibu_high for the total).
+nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness,
+                                  const IbuIntervals* intervals = nullptr);
+/// "38.9 IBU (35-43)": the figure with its interval, 1 decimal in the interval when it is narrower than 5 IBU.
+std::string ibu_with_interval(double ibu, const IbuRange& range);
 
 /// "60 min", "1.5 h" stays "90 min"; days for dry-hop contact ("4 d") from 1 day up.
 std::string format_minutes(double minutes);

@@ -166,3 +166,22 @@ TEST_CASE("ibu: a whirlpool that cools 98 C to 82 C over 25 min integrates k1(T(
   CHECK(text.out.find("whirlpool 25 min from 98 C to 92 C ~") == std::string::npos);
   CHECK(text.out.find("~ sits in wort below 90 C") != std::string::npos);
 }
+
+TEST_CASE("ibu: every IBU with its 90 % interval, a recipe alpha within the certificate tolerance") {
+  // 28 g at 10 % (recipe alpha, +-5 % read as a 90 % range): IBU linear in alpha, so the interval is
+  // 32.293 x 0.95 to 32.293 x 1.05 = 30.678-33.908 IBU (hand arithmetic; exact, no draws).
+  const auto result = run_cli({"ibu", "--json", fixture("h3-single-boil.json")});
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  CHECK(json["additions"][0]["ibu_low"].get<double>() == doctest::Approx(30.678).epsilon(1e-4));
+  CHECK(json["additions"][0]["ibu_high"].get<double>() == doctest::Approx(33.908).epsilon(1e-4));
+  CHECK(json["total_ibu_low"].get<double>() == doctest::Approx(30.678).epsilon(1e-4));
+  CHECK(json["interval"]["monte_carlo"] == false);
+  // --alpha-tolerance 10%: 29.064-35.522 IBU.
+  const auto wide = run_cli({"ibu", "--json", "--alpha-tolerance", "10%", fixture("h3-single-boil.json")});
+  REQUIRE(wide.status == 0);
+  CHECK(nlohmann::json::parse(wide.out)["total_ibu_high"].get<double>() == doctest::Approx(35.522).epsilon(1e-4));
+  const auto text = run_cli({"ibu", fixture("h3-single-boil.json")});
+  CHECK(text.out.find("32.3 IBU (30.7-33.9)") != std::string::npos);
+}
