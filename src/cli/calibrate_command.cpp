@@ -8,6 +8,7 @@
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "engine/calibration.hpp"
+#include "engine/cellar.hpp"
 #include "io/batch_log.hpp"
 #include "io/brewhouse_profile.hpp"
 #include "io/loaders.hpp"
@@ -64,7 +65,9 @@ std::vector<CalibrationBatch> model_batches(const BatchLog& log, const Catalog& 
     for (const auto& note : file.notes) notes.push_back(fmt::format("{}: {}", logged.where, note));
     if (logged.stock) {
       std::vector<std::string> stock_notes;
-      const auto lots = lots_from_stock(recipe, load_stock(*logged.stock), catalog, logged.brewed, stock_notes);
+      // The beer was brewed with what was in the cold store, stale or not.
+      const Cellar cellar = age_cellar(load_stock(*logged.stock), catalog, logged.brewed);
+      const auto lots = lots_from_stock(recipe, cellar, /*allow_stale=*/true, stock_notes);
       recipe = recipe_as_brewed(recipe, lots);
       for (const auto& note : stock_notes) notes.push_back(fmt::format("{}: {}", logged.where, note));
     }
