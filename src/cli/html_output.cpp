@@ -7,8 +7,9 @@
 namespace bine::cli {
 
 void add_html_option(CLI::App* command, std::string& file) {
-  command->add_option("--html", file,
-                      "also write a printable HTML sheet (tables, charts, cautions; one file, no script) to FILE")
+  command
+      ->add_option("--html", file,
+                   "also write a printable HTML sheet (tables, charts, cautions; one file, no script) to FILE")
       ->check(output_file_name());
 }
 

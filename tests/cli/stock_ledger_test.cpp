@@ -161,7 +161,7 @@ TEST_CASE("stock receive and undo: the lot goes in and out again, each change on
   CHECK(nothing.err.find("nothing to undo") != std::string::npos);
 }
 
-TEST_CASE("stock adjust, history and undo; undo refuses a stock file edited by hand since the last entry") {
+TEST_CASE("stock adjust, history and undo, and undo refuses a stock file edited by hand since the last entry") {
   ScratchStock stock;
   REQUIRE(run_cli({"stock", "--stock", stock.path(), "adjust", "FL-1", "--to", "800 g", "--reason", "count"}).status ==
           0);
@@ -204,7 +204,7 @@ TEST_CASE("stock adjust, history and undo; undo refuses a stock file edited by h
   CHECK(stock.document()["lots"][0]["on_hand"] == "750 g");
 }
 
-TEST_CASE("stock: a change journalled but not yet written is completed by the next command; a cut line is dropped") {
+TEST_CASE("stock: a change journalled but not yet written is completed by the next command and a cut line is dropped") {
   ScratchStock stock;
   const std::string before = slurp(stock.file);
   REQUIRE(run_cli({"stock", "--stock", stock.path(), "adjust", "FL-2", "--to", "300 g", "--reason", "count"}).status ==

@@ -138,7 +138,7 @@ TEST_CASE("a write through a symlink replaces the link's target and keeps the li
   CHECK(!temp_file_exists(folder.path, "current.json"));
 }
 
-TEST_CASE("a write keeps the old file's permission bits; a new file gets 0666 less the umask") {
+TEST_CASE("a write keeps the old file's permission bits and a new file gets 0666 less the umask") {
   const Folder folder;
   const fs::path target = folder.path / "private.json";
   { std::ofstream(target, std::ios::binary) << "old"; }

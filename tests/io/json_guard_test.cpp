@@ -43,7 +43,7 @@ struct CountingHandler : nlohmann::json_sax<nlohmann::json> {
 
 }  // namespace
 
-TEST_CASE("nesting up to 64 levels parses; one more is refused with its line and column") {
+TEST_CASE("nesting up to 64 levels parses and one more is refused with its line and column") {
   CHECK(problems(nested(bine::kMaxJsonDepth)).empty());
   CHECK(problems(nested(bine::kMaxJsonDepth + 1)) ==
         "f.json: nested deeper than 64 levels at line 1, column 65 (bine files need fewer than 10)\n");
