@@ -128,7 +128,10 @@ TEST_CASE("today is the local calendar date: UTC+14 and UTC-12 give two differen
   // differ (26 hours apart).
   const std::vector<std::pair<std::string, int>> zones{{"TZ=LINT-14", 14}, {"TZ=BAKR+12", -12}};
   std::vector<std::string> seen;
-  for (const auto& [zone, offset] : zones) {
+  for (const auto& entry : zones) {
+    // Named copies, not a structured binding: clang 14 cannot capture one in INFO's lambda.
+    const std::string zone = entry.first;
+    const int offset = entry.second;
     const std::string before = date_at_offset(offset);
     const auto run =
         run_bine({"age", "--alpha", "6.0", "--packaged", "2020-01-01", "--stored", "-18 C,vacuum", "--stability", "50"},

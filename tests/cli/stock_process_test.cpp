@@ -123,7 +123,8 @@ TEST_CASE(
     killed += wait_for(child) == -SIGKILL;
     // Whole: the stock file always parses.
     const std::string text = slurp(stock);
-    REQUIRE_NOTHROW(json::parse(text));
+    json parsed;
+    REQUIRE_NOTHROW(parsed = json::parse(text));
     // Agrees: the file is the one the last entry wrote, or (killed between journal and file) the one
     // it started from, which the next command completes.
     const auto lines = journal_lines(stock);
