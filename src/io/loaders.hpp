@@ -34,7 +34,7 @@ std::string_view to_string(FileKind kind);
 /// Validates any of our file types; returns the kind. Throws InputError with every problem.
 FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon);
 
-/// A recipe as JSON in our format, canonical units (for --write).
-nlohmann::json recipe_to_json(const Recipe& recipe);
+/// A recipe as JSON in our format, in the brewer's notation and key order (for --write).
+nlohmann::ordered_json recipe_to_json(const Recipe& recipe);
 
 }  // namespace bine

@@ -2,6 +2,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+
+#include "model/names.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/table.hpp"
 
@@ -12,14 +15,16 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
   std::string text = fmt::format("{}: ", lot.variety);
   if (!lot.lot_code.empty()) {
     text += fmt::format("lot {}", lot.lot_code);
-    if (lot.lots_of_variety > 1) text += fmt::format(" (most on hand of {} lots)", lot.lots_of_variety);
+    if (lot.lots_of_variety > 1)
+      text += fmt::format(" (most on hand of {})", count_of(lot.lots_of_variety, "lot", "lots"));
     text += "; ";
   }
   if (lot.certificate_alpha && lot.packaged && lot.storage) {
     text += fmt::format(
-        "{:.1f} % packaged {}, {} days at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
+        "{:.1f} % packaged {}, {} at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
         "day ({:.1f} % left)",
-        *lot.certificate_alpha, format_date(*lot.packaged), lot.days,
+        *lot.certificate_alpha, format_date(*lot.packaged),
+        count_of(static_cast<std::size_t>(std::max(0L, lot.days)), "day", "days"),
         format_temperature(lot.storage->temperature_c, units), to_string(lot.storage->package),
         lot.stability_percent.value_or(0.0), lot.stability_source, lot.alpha_percent, 100.0 * lot.remaining);
   } else {
@@ -33,17 +38,8 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
 
 }  // namespace
 
-void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
-                      const RebalanceResult& result, UnitSystem units) {
-  out << fmt::format("Rebalance of {} for brew day {}{} ({} model)\n\n",
-                     recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
-                     context.on_from_clock ? " (today; pass --on to reproduce)" : "",
-                     result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
-  if (result.before.settings.brewhouse) out << brewhouse_line(result.before.settings) << ".\n\n";
-  out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
-  for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
-  out << '\n';
-
+void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
+                              UnitSystem units) {
   TextTable table({{"#", Align::right},
                    {"variety"},
                    {"use"},
@@ -57,7 +53,10 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& row : result.additions) {
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
-    table.add_row({std::to_string(row.index + 1), row.variety, describe_use(hop, units),
+    const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
+                                    ? row.variety
+                                    : row.variety + " -> " + row.variety_after;
+    table.add_row({std::to_string(row.index + 1), variety, describe_use(hop, units),
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
                    dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
@@ -73,19 +72,20 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
     const auto& row = result.additions[*result.absorber];
     const HopAddition& hop = recipe.hops[row.index];
     out << fmt::format(
-        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
-        "total holds at {:.1f} IBU.\n",
-        row.index + 1, row.variety, describe_use(hop, units), result.ibu_change_absorbed, result.after.total_ibu);
+        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
+        "changed by {:+.2f} IBU), so the total holds at {:.1f} IBU.\n",
+        row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
+        result.ibu_change_absorbed, result.after.total_ibu);
   } else if (result.whirlpool_scaled) {
     out << fmt::format(
-        "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "
-        "holds at {:.1f} IBU but their aroma changes.\n",
-        result.ibu_change_absorbed, result.after.total_ibu);
+        "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
+        "were scaled to make it up, so the total holds at {:.1f} IBU but their aroma changes.\n",
+        -result.ibu_change_absorbed + 0.0, result.after.total_ibu);
   } else {
     out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
   }
   if (result.shortfalls.empty()) {
-    if (context.from_stock) out << "Stock covers every addition.\n";
+    if (from_stock) out << "Stock covers every addition.\n";
   } else {
     out << "Stock shortfalls:\n";
     for (const auto& s : result.shortfalls)
@@ -93,6 +93,20 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
                          format_mass(s.needed_g, units), format_mass(s.on_hand_g, units),
                          format_mass(s.needed_g - s.on_hand_g, units));
   }
+}
+
+void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
+                      const RebalanceResult& result, UnitSystem units) {
+  out << fmt::format("Rebalance of {} for brew day {}{} ({} model)\n\n",
+                     recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
+                     context.on_from_clock ? " (today; pass --on to reproduce)" : "",
+                     result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
+  if (result.before.settings.brewhouse) out << brewhouse_line(result.before.settings) << ".\n\n";
+  out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
+  for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
+  out << '\n';
+
+  render_rebalance_changes(out, recipe, result, context.from_stock, units);
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   if (!notes.empty()) {
@@ -102,35 +116,15 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
 }
 
-nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result) {
+nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
   using nlohmann::json;
   json out;
-  out["recipe"] = recipe.name;
-  out["model"] = std::string(to_string(result.before.settings.model));
-  out["brewhouse"] = brewhouse_json(result.before.settings);
-  out["on"] = format_date(context.on);
-  json lots = json::array();
-  for (const auto& lot : context.lots) {
-    json l;
-    l["variety"] = lot.variety;
-    l["lot"] = lot.lot_code.empty() ? json(nullptr) : json(lot.lot_code);
-    l["alpha_acid"] = rounded(lot.alpha_percent, 4);
-    l["alpha_acid_certificate"] = lot.certificate_alpha ? json(rounded(*lot.certificate_alpha, 4)) : json(nullptr);
-    l["packaged"] = lot.packaged ? json(format_date(*lot.packaged)) : json(nullptr);
-    l["days"] = lot.days;
-    l["remaining"] = rounded(lot.remaining, 5);
-    l["stability_percent"] = lot.stability_percent ? json(rounded(*lot.stability_percent, 3)) : json(nullptr);
-    l["stability_source"] = lot.stability_source;
-    l["total_oil"] = lot.total_oil ? json(rounded(*lot.total_oil, 4)) : json(nullptr);
-    l["on_hand_g"] = lot.on_hand_g ? json(rounded(*lot.on_hand_g, 3)) : json(nullptr);
-    lots.push_back(std::move(l));
-  }
-  out["lots"] = std::move(lots);
   json additions = json::array();
   for (const auto& row : result.additions) {
     json a;
     a["index"] = row.index + 1;
     a["variety"] = row.variety;
+    if (!row.variety_after.empty() && row.variety_after != row.variety) a["variety_after"] = row.variety_after;
     a["use"] = std::string(to_string(row.use));
     a["grams_before"] = rounded(row.grams_before, 3);
     a["grams_after"] = rounded(row.grams_after, 3);
@@ -157,6 +151,34 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
                           {"on_hand_g", rounded(s.on_hand_g, 3)},
                           {"short_g", rounded(s.needed_g - s.on_hand_g, 3)}});
   out["shortfalls"] = std::move(shortfalls);
+  return out;
+}
+
+nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result) {
+  using nlohmann::json;
+  json out;
+  out["recipe"] = recipe.name;
+  out["model"] = std::string(to_string(result.before.settings.model));
+  out["brewhouse"] = brewhouse_json(result.before.settings);
+  out["on"] = format_date(context.on);
+  json lots = json::array();
+  for (const auto& lot : context.lots) {
+    json l;
+    l["variety"] = lot.variety;
+    l["lot"] = lot.lot_code.empty() ? json(nullptr) : json(lot.lot_code);
+    l["alpha_acid"] = rounded(lot.alpha_percent, 4);
+    l["alpha_acid_certificate"] = lot.certificate_alpha ? json(rounded(*lot.certificate_alpha, 4)) : json(nullptr);
+    l["packaged"] = lot.packaged ? json(format_date(*lot.packaged)) : json(nullptr);
+    l["days"] = lot.days;
+    l["remaining"] = rounded(lot.remaining, 5);
+    l["stability_percent"] = lot.stability_percent ? json(rounded(*lot.stability_percent, 3)) : json(nullptr);
+    l["stability_source"] = lot.stability_source;
+    l["total_oil"] = lot.total_oil ? json(rounded(*lot.total_oil, 4)) : json(nullptr);
+    l["on_hand_g"] = lot.on_hand_g ? json(rounded(*lot.on_hand_g, 3)) : json(nullptr);
+    lots.push_back(std::move(l));
+  }
+  out["lots"] = std::move(lots);
+  out.update(rebalance_changes_json(result));
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   out["notes"] = notes;

@@ -2,8 +2,11 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <array>
 #include <cmath>
 #include <sstream>
+#include <tuple>
 
 #include "report/catalog_report.hpp"
 #include "report/output_format.hpp"
@@ -92,6 +95,60 @@ std::string aroma_chart(const SwapResult& r, const Substitute& s) {
 
 std::string chemistry_cell(const std::optional<Range>& range, std::string_view unit) { return range_text(range, unit); }
 
+std::optional<double> mid_of(const std::optional<Range>& range) {
+  if (!range) return std::nullopt;
+  return range->mid();
+}
+
+/// The three values a bittering swap turns on: alpha (the lot's today when from stock), beta and
+/// cohumulone (catalog midpoints unless the lot has its own beta).
+std::array<std::optional<double>, 3> bittering_values(const Variety& variety, const Substitute* s) {
+  std::optional<double> alpha = mid_of(variety.alpha_acid);
+  std::optional<double> beta = mid_of(variety.beta_acid);
+  if (s != nullptr && s->alpha_today) alpha = s->alpha_today;
+  if (s != nullptr && s->lot && s->lot->beta_acid) beta = s->lot->beta_acid;
+  return {alpha, beta, mid_of(variety.cohumulone)};
+}
+
+// Grouped bars for a bittering swap: alpha acid, beta acid and cohumulone of the missing variety
+// beside the substitute's, in %, on one scale up to the largest value rounded up to 10 %.
+std::string chemistry_chart(const SwapResult& r, const Substitute& s) {
+  const std::array<std::string_view, 3> labels{"alpha acid %", "beta acid %", "cohumulone % of alpha"};
+  const auto want = bittering_values(r.missing, nullptr);
+  const auto got = bittering_values(s.variety, &s);
+  double most = 10.0;
+  for (std::size_t k = 0; k < 3; ++k) most = std::max({most, want[k].value_or(0.0), got[k].value_or(0.0)});
+  const double scale = 10.0 * std::ceil(most / 10.0);
+  const double group = 120.0, bar = 30.0, height = 150.0, top = 20.0, left = 34.0;
+  const double width = left + group * 3.0 + 10.0;
+  std::string svg = fmt::format(
+      "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{:.0f}\" height=\"{:.0f}\" role=\"img\" "
+      "aria-label=\"alpha, beta and cohumulone of {} and {}\">\n",
+      width, top + height + 40.0, html_escape(r.missing.name), html_escape(name_of(s)));
+  for (int level = 0; level <= 5; ++level) {
+    const double y = top + height - height * level / 5.0;
+    svg += fmt::format(
+        "<line x1=\"{:.0f}\" y1=\"{:.1f}\" x2=\"{:.0f}\" y2=\"{:.1f}\" class=\"grid\"/>"
+        "<text x=\"{:.0f}\" y=\"{:.1f}\" class=\"tick\">{:.0f}</text>\n",
+        left, y, width - 10.0, y, left - 6.0, y + 4.0, scale * level / 5.0);
+  }
+  for (std::size_t k = 0; k < 3; ++k) {
+    const double x = left + group * static_cast<double>(k) + 20.0;
+    for (const auto& [value, offset, css, who] :
+         {std::tuple{want[k], 0.0, "want", r.missing.name}, std::tuple{got[k], bar, "got", name_of(s)}}) {
+      if (!value) continue;
+      svg += fmt::format(
+          "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"{}\">"
+          "<title>{} {}: {:.1f}</title></rect>\n",
+          x + offset, top + height - height * *value / scale, bar, height * *value / scale, css, html_escape(who),
+          labels[k], *value);
+    }
+    svg += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" class=\"axis\">{}</text>\n", x, top + height + 16.0, labels[k]);
+  }
+  svg += "</svg>\n";
+  return svg;
+}
+
 }  // namespace
 
 nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
@@ -138,6 +195,9 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
                           {"shares", {rounded(p.shares[0], 3), rounded(p.shares[1], 3)}},
                           {"similarity", rounded(p.similarity, 1)}};
       if (!p.lots[0].empty() || !p.lots[1].empty()) item["lots"] = p.lots;
+      nlohmann::json per_gram = nlohmann::json::array();
+      for (const auto& g : p.grams_per_gram) per_gram.push_back(g ? nlohmann::json(rounded(*g, 3)) : nullptr);
+      item["grams_per_gram"] = per_gram;
       pairs.push_back(item);
     }
     out["pairs"] = pairs;
@@ -196,14 +256,20 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
 
   if (with_pairs && !r.pairs.empty()) {
     out << "\nTwo-variety blends that match better than the best single substitute (shares by weight)\n";
-    TextTable pairs({{"Blend", Align::left}, {"Shares", Align::right}, {"Similarity", Align::right}});
+    TextTable pairs({{"Blend", Align::left},
+                     {"Shares", Align::right},
+                     {"Per g of " + r.missing.name, Align::right},
+                     {"Similarity", Align::right}});
     for (const auto& p : r.pairs) {
       const auto label = [&](int i) {
         return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]);
       };
+      const auto per_gram = [&](int i) {
+        return p.grams_per_gram[i] ? fmt::format("{:.2f} g", *p.grams_per_gram[i]) : std::string("n/a");
+      };
       pairs.add_row({label(0) + " + " + label(1),
                      fmt::format("{:.0f} % + {:.0f} %", 100.0 * p.shares[0], 100.0 * p.shares[1]),
-                     fmt::format("{:.0f}/100", p.similarity)});
+                     per_gram(0) + " + " + per_gram(1), fmt::format("{:.0f}/100", p.similarity)});
     }
     pairs.render(out);
   }
@@ -237,11 +303,13 @@ std::string swap_html(const SwapResult& r, UnitSystem units, bool with_pairs) {
   for (std::size_t i = 0; i < charts; ++i) {
     const Substitute& s = r.substitutes[i];
     html += fmt::format("<h2>{}. {}: similarity {:.0f}/100</h2>\n", i + 1, html_escape(name_of(s)), s.similarity);
+    const bool bittering = r.purpose == SwapPurpose::bittering;
     html += fmt::format(
         "<p class=\"key\"><span class=\"want\" style=\"background:#4d4d4d\"></span>{} "
-        "<span style=\"background:#9bb0a5\"></span>{} (aroma intensity 0-5)</p>\n",
-        html_escape(r.missing.name), html_escape(name_of(s)));
-    html += aroma_chart(r, s);
+        "<span style=\"background:#9bb0a5\"></span>{} ({})</p>\n",
+        html_escape(r.missing.name), html_escape(name_of(s)),
+        bittering ? "alpha and beta acid in %, cohumulone in % of alpha" : "aroma intensity 0-5");
+    html += bittering ? chemistry_chart(r, s) : aroma_chart(r, s);
   }
   html += "<h2>Details</h2>\n<pre>" + html_escape(text.str()) + "</pre>\n</body>\n</html>\n";
   return html;
