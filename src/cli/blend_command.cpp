@@ -11,6 +11,8 @@
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
 #include "engine/blend_plan.hpp"
+#include "io/compiled_catalog.hpp"
+#include "io/data_dir.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
@@ -139,18 +141,66 @@ std::vector<std::string> blend_notes(const BlendArgs& args, const BlendRequest& 
   return notes;
 }
 
+/// What a blend reads from the catalogs: every catalog loaded; or, with a compiled catalog given
+/// alone and matching its sources, only the varieties the options, recipe and stock name, while the
+/// catalog-mode candidates stream from its rows (a large catalog is never held whole).
+struct BlendCatalog {
+  DataSet data;
+  std::optional<CompiledCatalog> compiled;  // set when the candidates stream from it
+};
+
+BlendCatalog blend_catalog(const Console& console, const GlobalOptions& globals, const BlendArgs& args,
+                           const Recipe* recipe, const Stock* stock) {
+  BlendCatalog catalog;
+  const std::filesystem::path data_dir = resolve_data_dir(globals.data);
+  catalog.compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs);
+  if (catalog.compiled) {
+    const auto timer = console.time("load data");
+    // The names a lookup may fail on with a message: then the whole catalog answers, as from JSON.
+    const bool known =
+        (args.like.empty() || catalog.compiled->position_of(args.like)) &&
+        (args.choices.bittering.name.empty() || catalog.compiled->position_of(args.choices.bittering.name));
+    std::vector<std::string> names{args.like, args.choices.bittering.name};
+    if (recipe)
+      for (const auto& hop : recipe->hops) names.push_back(hop.variety);
+    if (stock)
+      for (const auto& lot : stock->lots) names.push_back(lot.variety);
+    if (known) {
+      catalog.data.data_dir = data_dir;
+      catalog.data.lexicon = load_lexicon(data_dir / "lexicon.json");
+      catalog.data.catalog = catalog.compiled->only(names, catalog.data.lexicon);
+      return catalog;
+    }
+    catalog.compiled.reset();
+  }
+  catalog.data = load_data(globals, console);
+  return catalog;
+}
+
+CandidateSet candidates_for(const BlendCatalog& catalog, const Stock* stock, const BlendArgs& args) {
+  if (catalog.compiled && !stock) {
+    const auto& compiled = *catalog.compiled;
+    const Lexicon& lexicon = catalog.data.lexicon;
+    return blend_candidates_streamed([&](const auto& each) { compiled.for_each_row(lexicon, each); }, lexicon,
+                                     args.like);
+  }
+  return blend_candidates(catalog.data.catalog, catalog.data.lexicon, stock, args.like);
+}
+
 void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& args) {
   const UnitSystem units = globals.unit_system();
-  // 1. Load the catalogs, the stock and the recipe.
-  const DataSet data = load_data(globals, console);
+  // 1. Load the stock, the recipe and the catalogs (or what a compiled catalog must give of them).
   const std::optional<Stock> stock = args.stock.empty() ? std::nullopt : std::optional(load_stock(args.stock));
   const std::optional<RecipeFile> file =
       args.recipe.empty() ? std::nullopt : std::optional(read_recipe_file(args.recipe, args.recipe_file));
   const std::optional<Recipe> recipe = file ? std::optional(file->recipe) : std::nullopt;
+  const BlendCatalog catalog =
+      blend_catalog(console, globals, args, recipe ? &*recipe : nullptr, stock ? &*stock : nullptr);
+  const DataSet& data = catalog.data;
   // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
   request.target = target_from(args, data);
-  CandidateSet candidates = blend_candidates(data.catalog, data.lexicon, stock ? &*stock : nullptr, args.like);
+  CandidateSet candidates = candidates_for(catalog, stock ? &*stock : nullptr, args);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
   request.plan =

@@ -4,6 +4,7 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "io/compiled_catalog.hpp"
 #include "io/loaders.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
@@ -35,10 +36,22 @@ void run_show(const Console& console, const GlobalOptions& globals, const Catalo
 
 void run_check(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   // The lexicon is needed to check aroma axes; the catalogs themselves are not loaded.
-  const Lexicon lexicon = load_lexicon(resolve_data_dir(globals.data) / "lexicon.json");
+  const std::filesystem::path data_dir = resolve_data_dir(globals.data);
+  const Lexicon lexicon = load_lexicon(data_dir / "lexicon.json");
   std::vector<std::string> problems;
   for (const auto& file : options.files) {
     try {
+      if (is_compiled_catalog(file)) {
+        std::vector<std::string> unchecked;
+        const CompiledCatalog compiled(file);
+        const std::string why = compiled.staleness(data_dir, unchecked);
+        if (why.empty())
+          console.out << fmt::format("{}: ok (compiled catalog, {} varieties, {})\n", file, compiled.size(),
+                                     unchecked.empty() ? "matches its sources" : "sources not found to check");
+        else
+          problems.push_back(fmt::format("{}: stale compiled catalog ({}; compile it again)", file, why));
+        continue;
+      }
       const FileKind kind = check_file(file, lexicon);
       console.out << fmt::format("{}: ok ({})\n", file, to_string(kind));
     } catch (const InputError& error) {
@@ -58,7 +71,8 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
       "Examples:\n"
       "  bine catalog list\n"
       "  bine catalog show \"saltmarsh gold\"\n"
-      "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json");
+      "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json\n"
+      "  bine catalog compile merchant-1.json merchant-2.json --out merchant.bine");
 
   auto* list = catalog->add_subcommand("list", "list every variety (shipped and --catalog files)");
   list->add_flag("--json", options->json, "print JSON: {\"varieties\": [...]}");
@@ -72,6 +86,8 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
   auto* check = catalog->add_subcommand("check", "validate catalog, stock, recipe or lexicon files");
   check->add_option("FILE", options->files, "files to check")->required();
   commands.add(check, [&globals, options](const Console& console) { run_check(console, globals, *options); });
+
+  setup_catalog_compile_command(*catalog, globals, commands);
 }
 
 }  // namespace bine::cli

@@ -8,6 +8,8 @@
 #include "cli/option_values.hpp"
 #include "engine/hop_index.hpp"
 #include "engine/substitutes.hpp"
+#include "io/compiled_catalog.hpp"
+#include "io/data_dir.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
@@ -58,10 +60,26 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
   return args;
 }
 
+/// Vectorise, index, search, re-score, amount factors, pairs. A compiled catalog given alone and
+/// matching its sources answers from its stored index and the rows the search fetches; else the
+/// catalogs are loaded (a stale compiled one from its sources) and indexed here.
+SwapResult substitutes(const Console& console, const GlobalOptions& globals, const SwapRequest& request, bool& demo) {
+  const std::filesystem::path data_dir = resolve_data_dir(globals.data);
+  if (std::optional<CompiledCatalog> compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs)) {
+    const auto timer = console.time("read index and rank");
+    const Lexicon lexicon = load_lexicon(data_dir / "lexicon.json");
+    demo = compiled->demo();
+    return find_substitutes(CompiledSubstituteCatalog(*compiled, lexicon, request.purpose), lexicon, request);
+  }
+  const DataSet data = load_data(globals, console);
+  demo = data.catalog.demo;
+  const auto timer = console.time("vectorise, index and rank");
+  return find_substitutes(data.catalog, data.lexicon, request);
+}
+
 void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs args) {
   use_single_thread();  // one query: threads would only add start-up time
-  // 1. Load: lexicon and catalogs, and the stock file when given.
-  const DataSet data = load_data(globals, console);
+  // 1. Load the stock file when given (the catalogs are read as the search needs them).
   Stock stock;
   if (!args.stock.empty()) {
     stock = load_stock(args.stock);
@@ -69,14 +87,12 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
     args.request.stock = &stock;
   }
   // 2. Compute: vectorise, index, search, re-score, amount factors, pairs.
-  SwapResult result = [&] {
-    const auto timer = console.time("vectorise, index and rank");
-    return find_substitutes(data.catalog, data.lexicon, args.request);
-  }();
+  bool demo = false;
+  SwapResult result = substitutes(console, globals, args.request, demo);
   if (result.from_stock && args.brew_day.from_clock)
     result.notes.push_back(
         fmt::format("lot alpha aged to today, {} (set --on DATE for the brew day)", format_date(args.brew_day.date)));
-  if (data.catalog.demo)
+  if (demo)
     result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
   // 3. Render.
   const auto timer = console.time("render");

@@ -36,22 +36,20 @@ bool take_aroma(const Variety& variety, const Lexicon& lexicon, const std::strin
   return true;
 }
 
-void add_catalog_candidates(const Catalog& catalog, const Lexicon& lexicon, const std::string& excluded,
-                            CandidateSet& set, LeftOut& left_out) {
-  for (const auto& variety : catalog.varieties) {
-    if (!excluded.empty() && fold_name(variety.name) == excluded) continue;
-    if (variety.purpose == Purpose::bittering) continue;
-    BlendCandidate candidate;
-    candidate.variety = variety.name;
-    if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) continue;
-    if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
-      left_out.no_oil.push_back(variety.name);
-      continue;
-    }
-    candidate.oil_ml_per_100g = variety.total_oil->mid();
-    candidate.alpha_percent = variety.alpha_acid ? variety.alpha_acid->mid() : 0.0;
-    set.candidates.push_back(std::move(candidate));
+void add_catalog_candidate(const Variety& variety, const Lexicon& lexicon, const std::string& excluded,
+                           CandidateSet& set, LeftOut& left_out) {
+  if (!excluded.empty() && fold_name(variety.name) == excluded) return;
+  if (variety.purpose == Purpose::bittering) return;
+  BlendCandidate candidate;
+  candidate.variety = variety.name;
+  if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) return;
+  if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
+    left_out.no_oil.push_back(variety.name);
+    return;
   }
+  candidate.oil_ml_per_100g = variety.total_oil->mid();
+  candidate.alpha_percent = variety.alpha_acid ? variety.alpha_acid->mid() : 0.0;
+  set.candidates.push_back(std::move(candidate));
 }
 
 void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock& stock,
@@ -84,17 +82,8 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
   }
 }
 
-}  // namespace
-
-CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
-                              std::string_view exclude) {
-  CandidateSet set;
-  LeftOut left_out;
-  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
-  if (stock == nullptr)
-    add_catalog_candidates(catalog, lexicon, excluded, set, left_out);
-  else
-    add_stock_candidates(catalog, lexicon, *stock, excluded, set, left_out);
+/// One note per reason a variety or lot was left out.
+void note_left_out(const LeftOut& left_out, CandidateSet& set) {
   set.without_aroma = left_out.no_aroma.size();
   if (!left_out.no_aroma.empty())
     set.notes.push_back(
@@ -105,6 +94,30 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   if (!left_out.unknown.empty())
     set.notes.push_back(fmt::format("{} lots skipped: variety not in any catalog ({})", left_out.unknown.size(),
                                     join_names(left_out.unknown)));
+}
+
+}  // namespace
+
+CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Stock* stock,
+                              std::string_view exclude) {
+  CandidateSet set;
+  LeftOut left_out;
+  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
+  if (stock == nullptr)
+    for (const auto& variety : catalog.varieties) add_catalog_candidate(variety, lexicon, excluded, set, left_out);
+  else
+    add_stock_candidates(catalog, lexicon, *stock, excluded, set, left_out);
+  note_left_out(left_out, set);
+  return set;
+}
+
+CandidateSet blend_candidates_streamed(const VarietyStream& each_variety, const Lexicon& lexicon,
+                                       std::string_view exclude) {
+  CandidateSet set;
+  LeftOut left_out;
+  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
+  each_variety([&](const Variety& variety) { add_catalog_candidate(variety, lexicon, excluded, set, left_out); });
+  note_left_out(left_out, set);
   return set;
 }
 

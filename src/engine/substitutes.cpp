@@ -24,6 +24,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <map>
 
 #include "engine/blend_solver.hpp"
 #include "engine/storage_loss.hpp"
@@ -173,53 +174,74 @@ std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::
 
 namespace {
 
-/// Every catalog variety described and embedded, and the index over them.
-struct IndexedCatalog {
-  std::vector<Descriptors> described;  // by catalog position
-  HopIndex index;
+/// A Catalog in memory as a substitute source: every variety embedded and indexed for the question.
+class CatalogInMemory final : public SubstituteCatalog {
+ public:
+  CatalogInMemory(const Catalog& catalog, const Lexicon& lexicon, SwapPurpose purpose,
+                  const SubstituteSettings& settings)
+      : catalog_(catalog),
+        vectorizer_(catalog, lexicon, purpose, settings.vectors),
+        index_(vectorizer_.dimensions(), embed_all(), settings.index) {}
+  std::size_t size() const override { return catalog_.varieties.size(); }
+  std::optional<std::size_t> position_of(std::string_view name) const override {
+    const Variety* variety = find_variety(catalog_, name);
+    if (!variety) return std::nullopt;
+    return static_cast<std::size_t>(variety - catalog_.varieties.data());
+  }
+  Variety row(std::size_t position) const override { return catalog_.varieties.at(position); }
+  std::vector<std::string> names() const override { return variety_names(catalog_); }
+  const Vectorizer& vectorizer() const override { return vectorizer_; }
+  const HopIndex& index() const override { return index_; }
+
+ private:
+  std::vector<float> embed_all() const {
+    std::vector<float> rows;
+    rows.reserve(catalog_.varieties.size() * static_cast<std::size_t>(vectorizer_.dimensions()));
+    for (const auto& variety : catalog_.varieties) {
+      const auto v = vectorizer_.embed(vectorizer_.describe(variety));
+      rows.insert(rows.end(), v.begin(), v.end());
+    }
+    return rows;
+  }
+  const Catalog& catalog_;
+  Vectorizer vectorizer_;
+  HopIndex index_;
 };
 
-IndexedCatalog index_catalog(const Catalog& catalog, const Vectorizer& vectorizer, const SubstituteSettings& settings) {
-  std::vector<float> rows;
-  rows.reserve(catalog.varieties.size() * static_cast<std::size_t>(vectorizer.dimensions()));
-  std::vector<Descriptors> described;
-  for (const auto& variety : catalog.varieties) {
-    described.push_back(vectorizer.describe(variety));
-    const auto v = vectorizer.embed(described.back());
-    rows.insert(rows.end(), v.begin(), v.end());
-  }
-  return IndexedCatalog{std::move(described), HopIndex(vectorizer.dimensions(), rows, settings.index)};
+/// The position of the variety to replace; InputError with suggestions when the name is unknown.
+std::size_t require_position(const SubstituteCatalog& catalog, std::string_view name) {
+  if (const auto position = catalog.position_of(name)) return *position;
+  std::string hint = did_you_mean(name, catalog.names());
+  if (hint.empty()) hint = "see 'bine catalog list'";
+  throw InputError(fmt::format("swap: unknown variety \"{}\" ({})", name, hint));
 }
 
 /// The catalog positions that may answer, and, with stock, the lots on hand of each.
 struct Eligible {
   std::vector<std::int64_t> ids;
-  std::vector<std::vector<const Lot*>> lots_of;  // by catalog position; empty without stock
+  std::map<std::size_t, std::vector<const Lot*>> lots_of;  // by catalog position; empty without stock
 };
 
-Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request,
-                            std::vector<std::string>& notes) {
-  const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
+Eligible eligible_varieties(const SubstituteCatalog& catalog, std::size_t missing_at, const Variety& missing,
+                            const SwapRequest& request, std::vector<std::string>& notes) {
   Eligible eligible;
   if (!request.stock) {
-    for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
-      if (!is_missing(catalog.varieties[i])) eligible.ids.push_back(static_cast<std::int64_t>(i));
+    for (std::size_t i = 0; i < catalog.size(); ++i)
+      if (i != missing_at) eligible.ids.push_back(static_cast<std::int64_t>(i));
     if (eligible.ids.empty())
       throw Infeasible(fmt::format("the catalog has no variety besides {}", missing.name), {Remedy::add_catalog});
     return eligible;
   }
-  eligible.lots_of.resize(catalog.varieties.size());
   for (const auto& lot : request.stock->lots) {
-    const Variety* variety = find_variety(catalog, lot.variety);
-    if (!variety) {
+    const auto position = catalog.position_of(lot.variety);
+    if (!position) {
       notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.lot, lot.variety));
       continue;
     }
-    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || is_missing(*variety)) continue;
-    eligible.lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
+    if (!lot.on_hand_g || *lot.on_hand_g <= 0.0 || *position == missing_at) continue;
+    eligible.lots_of[*position].push_back(&lot);
   }
-  for (std::size_t i = 0; i < eligible.lots_of.size(); ++i)
-    if (!eligible.lots_of[i].empty()) eligible.ids.push_back(static_cast<std::int64_t>(i));
+  for (const auto& [position, lots] : eligible.lots_of) eligible.ids.push_back(static_cast<std::int64_t>(position));
   if (eligible.ids.empty())
     throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}", request.stock->source_file,
                                  missing.name),
@@ -227,22 +249,26 @@ Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, cons
   return eligible;
 }
 
-/// The index's nearest varieties (or their lots on hand), each to be re-scored exactly.
-std::vector<Candidate> candidates_near(const Catalog& catalog, const IndexedCatalog& indexed, const Eligible& eligible,
-                                       const Descriptors& wanted, const Vectorizer& vectorizer,
-                                       const SwapRequest& request, const SubstituteSettings& settings) {
+/// The index's nearest varieties (or their lots on hand), each to be re-scored exactly. The rows the
+/// index returns are fetched into `rows`, which the candidates point into.
+std::vector<Candidate> candidates_near(const SubstituteCatalog& catalog, const Eligible& eligible,
+                                       const Descriptors& wanted, const SwapRequest& request,
+                                       const SubstituteSettings& settings, std::vector<Variety>& rows) {
+  const Vectorizer& vectorizer = catalog.vectorizer();
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
-  const auto hits = indexed.index.search_subset(query.data(), request.stock ? k : k + 1, eligible.ids);
+  const auto hits = catalog.index().search_subset(query.data(), request.stock ? k : k + 1, eligible.ids);
+  rows.clear();
+  rows.reserve(hits.size());
+  for (const auto& hit : hits) rows.push_back(catalog.row(static_cast<std::size_t>(hit.id)));
   std::vector<Candidate> candidates;
-  for (const auto& hit : hits) {
-    const auto i = static_cast<std::size_t>(hit.id);
-    const Variety& variety = catalog.varieties[i];
+  for (std::size_t h = 0; h < hits.size(); ++h) {
+    const Variety& variety = rows[h];
     if (!request.stock) {
-      candidates.push_back({&variety, nullptr, indexed.described[i], std::nullopt, {}});
+      candidates.push_back({&variety, nullptr, vectorizer.describe(variety), std::nullopt, {}});
       continue;
     }
-    for (const Lot* lot : eligible.lots_of[i]) {
+    for (const Lot* lot : eligible.lots_of.at(static_cast<std::size_t>(hits[h].id))) {
       Candidate c{&variety, lot, {}, std::nullopt, {}};
       age_lot(c, request.on, settings);
       c.descriptors = vectorizer.describe(variety, *lot, c.alpha_today);
@@ -297,7 +323,15 @@ std::vector<SubstitutePair> fit_pairs(const std::vector<Candidate>& candidates, 
 
 SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
                             const SubstituteSettings& settings) {
-  const Variety& missing = require_variety(catalog, request.missing, "swap");
+  require_variety(catalog, request.missing, "swap");  // before the index is built
+  const CatalogInMemory source(catalog, lexicon, request.purpose, settings);
+  return find_substitutes(source, lexicon, request, settings);
+}
+
+SwapResult find_substitutes(const SubstituteCatalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings) {
+  const std::size_t missing_at = require_position(catalog, request.missing);
+  const Variety missing = catalog.row(missing_at);
   SwapResult result;
   result.missing = missing;
   result.purpose = request.purpose;
@@ -307,18 +341,17 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     result.stock_name = request.stock->name;
     result.on = request.on;
   }
-  // 1. Vectorise the catalog and index it.
-  const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);
+  // 1. The catalog's vectors and index (built in memory, or read from a compiled catalog).
+  const Vectorizer& vectorizer = catalog.vectorizer();
   const Descriptors wanted = vectorizer.describe(missing);
   result.missing_aroma = wanted.aroma;
   result.missing_source = wanted.aroma_source;
-  const IndexedCatalog indexed = index_catalog(catalog, vectorizer, settings);
-  result.index_kind = indexed.index.kind();
+  result.index_kind = catalog.index().kind();
   // 2. Which varieties may answer: all but the missing one, or those with lots on hand.
-  const Eligible eligible = eligible_varieties(catalog, missing, request, result.notes);
+  const Eligible eligible = eligible_varieties(catalog, missing_at, missing, request, result.notes);
   // 3. Ask the index for candidates, then re-score exactly (missing blocks handled per pair) and rank.
-  const std::vector<Candidate> candidates =
-      candidates_near(catalog, indexed, eligible, wanted, vectorizer, request, settings);
+  std::vector<Variety> rows;
+  const std::vector<Candidate> candidates = candidates_near(catalog, eligible, wanted, request, settings, rows);
   result.candidates = candidates.size();
   std::vector<Substitute> ranked;
   for (const auto& c : candidates)

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 
+#include "io/compiled_catalog.hpp"
 #include "io/loaders.hpp"
 #include "model/errors.hpp"
 
@@ -26,16 +27,26 @@ std::filesystem::path resolve_data_dir(const DataFolderChoice& choice) {
   throw InputError("no descriptor data found (use --data DIR or set BINE_DATA)");
 }
 
+std::vector<std::filesystem::path> shipped_catalog_files(const std::filesystem::path& data_dir) {
+  std::vector<std::filesystem::path> files;
+  std::error_code ec;
+  for (const auto& entry : std::filesystem::directory_iterator(data_dir / "catalog", ec))
+    if (entry.path().extension() == ".json") files.push_back(entry.path());
+  std::sort(files.begin(), files.end());
+  return files;
+}
+
 DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs) {
   namespace fs = std::filesystem;
   DataSet data;
   data.data_dir = resolve_data_dir(choice);
   data.lexicon = load_lexicon(data.data_dir / "lexicon.json");
-  std::vector<fs::path> files;
-  std::error_code ec;
-  for (const auto& entry : fs::directory_iterator(data.data_dir / "catalog", ec))
-    if (entry.path().extension() == ".json") files.push_back(entry.path());
-  std::sort(files.begin(), files.end());
+  if (std::any_of(user_catalogs.begin(), user_catalogs.end(),
+                  [](const std::string& file) { return is_compiled_catalog(file); })) {
+    data.catalog = load_catalogs_with_compiled(data.data_dir, data.lexicon, user_catalogs, data.notes);
+    return data;
+  }
+  std::vector<fs::path> files = shipped_catalog_files(data.data_dir);
   for (const auto& file : user_catalogs) files.emplace_back(file);
   std::vector<Catalog> catalogs;
   for (const auto& file : files) catalogs.push_back(load_catalog(file, data.lexicon));

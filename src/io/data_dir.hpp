@@ -12,7 +12,8 @@ namespace bine {
 struct DataSet {
   std::filesystem::path data_dir;
   Lexicon lexicon;
-  Catalog catalog;  // the data dir's catalogs, then --catalog files, merged
+  Catalog catalog;                 // the data dir's catalogs, then --catalog files, merged
+  std::vector<std::string> notes;  // for the brewer: a stale compiled catalog read from its sources, ...
 };
 
 /// Where the brewer named a data folder, for messages: `folder` and the words that named it
@@ -27,7 +28,12 @@ struct DataFolderChoice {
 /// folder has no lexicon.json. Reads no environment variable (the command line does, once).
 std::filesystem::path resolve_data_dir(const DataFolderChoice& choice);
 
+/// The catalogs shipped in the data folder: DATA/catalog/*.json sorted by name.
+std::vector<std::filesystem::path> shipped_catalog_files(const std::filesystem::path& data_dir);
+
 /// Loads the lexicon, every catalog under DATA/catalog (sorted by name), then the user catalogs.
+/// A compiled catalog among them (io/compiled_catalog.hpp) stands for the shipped catalogs and the
+/// files it was compiled from.
 DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs);
 
 }  // namespace bine
