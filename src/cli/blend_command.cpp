@@ -153,7 +153,9 @@ BlendCatalog blend_catalog(const Console& console, const GlobalOptions& globals,
                            const Recipe* recipe, const Stock* stock) {
   BlendCatalog catalog;
   const std::filesystem::path data_dir = resolve_data_dir(globals.data);
-  catalog.compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs);
+  std::vector<std::string> notes;
+  catalog.compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs, notes);
+  for (const auto& note : notes) console.err << "bine: note: " << note << '\n';
   if (catalog.compiled) {
     const auto timer = console.time("load data");
     // The names a lookup may fail on with a message: then the whole catalog answers, as from JSON.

@@ -65,7 +65,10 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
 /// catalogs are loaded (a stale compiled one from its sources) and indexed here.
 SwapResult substitutes(const Console& console, const GlobalOptions& globals, const SwapRequest& request, bool& demo) {
   const std::filesystem::path data_dir = resolve_data_dir(globals.data);
-  if (std::optional<CompiledCatalog> compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs)) {
+  std::vector<std::string> notes;
+  std::optional<CompiledCatalog> compiled = sole_fresh_compiled_catalog(data_dir, globals.catalogs, notes);
+  for (const auto& note : notes) console.err << "bine: note: " << note << '\n';
+  if (compiled) {
     const auto timer = console.time("read index and rank");
     const Lexicon lexicon = load_lexicon(data_dir / "lexicon.json");
     demo = compiled->demo();

@@ -409,7 +409,7 @@ CompiledCatalog::CompiledCatalog(const fs::path& path) : path_(path), db_(nullpt
   if (!is_compiled_catalog(path))
     throw InputError(fmt::format("{}: not a compiled catalog (expected a file from 'bine catalog compile')", file));
   sqlite3* raw = nullptr;
-  const int rc = sqlite3_open_v2(file.c_str(), &raw, SQLITE_OPEN_READONLY, nullptr);
+  const int rc = sqlite3_open_v2(file.c_str(), &raw, SQLITE_OPEN_READONLY | SQLITE_OPEN_NOMUTEX, nullptr);
   db_.reset(raw);
   if (rc != SQLITE_OK) throw InputError(fmt::format("{}: cannot open the compiled catalog", file));
   std::map<std::string, std::string> meta;
@@ -568,12 +568,24 @@ std::vector<std::string> CompiledSubstituteCatalog::names() const { return compi
 // ---------------------------------------------------------------------------------------------
 // Choosing between the compiled catalog and its sources
 
+namespace {
+
+/// The note for a compiled catalog whose sources are gone.
+std::string unchecked_note(const CompiledCatalog& compiled, const std::vector<std::string>& unchecked) {
+  return fmt::format("{}: not checked against its sources, which are gone ({})", compiled.path().string(),
+                     fmt::join(unchecked, ", "));
+}
+
+}  // namespace
+
 std::optional<CompiledCatalog> sole_fresh_compiled_catalog(const fs::path& data_dir,
-                                                           const std::vector<std::string>& user_catalogs) {
+                                                           const std::vector<std::string>& user_catalogs,
+                                                           std::vector<std::string>& notes) {
   if (user_catalogs.size() != 1 || !is_compiled_catalog(user_catalogs.front())) return std::nullopt;
   CompiledCatalog compiled(user_catalogs.front());
   std::vector<std::string> unchecked;
   if (!compiled.staleness(data_dir, unchecked).empty()) return std::nullopt;
+  if (!unchecked.empty()) notes.push_back(unchecked_note(compiled, unchecked));
   return compiled;
 }
 
@@ -593,9 +605,7 @@ Catalog load_catalogs_with_compiled(const fs::path& data_dir, const Lexicon& lex
   recompile += " --out " + compiled.path().string();
   std::vector<Catalog> catalogs;
   if (why.empty()) {
-    if (!unchecked.empty())
-      notes.push_back(fmt::format("{}: not checked against its sources, which are gone ({})", compiled.path().string(),
-                                  fmt::join(unchecked, ", ")));
+    if (!unchecked.empty()) notes.push_back(unchecked_note(compiled, unchecked));
     catalogs.push_back(compiled.load_all(lexicon));
   } else {
     if (!unchecked.empty())

@@ -135,9 +135,11 @@ class CompiledSubstituteCatalog final : public SubstituteCatalog {
 };
 
 /// The compiled catalog among `user_catalogs` when it is the only catalog file given and matches
-/// its sources and `data_dir` (so a command may read it row by row), else nullopt.
+/// its sources and `data_dir` (so a command may read it row by row), else nullopt. Sources that are
+/// gone (so not checked) are named in `notes`.
 std::optional<CompiledCatalog> sole_fresh_compiled_catalog(const std::filesystem::path& data_dir,
-                                                           const std::vector<std::string>& user_catalogs);
+                                                           const std::vector<std::string>& user_catalogs,
+                                                           std::vector<std::string>& notes);
 
 /// Loads the catalogs when `user_catalogs` holds a compiled catalog: its rows (which include the data
 /// folder's catalogs it was compiled with), then the other files given. A stale compiled catalog is
