@@ -4,11 +4,13 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "engine/storage_loss.hpp"
 #include "io/limits.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/names.hpp"
+#include "report/html_reports.hpp"
 #include "report/storage_report.hpp"
 
 namespace bine::cli {
@@ -23,6 +25,7 @@ struct AgeOptions {
   std::string hsi;
   std::string on;
   bool json = false;
+  std::string html;
 };
 
 /// The question with every value read; the stability still to be looked up when a variety is named.
@@ -30,6 +33,7 @@ struct AgeArgs {
   AgeQuery query;
   std::string variety;  // --variety: stability from the catalog
   bool json = false;
+  std::string html;
 };
 
 std::optional<Storage> read_storage(OptionReader& reader, const std::string& text) {
@@ -71,6 +75,7 @@ AgeArgs parse_age_args(const AgeOptions& options) {
   OptionReader reader;
   AgeArgs args;
   args.json = options.json;
+  args.html = options.html;
   args.variety = options.variety;
   const auto alpha = reader.quantity("--alpha", options.alpha, Dimension::percent, limits::alpha_acid);
   const auto storage = read_storage(reader, options.stored);
@@ -104,6 +109,12 @@ void run_age(const Console& console, const GlobalOptions& globals, AgeArgs args)
                           : fmt::format("{} has no stability in the catalog; fair class assumed", variety.name);
   }
   const AgedAlpha aged = age_alpha(args.query.history);
+  write_html(args.html, [&] {
+    return age_html(
+        args.query, aged, globals.unit_system(),
+        page_meta(nullptr, "", "",
+                  "certificate alpha, packaging date and storage; stability from " + args.query.stability_source));
+  });
   print_result(
       console, args.json, [&] { return age_to_json(args.query, aged); },
       [&](std::ostream& out) { render_age(out, args.query, aged, globals.unit_system()); });
@@ -124,11 +135,13 @@ void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   age->add_option("--hsi", options->hsi, "a measured Hop Storage Index of the variety");
   age->add_option("--on", options->on, "the day to estimate for, YYYY-MM-DD (default: today)");
   age->add_flag("--json", options->json, "print JSON");
+  add_html_option(age, options->html);
   age->footer(
       "Examples:\n"
       "  bine age --alpha 11.2 --packaged 2025-10-01 --stored \"-1 C,vacuum\" --variety Keelstone --on 2026-06-01\n"
       "  bine age --alpha 6.0 --packaged 2025-12-01 --stored \"0 F,vacuum\" --stability 50 --json\n"
       "  bine age --alpha 9 --packaged 2026-01-10 --stored \"4 C,sealed\" --hsi 0.31\n"
+      "  bine age --alpha 9 --packaged 2026-01-10 --stored \"4 C,sealed\" --hsi 0.31 --html lot.html\n"
       "Model: first-order loss after Garetz (1994); rate halves per 15 C colder; vacuum 0.5, sealed 0.75, open 1.0.");
   commands.add(age,
                [&globals, options](const Console& console) { run_age(console, globals, parse_age_args(*options)); });

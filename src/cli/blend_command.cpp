@@ -6,6 +6,7 @@
 
 #include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
 #include "engine/aroma_profile.hpp"
@@ -18,6 +19,7 @@
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "report/blend_report.hpp"
+#include "report/html_reports.hpp"
 
 namespace bine::cli {
 namespace {
@@ -167,7 +169,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   if (file) notes.insert(notes.begin(), file->notes.begin(), file->notes.end());
   const BlendReportContext context{&data.lexicon, &request, recipe ? recipe->name : std::string(), stock.has_value(),
                                    std::move(notes)};
-  if (!args.html.empty()) write_file_atomically(args.html, blend_to_html(result, context, units));
+  write_html(args.html, [&] { return blend_html(result, context, units, page_meta(&data, args.recipe, args.stock)); });
   if (!args.write.empty() && recipe)
     write_recipe_file(args.write, *file, blended_recipe(*recipe, request.plan, result), &data.catalog);
   print_result(
@@ -200,7 +202,7 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   blend->add_option("--volume", options->volume, "batch volume without --recipe (e.g. 20L)");
   blend->add_option("--gravity", options->gravity, "boil gravity without --recipe (default 1.050)");
   blend->add_flag("--json", options->json, "print JSON (canonical units: g, C, min)");
-  blend->add_option("--html", options->html, "write a self-contained HTML report with a chart");
+  add_html_option(blend, options->html);
   blend->add_option("--write", options->write, "write the recipe with the new late hops and bittering charge");
   blend->footer(
       "Examples:\n"

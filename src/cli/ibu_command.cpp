@@ -5,11 +5,13 @@
 
 #include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "io/recipe_file.hpp"
 #include "report/bitterness_report.hpp"
+#include "report/html_reports.hpp"
 
 namespace bine::cli {
 namespace {
@@ -19,6 +21,7 @@ struct IbuOptions {
   RecipeFileOptions recipe_file;
   BitternessOptions bitterness;
   bool json = false;
+  std::string html;
 };
 
 struct IbuArgs {
@@ -26,6 +29,7 @@ struct IbuArgs {
   BeerXmlReadOptions recipe_file;
   BitternessSettings settings;
   bool json = false;
+  std::string html;
 };
 
 IbuArgs parse_ibu_args(const IbuOptions& options) {
@@ -33,6 +37,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   IbuArgs args;
   args.recipe = options.recipe;
   args.json = options.json;
+  args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
   reader.throw_if_any();
@@ -51,6 +56,8 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   }();
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
   // 3. Render.
+  write_html(args.html,
+             [&] { return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe)); });
   print_result(
       console, args.json, [&] { return bitterness_to_json(recipe, bitterness); },
       [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system()); });
@@ -65,12 +72,14 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   add_bitterness_options(ibu, options->bitterness);
   add_recipe_file_options(ibu, options->recipe_file);
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
+  add_html_option(ibu, options->html);
   ibu->footer(
       "Examples:\n"
       "  bine ibu pale-ale.json\n"
       "  bine ibu pale-ale.json --model rager\n"
       "  bine --units us ibu hazy-ipa.json --json\n"
       "  bine ibu their-recipe.xml --recipe-name \"Harbour Pale\" --whirlpool-temp 85C\n"
+      "  bine ibu pale-ale.json --html pale-ale.html     # brew-day sheet to print\n"
       "Whirlpool additions count their boil-equivalent minutes (Malowicki & Shellhammer 2005);\n"
       "a recipe \"hop_stand\" adds its boil-equivalent minutes to boil and first-wort additions.");
   commands.add(ibu,

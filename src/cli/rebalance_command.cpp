@@ -7,6 +7,7 @@
 
 #include "cli/bitterness_options.hpp"
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
 #include "engine/rebalance.hpp"
@@ -16,6 +17,7 @@
 #include "io/recipe_file.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
+#include "report/html_reports.hpp"
 #include "report/rebalance_report.hpp"
 
 namespace bine::cli {
@@ -30,6 +32,7 @@ struct RebalanceOptions {
   BitternessOptions bitterness;
   bool json = false;
   std::string write;
+  std::string html;
 };
 
 /// A --lot as typed, with its values read.
@@ -47,6 +50,7 @@ struct RebalanceArgs {
   BitternessSettings settings;
   bool json = false;
   std::string write;
+  std::string html;
 };
 
 constexpr std::string_view kLotForm = "VARIETY=ALPHA%[,oil=ML], such as \"Tidewell=7.9%,oil=1.4\"";
@@ -92,6 +96,7 @@ RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
   args.stock = options.stock;
   args.json = options.json;
   args.write = options.write;
+  args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
   if (options.lots.empty() == options.stock.empty())
@@ -156,6 +161,9 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
     const std::string written = write_recipe_file(args.write, file, result.recipe_after, &data.catalog);
     result.notes.push_back(fmt::format("rebalanced recipe written to {}", written));
   }
+  write_html(args.html, [&] {
+    return rebalance_html(recipe, context, result, globals.unit_system(), page_meta(&data, args.recipe, args.stock));
+  });
   print_result(
       console, args.json, [&] { return rebalance_to_json(recipe, context, result); },
       [&](std::ostream& out) { render_rebalance(out, recipe, context, result, globals.unit_system()); });
@@ -177,12 +185,14 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");
   rebalance->add_option("--write", options->write,
                         "save the rebalanced recipe to this file (written atomically; .xml: BeerXML 1.0)");
+  add_html_option(rebalance, options->html);
   rebalance->footer(
       "Examples:\n"
       "  bine rebalance pale-ale.json --lot \"Keelstone=14.9%\" --lot \"Tidewell=7.9%,oil=1.4\"\n"
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01\n"
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-dec.json\n"
       "  bine rebalance their-recipe.xml --stock stock.json --write new.xml\n"
+      "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --html brew-day.html\n"
       "Boil and first-wort additions hold their IBU; whirlpool and dry-hop additions hold their oil (else\n"
       "grams) and the largest boil addition absorbs the IBU change.");
   commands.add(rebalance, [&globals, options](const Console& console) {

@@ -5,12 +5,14 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "engine/hop_index.hpp"
 #include "engine/substitutes.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
+#include "report/html_reports.hpp"
 #include "report/swap_report.hpp"
 
 namespace bine::cli {
@@ -81,7 +83,8 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   // 3. Render.
   const auto timer = console.time("render");
   const bool pairs = args.request.pairs;
-  if (!args.html.empty()) write_file_atomically(args.html, swap_html(result, globals.unit_system(), pairs));
+  write_html(args.html,
+             [&] { return swap_html(result, globals.unit_system(), pairs, page_meta(&data, "", args.stock)); });
   print_result(
       console, args.json, [&] { return swap_to_json(result, pairs); },
       [&](std::ostream& out) { render_swap(out, result, globals.unit_system(), pairs); });
@@ -99,7 +102,7 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("--top", options->top, "how many substitutes to list (1-100, default 5)");
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
-  swap->add_option("--html", options->html, "also write a self-contained HTML report with aroma charts to FILE");
+  add_html_option(swap, options->html);
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"

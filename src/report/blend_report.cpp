@@ -3,7 +3,6 @@
 #include <fmt/format.h>
 
 #include <cmath>
-#include <sstream>
 #include <string_view>
 
 #include "report/bitterness_report.hpp"
@@ -203,55 +202,6 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"notes", context.notes},
            {"cautions", blend_cautions(result)}};
   return doc;
-}
-
-std::string blend_to_html(const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
-  const auto axes = context.lexicon->axis_names();
-  const Eigen::VectorXd& target = context.request->target.intensity;
-  const int n = static_cast<int>(target.size());
-  const int bar = 14, group = 2 * bar + 14, left = 40, top = 20, height = 200;
-  const int width = left + n * group + 20;
-  std::ostringstream svg;
-  svg << fmt::format(
-      "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{}\" height=\"{}\" role=\"img\" "
-      "aria-label=\"target and blend per aroma axis\">\n",
-      width, top + height + 90);
-  for (int level = 0; level <= 5; ++level) {
-    const double y = top + height - height * level / 5.0;
-    svg << fmt::format(
-        "<line x1=\"{}\" x2=\"{}\" y1=\"{:.1f}\" y2=\"{:.1f}\" class=\"grid\"/>"
-        "<text x=\"{}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n",
-        left, width - 10, y, y, left - 8, y + 4, level);
-  }
-  for (int a = 0; a < n; ++a) {
-    const double x = left + a * group + 6;
-    const double t = target[a], p = result.profile[a];
-    svg << fmt::format(
-        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"target\"><title>{} target "
-        "{:.1f}</title></rect>",
-        x, top + height - height * t / 5.0, bar, height * t / 5.0, html_escape(axes[static_cast<std::size_t>(a)]), t);
-    svg << fmt::format(
-        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{}\" height=\"{:.1f}\" class=\"blend\"><title>{} blend "
-        "{:.1f}</title></rect>",
-        x + bar, top + height - height * p / 5.0, bar, height * p / 5.0, html_escape(axes[static_cast<std::size_t>(a)]),
-        p);
-    svg << fmt::format("<text transform=\"translate({:.1f},{}) rotate(50)\" class=\"axis\">{}</text>\n", x + 4,
-                       top + height + 12, html_escape(axes[static_cast<std::size_t>(a)]));
-  }
-  svg << "</svg>";
-  std::ostringstream text;
-  render_blend_text(text, result, context, units);
-  return fmt::format(
-      "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>bine blend</title>\n<style>\n"
-      "body{{font-family:system-ui,sans-serif;margin:2em;color:#222;max-width:60em}}\n"
-      ".grid{{stroke:#ddd}} .tick,.axis{{font-size:11px;fill:#444}} .target{{fill:#9a9a9a}} .blend{{fill:#3b6e8f}}\n"
-      ".key span{{display:inline-block;width:1em;height:1em;margin:0 .3em 0 1em;vertical-align:middle}}\n"
-      "pre{{background:#f6f6f4;padding:1em;overflow:auto}}\n</style></head><body>\n"
-      "<h1>Late-hop blend{}</h1>\n<p class=\"key\"><span style=\"background:#9a9a9a\"></span>target"
-      "<span style=\"background:#3b6e8f\"></span>blend (intensity 0-5 per axis; fit "
-      "{:.2f})</p>\n{}\n<pre>{}</pre>\n</body></html>\n",
-      context.recipe_name.empty() ? "" : " for " + html_escape(context.recipe_name), result.fit, svg.str(),
-      html_escape(text.str()));
 }
 
 }  // namespace bine

@@ -1,6 +1,6 @@
 #pragma once
-// Rendering a blend: text tables for the terminal, one JSON document, and a self-contained HTML page
-// with an inline SVG chart (grouped bars of target versus blend per aroma axis).
+// Rendering a blend: text tables for the terminal and one JSON document (the HTML page is
+// blend_html in html_reports.hpp).
 #include <nlohmann/json.hpp>
 #include <ostream>
 #include <string>
@@ -29,9 +29,6 @@ void render_blend_text(std::ostream& out, const BlendResult& result, const Blend
 
 /// Canonical units (g, C, min, %); keys: target, varieties, profile, fit, bittering, total_ibu ...
 nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext& context);
-
-/// A self-contained HTML page (no scripts, no external files).
-std::string blend_to_html(const BlendResult& result, const BlendReportContext& context, UnitSystem units);
 
 /// The cautions a blend carries (hot wort at whirlpool; dry-hop refermentation; dogs).
 std::vector<std::string> blend_cautions(const BlendResult& result);

@@ -3,7 +3,6 @@
 #include <fmt/format.h>
 
 #include <cmath>
-#include <sstream>
 
 #include "report/catalog_report.hpp"
 #include "report/output_format.hpp"
@@ -50,44 +49,6 @@ std::string words_text(const Substitute& s, const SwapResult& r) {
   if (!r.missing_aroma.size() || r.missing_source == AromaSource::none || s.aroma_source == AromaSource::none)
     return "n/a (no aroma data)";
   return differences_in_words(s.differences);
-}
-
-// Grouped bars: for each aroma axis, the missing variety's intensity beside the substitute's (0-5).
-std::string aroma_chart(const SwapResult& r, const Substitute& s) {
-  const double group = 44.0, bar = 16.0, height = 150.0, top = 20.0, left = 34.0;
-  const double width = left + group * static_cast<double>(r.axes.size()) + 10.0;
-  std::string svg = fmt::format(
-      "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{:.0f}\" height=\"{:.0f}\" role=\"img\" "
-      "aria-label=\"aroma of {} and {}\">\n",
-      width, top + height + 70.0, html_escape(r.missing.name), html_escape(name_of(s)));
-  for (int level = 0; level <= 5; ++level) {
-    const double y = top + height - height * level / 5.0;
-    svg += fmt::format(
-        "<line x1=\"{:.0f}\" y1=\"{:.1f}\" x2=\"{:.0f}\" y2=\"{:.1f}\" class=\"grid\"/>"
-        "<text x=\"{:.0f}\" y=\"{:.1f}\" class=\"tick\">{}</text>\n",
-        left, y, width - 10.0, y, left - 6.0, y + 4.0, level);
-  }
-  for (std::size_t a = 0; a < r.axes.size(); ++a) {
-    const auto i = static_cast<Eigen::Index>(a);
-    const double x = left + group * static_cast<double>(a) + 5.0;
-    const double want = i < r.missing_aroma.size() ? r.missing_aroma[i] : 0.0;
-    const double got = i < s.aroma.size() ? s.aroma[i] : 0.0;
-    svg += fmt::format(
-        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"want\">"
-        "<title>{} {}: {:.1f}</title></rect>\n",
-        x, top + height - height * want / 5.0, bar, height * want / 5.0, html_escape(r.missing.name),
-        html_escape(r.axes[a]), want);
-    svg += fmt::format(
-        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.0f}\" height=\"{:.1f}\" class=\"got\">"
-        "<title>{} {}: {:.1f}</title></rect>\n",
-        x + bar, top + height - height * got / 5.0, bar, height * got / 5.0, html_escape(name_of(s)),
-        html_escape(r.axes[a]), got);
-    svg +=
-        fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" class=\"axis\" transform=\"rotate(40 {:.1f} {:.1f})\">{}</text>\n",
-                    x + 4.0, top + height + 14.0, x + 4.0, top + height + 14.0, html_escape(r.axes[a]));
-  }
-  svg += "</svg>\n";
-  return svg;
 }
 
 std::string chemistry_cell(const std::optional<Range>& range, std::string_view unit) { return range_text(range, unit); }
@@ -215,36 +176,6 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
   if (r.purpose == SwapPurpose::aroma)
     out << "Dry hopping can restart fermentation (hop creep): package only after gravity is stable for several days.\n";
   out << "Hops are toxic to dogs: keep spent hops out of their reach.\n";
-}
-
-std::string swap_html(const SwapResult& r, UnitSystem units, bool with_pairs) {
-  std::ostringstream text;
-  render_swap(text, r, units, with_pairs);
-  std::string html =
-      "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>bine swap: " +
-      html_escape(r.missing.name) +
-      "</title>\n<style>\n"
-      "body{font-family:sans-serif;margin:2em;color:#222;max-width:70em}\n"
-      "h1{font-size:1.4em}h2{font-size:1.1em;margin-top:1.6em}\n"
-      "pre{background:#f4f4f2;padding:1em;overflow-x:auto;font-size:.85em}\n"
-      ".grid{stroke:#ddd;stroke-width:1}.tick{font-size:10px;text-anchor:end;fill:#666}\n"
-      ".axis{font-size:11px;fill:#333}.want{fill:#4d4d4d}.got{fill:#9bb0a5}\n"
-      ".key span{display:inline-block;width:.9em;height:.9em;margin:0 .3em 0 1em;vertical-align:middle}\n"
-      "</style>\n</head>\n<body>\n";
-  html +=
-      "<h1>Substitutes for " + html_escape(r.missing.name) + " (" + std::string(to_string(r.purpose)) + " swap)</h1>\n";
-  const std::size_t charts = std::min<std::size_t>(3, r.substitutes.size());
-  for (std::size_t i = 0; i < charts; ++i) {
-    const Substitute& s = r.substitutes[i];
-    html += fmt::format("<h2>{}. {}: similarity {:.0f}/100</h2>\n", i + 1, html_escape(name_of(s)), s.similarity);
-    html += fmt::format(
-        "<p class=\"key\"><span class=\"want\" style=\"background:#4d4d4d\"></span>{} "
-        "<span style=\"background:#9bb0a5\"></span>{} (aroma intensity 0-5)</p>\n",
-        html_escape(r.missing.name), html_escape(name_of(s)));
-    html += aroma_chart(r, s);
-  }
-  html += "<h2>Details</h2>\n<pre>" + html_escape(text.str()) + "</pre>\n</body>\n</html>\n";
-  return html;
 }
 
 }  // namespace bine

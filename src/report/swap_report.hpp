@@ -1,6 +1,6 @@
 #pragma once
-// Rendering a swap: text tables for the terminal, one JSON document, and a self-contained HTML page
-// with grouped bars (missing variety vs substitute per aroma axis).
+// Rendering a swap: text tables for the terminal and one JSON document (the HTML page is
+// swap_html in html_reports.hpp).
 #include <nlohmann/json.hpp>
 #include <ostream>
 #include <string>
@@ -18,8 +18,5 @@ nlohmann::json swap_to_json(const SwapResult& result, bool with_pairs);
 
 /// Text for the terminal: ranked substitutes, chemistry side by side, pairs, notes, cautions.
 void render_swap(std::ostream& out, const SwapResult& result, UnitSystem units, bool with_pairs);
-
-/// A self-contained HTML page (inline CSS and SVG, no scripts or external files).
-std::string swap_html(const SwapResult& result, UnitSystem units, bool with_pairs);
 
 }  // namespace bine

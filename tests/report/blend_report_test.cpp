@@ -11,6 +11,8 @@
 #include <sstream>
 #include <string>
 
+#include "report/html_reports.hpp"
+
 namespace {
 
 using namespace bine;
@@ -184,7 +186,7 @@ TEST_CASE("blend JSON: canonical units at the documented rounding") {
 
 TEST_CASE("blend HTML escapes the recipe and lot names and holds no script") {
   const Blended f;
-  const std::string page = blend_to_html(f.result, f.context, UnitSystem::metric);
+  const std::string page = blend_html(f.result, f.context, UnitSystem::metric, {"2026-12-01", "0.1.0", {}});
   CHECK(has(page, "<h1>Late-hop blend for Ale &lt;One&gt; &amp; &quot;Two&quot;</h1>"));
   CHECK(has(page, "Rose &lt;Test&gt; (R&amp;1)"));
   CHECK_FALSE(has(page, "<One>"));

@@ -10,6 +10,8 @@
 #include <sstream>
 #include <string>
 
+#include "report/html_reports.hpp"
+
 namespace {
 
 using namespace bine;
@@ -142,7 +144,8 @@ TEST_CASE("swap JSON: canonical units, documented rounding, null for a missing f
 }
 
 TEST_CASE("swap HTML escapes every name and holds no script") {
-  const std::string page = swap_html(hand_built(SwapPurpose::aroma), UnitSystem::metric, true);
+  const std::string page =
+      swap_html(hand_built(SwapPurpose::aroma), UnitSystem::metric, true, {"2026-12-01", "0.1.0", {}});
   CHECK(page.find("Missing &lt;b&gt;&amp;&lt;/b&gt; Co") != std::string::npos);
   CHECK(page.find("First &quot;Sub&quot; (L&lt;1&gt;)") != std::string::npos);
   CHECK(page.find("<b>") == std::string::npos);
@@ -150,6 +153,9 @@ TEST_CASE("swap HTML escapes every name and holds no script") {
   CHECK(page.find("\"Sub\"") == std::string::npos);
   CHECK(page.find("<svg") != std::string::npos);
   CHECK(page.find("<script") == std::string::npos);
-  // The details block is the text report, escaped: the caution is there too.
-  CHECK(page.find("toxic to dogs") != std::string::npos);
+  // The caution box carries the dogs and dry-hop cautions of an aroma swap.
+  const auto box = page.find("<section class=\"caution\">");
+  REQUIRE(box != std::string::npos);
+  CHECK(page.find("toxic to dogs", box) != std::string::npos);
+  CHECK(page.find("hop creep", box) != std::string::npos);
 }

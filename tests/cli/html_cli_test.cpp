@@ -1,0 +1,69 @@
+// End-to-end (in-process): --html FILE on every command that writes a page, beside the text or
+// JSON output of the same run. The figures come from fixture files and hand arithmetic written
+// beside them; the browser check (tests/browser) checks every number against the JSON.
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <string>
+
+#include "cli/run_in_process.hpp"
+#include "cli/temp_dir.hpp"
+
+namespace {
+
+namespace fs = std::filesystem;
+using bine::test::fixture;
+using bine::test::run_cli;
+using bine::test::slurp;
+
+bool has(const std::string& text, const std::string& needle) { return text.find(needle) != std::string::npos; }
+
+}  // namespace
+
+TEST_CASE("ibu --html: the schedule as weighed, the IBU chart, BU:GU and the hot-wort caution in its box") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "sheet.html";
+  const auto run = run_cli({"ibu", fixture("h3-whirlpool.json"), "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  CHECK(has(run.out, "BU:GU"));  // the text output is printed as without --html
+  const std::string html = slurp(page);
+  // The fixture: 100 g whole hops at 10 % alpha, whirlpool 20 min at 80 C.
+  CHECK(has(html, "data-json=\"/additions/0/grams\">100 g</td>"));
+  CHECK(has(html, "data-json=\"/additions/0/alpha_acid\">10.0 %</td>"));
+  CHECK(has(html, "data-json=\"/additions/0/temperature_c\">80 C</td>"));
+  CHECK(has(html, "data-json=\"/additions/0/minutes\">20 min</td>"));
+  CHECK(has(html, "<title id=\"ibu-t\">IBU per addition</title>"));
+  CHECK(has(html, ">bitterness (IBU)</text>"));
+  const auto box = html.find("<section class=\"caution\">");
+  REQUIRE(box != std::string::npos);
+  CHECK(html.find("scalds", box) != std::string::npos);
+  CHECK(html.find("toxic to dogs", box) != std::string::npos);
+  CHECK(has(html, "recipe: " + fixture("h3-whirlpool.json")));
+  CHECK_FALSE(has(html, "<script"));
+}
+
+TEST_CASE("age --html: certificate and brew-day alpha, stability source, no catalog named when none was read") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "lot.html";
+  // METHODS.md check value (as in ibu_cli_test): 6.0 %, stability 50, vacuum, -18 C, 365 days -> 5.31 %.
+  const auto run = run_cli({"age", "--alpha", "6.0", "--packaged", "2025-01-01", "--stored", "-18 C,vacuum",
+                            "--stability", "50", "--on", "2026-01-01", "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const std::string html = slurp(page);
+  CHECK(has(html, "data-json=\"/alpha_acid_packaged\">6.00 %</td>"));
+  CHECK(has(html, "data-json=\"/alpha_acid\">5.3"));  // 5.31 % to the check value's 3 digits
+  CHECK(has(html, "data-json=\"/days\">365 d</td>"));
+  CHECK(has(html, ">--stability</td>"));
+  CHECK_FALSE(has(html, "catalogs:"));
+}
+
+TEST_CASE("--html into a folder that does not exist: one clear line, exit 2, no file") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "missing" / "sheet.html";
+  const auto run = run_cli({"ibu", fixture("h3-whirlpool.json"), "--html", page.string()});
+  CHECK(run.status == 2);
+  CHECK(has(run.err, "does not exist"));
+  CHECK_FALSE(fs::exists(page));
+}
