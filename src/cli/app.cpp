@@ -109,6 +109,7 @@ int run(int argc, char** argv, std::ostream& out, std::ostream& err) {
     setup_swap_command(app, globals, commands);
     setup_blend_command(app, globals, commands);
     setup_calibrate_command(app, globals, commands);
+    setup_import_command(app, globals, commands);
     try {
       app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {

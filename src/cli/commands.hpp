@@ -46,5 +46,6 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
 void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_calibrate_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+void setup_import_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 
 }  // namespace bine::cli

@@ -1,6 +1,6 @@
 #pragma once
 // BeerXML 1.0, the open recipe exchange format: reading a RECIPE into our Recipe, writing a recipe
-// back with only the hop amounts and alphas changed, and reading HOP records for import.
+// back with only the hop amounts and alphas changed. HOP records for import: io/hop_import.hpp.
 //
 // What maps to what (the README's table says the same for brewers):
 //   RECIPE/NAME -> name; BATCH_SIZE (L) -> batch volume; BOIL_TIME (min) -> boil time; OG (SG, else
@@ -60,26 +60,5 @@ BeerXmlRecipe parse_beerxml_recipe(std::string_view text, const std::string& fil
 /// 100 - stability); one that is gone loses its record. Everything else is written back as it was,
 /// in order. Changes the held document.
 std::string beerxml_with_recipe(const BeerXmlRecipe& source, const Recipe& after, const Catalog* catalog);
-
-/// One HOP record of a BeerXML file, for import into a catalog or stock file.
-struct BeerXmlHop {
-  std::string name;
-  std::string origin;
-  std::optional<double> alpha;          // %
-  std::optional<double> beta;           // %
-  std::optional<double> hsi;            // % of alpha lost in 6 months (BeerXML's meaning)
-  std::optional<double> cohumulone;     // % of alpha
-  std::optional<double> myrcene;        // % of oil
-  std::optional<double> humulene;       // % of oil
-  std::optional<double> caryophyllene;  // % of oil
-  std::optional<double> amount_kg;
-  std::optional<Purpose> purpose;  // TYPE Bittering, Aroma, Both
-  std::optional<HopForm> form;
-  std::string notes;
-  std::string path;  // element path, for messages
-};
-
-/// Every HOP record in the file (a HOPS list, or the hops of RECIPE records), in order.
-std::vector<BeerXmlHop> parse_beerxml_hops(std::string_view text, const std::string& file);
 
 }  // namespace bine
