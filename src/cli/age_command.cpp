@@ -102,9 +102,10 @@ AgeArgs parse_age_args(const AgeOptions& options) {
 
 void run_age(const Console& console, const GlobalOptions& globals, AgeArgs args) {
   // 1. The variety's stability from the catalog, when named; 2. age the alpha; 3. render.
+  std::optional<DataSet> data;  // only read for --variety
   if (!args.variety.empty()) {
-    const DataSet data = load_data(globals, console);
-    const Variety& variety = require_variety(data.catalog, args.variety, "--variety");
+    data = load_data(globals, console);
+    const Variety& variety = require_variety(data->catalog, args.variety, "--variety");
     args.query.history.stability_percent = variety.stability.value_or(kStabilityFair);
     args.query.stability_source =
         variety.stability ? fmt::format("catalog: {}", variety.name)
@@ -114,7 +115,7 @@ void run_age(const Console& console, const GlobalOptions& globals, AgeArgs args)
   write_html(args.html, [&] {
     return age_html(
         args.query, aged, globals.unit_system(),
-        page_meta(nullptr, "", "",
+        page_meta(data ? &*data : nullptr, "", "",
                   "certificate alpha, packaging date and storage; stability from " + args.query.stability_source));
   });
   print_result(

@@ -19,7 +19,7 @@ std::string part_name(const BlendPart& part) {
 std::string var_pointer(std::size_t i, std::string_view key) { return fmt::format("/varieties/{}/{}", i, key); }
 
 std::string weigh_table(const BlendResult& result, UnitSystem units) {
-  html::Table table("Late hops: the whirlpool part goes in hot, the dry-hop part after fermentation",
+  html::Table table("Late hops: the whirlpool part into the hot wort, the dry-hop part into the fermenter",
                     {{"variety (lot)"},
                      {"whirlpool", true},
                      {"dry hop", true},
@@ -121,7 +121,7 @@ std::string blend_html(const BlendResult& result, const BlendReportContext& cont
       plan.ibu.target_ibu);
   content.sections.push_back({"Weigh out", weigh_table(result, units)});
   content.sections.push_back({"Aroma", aroma_section(result, context)});
-  content.sections.push_back({"Bitterness", ibu_table(result, context, units)});
+  content.sections.push_back({"Bittering charge and IBU", ibu_table(result, context, units)});
   if (std::string left = stock_left(result, context, units); !left.empty())
     content.sections.push_back({"Stock left after brewing", left});
   content.notes = context.notes;

@@ -51,8 +51,11 @@ Cell range_cell(const std::optional<Range>& range, std::string_view unit, const 
 }
 
 std::vector<std::string> boxed(std::vector<std::string> cautions) {
-  for (auto& caution : cautions)
+  for (auto& caution : cautions) {
     if (caution.starts_with("Caution: ")) caution.erase(0, 9);
+    if (!caution.empty() && caution[0] >= 'a' && caution[0] <= 'z')
+      caution[0] = static_cast<char>(caution[0] - 'a' + 'A');
+  }
   return cautions;
 }
 

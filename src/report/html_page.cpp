@@ -26,7 +26,7 @@ caption{text-align:left;font-weight:600;padding:.2rem 0 .35rem;color:#333}
 th,td{padding:.3rem .45rem;border-bottom:1px solid #c9cfd4;vertical-align:top;text-align:left}
 thead th{border-bottom:2px solid #1d3b53;font-weight:600;background:#eef2f5}
 .num{text-align:right;font-variant-numeric:tabular-nums}
-td.num{white-space:nowrap}
+td.num,td.code{white-space:nowrap}
 tfoot td{font-weight:700;border-top:2px solid #1d3b53;border-bottom:none}
 figure{margin:.6rem 0 1rem}
 figure svg{display:block;width:100%;max-width:30rem;height:auto}
@@ -57,6 +57,7 @@ text-align:right;white-space:normal;overflow-wrap:anywhere}
 table.sheet td::before{content:attr(data-label);font-weight:600;text-align:left;color:#333}
 table.sheet tfoot td{border-top:none}
 table.sheet td:empty{display:none}
+table.sheet td:first-child{grid-column:1/-1}
 }
 @media print{
 @page{margin:14mm}

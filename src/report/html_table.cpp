@@ -27,8 +27,9 @@ std::string Table::row_html(const std::vector<Cell>& cells) const {
   for (std::size_t c = 0; c < columns_.size(); ++c) {
     const Cell empty;
     const Cell& cell = c < cells.size() ? cells[c] : empty;
-    out += fmt::format("<td data-label=\"{}\"{}{}>{}</td>", html_escape(columns_[c].heading),
-                       columns_[c].numeric ? " class=\"num\"" : "", json_attributes(cell), html_escape(cell.text));
+    const char* css = columns_[c].numeric ? " class=\"num\"" : columns_[c].keep_whole ? " class=\"code\"" : "";
+    out += fmt::format("<td data-label=\"{}\"{}{}>{}</td>", html_escape(columns_[c].heading), css,
+                       json_attributes(cell), html_escape(cell.text));
   }
   return out + "</tr>\n";
 }

@@ -11,7 +11,8 @@ namespace bine::html {
 
 struct Column {
   std::string heading;
-  bool numeric = false;  // right-aligned, tabular figures
+  bool numeric = false;     // right-aligned, tabular figures
+  bool keep_whole = false;  // never broken across lines (lot codes)
 };
 
 struct Cell {

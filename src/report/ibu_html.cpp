@@ -24,7 +24,7 @@ std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, Unit
   html::Table table("Weigh out and add in this order (alpha is the value the IBU is computed with)",
                     {{"#", true},
                      {"variety"},
-                     {"lot"},
+                     {"lot", false, true},
                      {"use"},
                      {"time", true},
                      {"temperature", true},

@@ -22,7 +22,7 @@ const HopAddition& hop_after(const RebalanceResult& result, const RebalancedAddi
 std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
   html::Table table("Weigh the new grams; alpha is each lot's on brew day", {{"#", true},
                                                                              {"variety"},
-                                                                             {"lot"},
+                                                                             {"lot", false, true},
                                                                              {"use"},
                                                                              {"alpha on brew day", true},
                                                                              {"recipe had", true},

@@ -109,8 +109,8 @@ std::string value_axis(const BarChart& chart, double max, double top, double& y)
   }
   out += fmt::format("<line x1=\"{:.1f}\" y1=\"{:.1f}\" x2=\"{:.1f}\" y2=\"{:.1f}\" class=\"axis\"/>\n", kLeft, y,
                      kPlotRight, y);
-  out += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"11\" text-anchor=\"middle\">{}</text>\n",
-                     kLeft + span / 2.0, y + 29.0, html_escape(chart.axis_label));
+  out += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"11\">{}</text>\n", kLeft, y + 29.0,
+                     html_escape(fitted(chart.axis_label)));
   y += 36.0;
   return out;
 }

@@ -20,7 +20,8 @@ std::string sub_pointer(std::size_t i, std::string_view key) { return fmt::forma
 
 std::string ranking_table(const SwapResult& r, UnitSystem units) {
   std::vector<html::Column> columns{{"substitute, best first"}};
-  if (r.from_stock) columns.insert(columns.end(), {{"lot"}, {"on hand", true}, {"alpha on brew day", true}});
+  if (r.from_stock)
+    columns.insert(columns.end(), {{"lot", false, true}, {"on hand", true}, {"alpha on brew day", true}});
   columns.insert(columns.end(),
                  {{"similarity", true}, {"confidence", true}, {"g per g replaced", true}, {"aroma differences"}});
   html::Table table("Scale each addition by the grams per gram replaced", columns);
@@ -98,7 +99,7 @@ html::BarChart bitter_chart(const SwapResult& r, std::size_t i) {
   html::BarChart chart;
   chart.id = fmt::format("bitter{}", i + 1);
   chart.title = fmt::format("Bittering acids: {} versus {}", r.missing.name, lot_name(s));
-  chart.axis_label = "percent (alpha and beta % w/w; cohumulone % of alpha), range midpoint";
+  chart.axis_label = "percent, middle of the catalog range";
   chart.series = {r.missing.name + " (missing)", lot_name(s)};
   chart.description = fmt::format("Catalog range midpoints of {} then {}:", r.missing.name, lot_name(s));
   const auto add = [&](std::string_view label, const std::optional<Range>& want, const std::optional<Range>& got) {
@@ -107,9 +108,9 @@ html::BarChart bitter_chart(const SwapResult& r, std::size_t i) {
         {std::string(label), {want ? want->mid() : 0.0, got ? got->mid() : 0.0}, {text(want), text(got)}, {}});
     chart.description += fmt::format(" {} {} and {};", label, text(want), text(got));
   };
-  add("alpha acid", r.missing.alpha_acid, s.variety.alpha_acid);
-  add("beta acid", r.missing.beta_acid, s.variety.beta_acid);
-  add("cohumulone", r.missing.cohumulone, s.variety.cohumulone);
+  add("alpha acid (% w/w)", r.missing.alpha_acid, s.variety.alpha_acid);
+  add("beta acid (% w/w)", r.missing.beta_acid, s.variety.beta_acid);
+  add("cohumulone (% of alpha)", r.missing.cohumulone, s.variety.cohumulone);
   return chart;
 }
 
