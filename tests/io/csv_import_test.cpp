@@ -78,6 +78,21 @@ TEST_CASE("csv write: RFC 4180 quoting, quotes doubled, CRLF line end") {
   CHECK(again.rows[0].fields[1] == "x,\"y\"");
 }
 
+TEST_CASE("csv write: a field that starts with a byte-order mark is quoted and reads back (fuzz_csv finding)") {
+  // Input of two marks (EF BB BF twice, UTF-8 of U+FEFF): the reader drops the first as the file's
+  // mark (RFC 3629 section 6) and keeps the second as the header's only field. Written unquoted, that
+  // field would itself be taken for the file's mark and the table read back empty; RFC 4180 allows
+  // any field in quotes.
+  const std::string mark = "\xEF\xBB\xBF";
+  const auto table = bine::parse_csv(mark + mark, "two-marks.csv");
+  REQUIRE(table.header.fields.size() == 1);
+  CHECK(table.header.fields[0] == mark);
+  CHECK(bine::csv_line({mark + "name", "x"}) == "\"" + mark + "name\",x\r\n");
+  const auto again = bine::parse_csv(bine::csv_line(table.header.fields), "written.csv");
+  REQUIRE(again.header.fields.size() == 1);
+  CHECK(again.header.fields[0] == mark);
+}
+
 TEST_CASE("hop csv: headers by synonym, units from headers, ranges and decimal commas") {
   const auto records = bine::read_hop_csv(read_csv_fixture("spec-sheet-semicolon.csv"), "s.csv", {});
   REQUIRE(records.hops.size() == 3);
