@@ -58,10 +58,11 @@ BlendTarget target_like(const Eigen::VectorXd& profile);
 
 /// How many candidates feed the subset search.
 struct PoolSettings {
-  std::size_t nearest = 24;     // best single varieties (nearest profiles in the weighted metric)
-  std::size_t per_axis = 8;     // strongest candidates on each axis the target names
-  std::size_t swap_rounds = 4;  // local-improvement rounds over the whole catalog after the pool
-  bool exhaustive = false;      // every candidate (for benchmarks and tests)
+  std::size_t nearest = 24;           // best single varieties (nearest profiles in the weighted metric)
+  std::size_t per_axis = 8;           // strongest candidates on each axis the target names
+  std::size_t swap_rounds = 4;        // local-improvement rounds over the whole catalog after the pool
+  std::size_t subset_budget = 50000;  // subsets solved at most in one pool search before it is bounded
+  bool exhaustive = false;            // every candidate (for benchmarks and tests)
 };
 
 struct BlendRequest {

@@ -65,13 +65,13 @@ void offer(SubsetSearch& search, const std::vector<std::size_t>& subset, BestBle
   }
 }
 
-/// Subsets of n things with `from` to k members, saturating at the budget's double.
-std::size_t subsets_between(std::size_t n, std::size_t from, std::size_t k) {
+/// Subsets of n things with `from` to k members, saturating at twice `budget`.
+std::size_t subsets_between(std::size_t n, std::size_t from, std::size_t k, std::size_t budget) {
   std::size_t total = 0;
   for (std::size_t size = from; size <= std::min(n, k); ++size) {
     double count = 1.0;  // C(n, size)
     for (std::size_t i = 0; i < size; ++i) count = count * static_cast<double>(n - i) / static_cast<double>(i + 1);
-    total += static_cast<std::size_t>(std::min(count, 2.0 * kSubsetBudget));
+    total += static_cast<std::size_t>(std::min(count, 2.0 * static_cast<double>(budget)));
   }
   return total;
 }
@@ -81,7 +81,8 @@ BestBlend search_every_subset(SubsetSearch& search, const std::vector<std::size_
   BestBlend best;
   const auto visit = [&](const std::vector<std::size_t>& subset) { offer(search, subset, best); };
   const std::size_t k = search.request.max_varieties;
-  if (search.request.pool.exhaustive || subsets_between(pool.size(), 1, k) <= kSubsetBudget) {
+  const std::size_t budget = search.request.pool.subset_budget;
+  if (search.request.pool.exhaustive || subsets_between(pool.size(), 1, k, budget) <= budget) {
     for_each_subset(pool, 1, k, visit);
     return best;
   }
@@ -89,11 +90,11 @@ BestBlend search_every_subset(SubsetSearch& search, const std::vector<std::size_
   // budget, then the larger subsets (up to K) of the relaxation's heaviest members.
   search.bounded = true;
   std::size_t small = 1;
-  while (small < k && subsets_between(pool.size(), 1, small + 1) <= kSubsetBudget / 2) ++small;
+  while (small < k && subsets_between(pool.size(), 1, small + 1, budget) <= budget / 2) ++small;
   for_each_subset(pool, 1, small, visit);
   const Relaxation relaxed = relax_pool(search.prepared, pool);
   std::vector<std::size_t> heavy = relaxed.members;
-  while (heavy.size() > k && subsets_between(heavy.size(), small + 1, k) > kSubsetBudget / 2) heavy.pop_back();
+  while (heavy.size() > k && subsets_between(heavy.size(), small + 1, k, budget) > budget / 2) heavy.pop_back();
   std::sort(heavy.begin(), heavy.end());  // candidate order, as in the pool
   for_each_subset(heavy, small + 1, k, visit);
   return best;

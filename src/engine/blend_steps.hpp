@@ -87,14 +87,11 @@ struct SubsetSearch {
   bool bounded = false;  // the pool had too many subsets to solve them all (see search_every_subset)
 };
 
-/// Subsets solved at most in one pool search before it is bounded (docs/methods.md#blend-search).
-inline constexpr std::size_t kSubsetBudget = 50000;
-
 /// Solves `subset` and keeps it in `best` when feasible and lower than best by more than 1e-12
 /// (ties keep the smaller, earlier subset).
 void offer(SubsetSearch& search, const std::vector<std::size_t>& subset, BestBlend& best);
 /// The best of every subset of `pool` with 1 to max_varieties members; when they number more than
-/// kSubsetBudget (K = 5 or 6 with many axes named), the best of every subset small enough to fit
+/// PoolSettings::subset_budget (K = 5 or 6 with many axes named), the best of every subset small enough to fit
 /// the budget and of every subset of up to K of the relaxation's heaviest members, and `bounded`.
 BestBlend search_every_subset(SubsetSearch& search, const std::vector<std::size_t>& pool);
 /// Local improvement over every candidate: adds while below max_varieties members, else swaps one,
