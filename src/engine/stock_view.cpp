@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "engine/cellar.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -14,30 +15,28 @@
 namespace bine {
 namespace {
 
+// Every lot goes through the one cellar (engine/cellar.hpp), so the list shows the alpha, stale flag
+// and reason that swap, blend and rebalance show for the same lot and day. The HSI is a state (what
+// the sample had lost when analysed, already in its certificate alpha), never a storage rate.
 StockLine line_for(const Lot& lot, std::size_t index, const Catalog& catalog, Date on, double stale_below) {
+  CellarSettings settings;
+  settings.stale_below = stale_below;
+  const CellarLot c = lot_on_brew_day(lot, index, find_variety(catalog, lot.variety), on, settings);
   StockLine line;
   line.lot = lot;
   line.index = index;
-  line.code = lot.lot.empty() ? fmt::format("lot {}", index + 1) : lot.lot;
-  line.alpha_today = lot.alpha_acid;
-  if (lot.hsi) {
-    line.hsi_loss_percent = percent_lost_from_hsi(*lot.hsi);
-    line.stability_percent = 100.0 - *line.hsi_loss_percent;
-    line.stability_source = fmt::format("from its HSI {:.2f}", *lot.hsi);
-  } else if (const Variety* variety = find_variety(catalog, lot.variety); variety != nullptr && variety->stability) {
-    line.stability_percent = *variety->stability;
-    line.stability_source = "catalog";
-  } else {
-    line.stability_source = "no catalog value; fair class assumed";
-  }
-  if (!lot.alpha_acid || !lot.packaged || !lot.storage) return line;
-  line.aged = true;
-  line.days = std::max(0L, days_between(*lot.packaged, on));
-  const StorageHistory history{*lot.alpha_acid, line.stability_percent, *lot.storage, static_cast<double>(line.days)};
-  const AgedAlpha aged = age_alpha(history);
-  line.alpha_today = aged.alpha_percent;
-  line.remaining = aged.remaining;
-  line.stale = aged.remaining < stale_below;
+  line.code = c.code;
+  line.alpha_today = c.alpha_today;
+  line.aged = c.basis == AlphaBasis::aged;
+  line.remaining = c.remaining;
+  line.days = c.days;
+  line.stability_percent = c.stability_percent;
+  line.stability_source = c.stability_source;
+  line.hsi_loss_percent = c.hsi_loss_percent;
+  line.stale = c.stale;
+  line.stale_reason = c.stale_reason;
+  if (!line.aged) return line;
+  const StorageHistory history{*lot.alpha_acid, c.stability_percent, *lot.storage, static_cast<double>(c.days)};
   line.days_until_stale = std::max(0L, days_to_share(history, stale_below) - line.days);
   return line;
 }

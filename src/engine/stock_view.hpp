@@ -24,7 +24,8 @@ struct StockLine {
   double stability_percent = kStabilityFair;
   std::string stability_source;
   std::optional<double> hsi_loss_percent;  // % lost the measured HSI shows
-  bool stale = false;                      // aged and below the stale share
+  bool stale = false;                      // below the stale share, or an oxidised HSI (engine/cellar)
+  std::string stale_reason;                // why, in words; empty unless stale
   /// Whole days from the list day until the alpha falls below the stale share at the lot's storage:
   /// 0 when already below; nullopt when the lot is not aged.
   std::optional<long> days_until_stale;
@@ -51,7 +52,8 @@ struct StockView {
 long days_to_share(const StorageHistory& history, double share);
 
 /// Every lot of `stock` on `on`, stale below `stale_below` of its certificate alpha. The stability
-/// is taken as rebalance takes it: from a measured HSI, else the catalog, else the fair class.
+/// is the variety's (catalog, else the fair class), as engine/cellar takes it for every command; a
+/// measured HSI is a state on its analysis date, never the storage rate.
 /// Throws InputError naming each lot packaged after `on`.
 StockView view_stock(const Stock& stock, const Catalog& catalog, Date on, double stale_below);
 

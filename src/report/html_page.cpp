@@ -54,7 +54,8 @@ border-top:2px solid #1d3b53;padding:.2rem 0}
 table.sheet td{display:flex;justify-content:space-between;gap:.5rem;padding:.25rem .1rem;
 border-bottom:1px dotted #c9cfd4;
 text-align:right;white-space:normal;overflow-wrap:anywhere}
-table.sheet td::before{content:attr(data-label);font-weight:600;text-align:left;color:#333}
+table.sheet td::before{content:attr(data-label);font-weight:600;text-align:left;color:#333;
+overflow-wrap:normal;max-width:60%}
 table.sheet tfoot td{border-top:none}
 table.sheet td:empty{display:none}
 table.sheet td:first-child{grid-column:1/-1}

@@ -63,6 +63,8 @@ void render_stock_list(std::ostream& out, const StockView& view, UnitSystem unit
   out << "Per variety:\n";
   render_totals(out, view, units);
   for (const StockLine& line : view.lots)
+    if (line.stale) out << fmt::format("  stale: {}: {}\n", line.code, line.stale_reason);
+  for (const StockLine& line : view.lots)
     if (!line.aged)
       out << fmt::format("  note: {} has no alpha, packaged date or storage; {}\n", line.code,
                          line.alpha_today ? "its certificate alpha is shown unaged" : "its alpha is unknown");
@@ -90,6 +92,7 @@ nlohmann::json stock_list_to_json(const StockView& view) {
     j["hsi_loss_percent"] =
         line.hsi_loss_percent ? nlohmann::json(rounded(*line.hsi_loss_percent, 3)) : nlohmann::json();
     j["stale"] = line.stale;
+    j["stale_reason"] = line.stale_reason;
     j["days_until_stale"] = line.days_until_stale ? nlohmann::json(*line.days_until_stale) : nlohmann::json();
     j["on_hand_g"] = line.lot.on_hand_g ? nlohmann::json(rounded(*line.lot.on_hand_g, 2)) : nlohmann::json();
     out["lots"].push_back(j);

@@ -86,13 +86,15 @@ TEST_CASE("stock list: alpha today, share left, HSI state, stale flag, days unti
   CHECK(bm1["aged"] == false);
   CHECK(bm1["days_until_stale"].is_null());
   CHECK(bm1["hsi_loss_percent"].get<double>() == doctest::Approx(33.113).epsilon(1e-4));
-  CHECK(bm1["stale"] == false);
-  // Totals: Fernlight 1000 g + 500 g, of it 500 g stale; Brackenmoor 250 g, none stale.
+  // HSI 0.50 is above the oxidised edge 0.45 (common practice, from memory): stale, as in swap.
+  CHECK(bm1["stale"] == true);
+  CHECK(bm1["stale_reason"].get<std::string>().find("oxidised") != std::string::npos);
+  // Totals: Fernlight 1000 g + 500 g, of it 500 g stale; Brackenmoor 250 g, all of it stale (oxidised).
   REQUIRE(out["varieties"].size() == 2);
   CHECK(out["varieties"][0]["on_hand_g"] == 1500.0);
   CHECK(out["varieties"][0]["stale_g"] == 500.0);
   CHECK(out["varieties"][1]["on_hand_g"] == 250.0);
-  CHECK(out["varieties"][1]["stale_g"] == 0.0);
+  CHECK(out["varieties"][1]["stale_g"] == 250.0);
   // --stale-below 99: FL-1's 96.5 % is below it as well.
   const auto strict =
       run_cli({"stock", "list", fixture("stock-ledger.json"), "--on", "2026-03-02", "--stale-below", "99", "--json"});
@@ -106,6 +108,41 @@ TEST_CASE("stock list: alpha today, share left, HSI state, stale flag, days unti
   CHECK(text.out.find("8.82 oz") != std::string::npos);
   CHECK(text.out.find("421 days") != std::string::npos);
   CHECK(text.out.find("STALE") != std::string::npos);
+}
+
+TEST_CASE("stock list: a lot with an HSI ages at its variety's rate exactly as one without (HSI is a state)") {
+  bine::test::TempDir dir;
+  const auto file = dir.path() / "hsi.json";
+  // Two lots of one variety not in the catalog (fair class), same alpha, date and storage; only
+  // one carries an HSI. The HSI is what the sample had lost when analysed, already in its certificate
+  // alpha, never a storage rate (Garetz 1994; docs/methods.md#hsi).
+  write(file, R"({"lots": [
+    {"variety": "Testlot Unlisted", "lot": "Q-HSI", "alpha_acid": 10, "hsi": 0.31, "packaged": "2026-01-01",
+     "storage": {"temperature": "20 C", "package": "sealed"}, "on_hand": "1 kg"},
+    {"variety": "Testlot Unlisted", "lot": "Q-NONE", "alpha_acid": 10, "packaged": "2026-01-01",
+     "storage": {"temperature": "20 C", "package": "sealed"}, "on_hand": "1 kg"}]})");
+  const auto run = run_cli({"stock", "list", file.string(), "--on", "2026-04-11", "--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json out = json::parse(run.out);
+  REQUIRE(out["lots"].size() == 2);
+  // Garetz 1994: k = ln(100 / 65) / 180 = 0.0023932 per day (fair class, 35 % lost in 6 months,
+  // common practice); TF(20 C) = 1; SF sealed 0.75 (from memory); D = 100 days (2026-01-01 to
+  // 2026-04-11). A = 10 x exp(-0.0023932 x 0.75 x 100) = 8.3569 % (83.569 % left). Below 75 % after
+  // ln(4/3) / (0.0023932 x 0.75) = 160.27 -> 161 days from packaging: 61 days from the list day.
+  for (std::size_t i = 0; i < 2; ++i) {
+    const json lot = out["lots"][i];
+    INFO(lot.dump());
+    CHECK(lot["alpha_today"].get<double>() == doctest::Approx(8.3569).epsilon(1e-4));
+    CHECK(lot["remaining"].get<double>() == doctest::Approx(0.83569).epsilon(1e-4));
+    CHECK(lot["stability_percent"].get<double>() == doctest::Approx(65.0));
+    CHECK(lot["days_until_stale"] == 61);
+    CHECK(lot["stale"] == false);
+  }
+  // The HSI's own state: 110 x log10(0.31 / 0.25) = 10.28 % lost before analysis (Garetz 1994
+  // after Nickerson & Likens 1979); 0.31 is ageing, not oxidised (common practice, from memory).
+  CHECK(out["lots"][0]["hsi_loss_percent"].get<double>() == doctest::Approx(10.276).epsilon(1e-3));
+  CHECK(out["lots"][1]["hsi_loss_percent"].is_null());
 }
 
 TEST_CASE("stock list: the stock file from BINE_STOCK, and a clear line when none is given") {
