@@ -53,11 +53,14 @@ TEST_CASE("blend from a warm store promises the IBU with the lots' alpha on the 
   CHECK(doc["bittering"]["lot"] == "RK-1");
   CHECK(doc["bittering"]["alpha_acid"].get<double>() == doctest::Approx(10.456).epsilon(1e-3));
   for (const auto& v : doc["varieties"]) CHECK(v["alpha_note"].get<std::string>().find("80 days") != std::string::npos);
-  CHECK(std::abs(doc["total_ibu"].get<double>() - 38.0) <= 0.05);  // the recipe's target_ibu
+  // The recipe's target_ibu, held to within what weighing to 0.1 g moves it (the printed total is that
+  // of the rounded amounts, so it may sit up to about 0.1 IBU off the target).
+  CHECK(std::abs(doc["total_ibu"].get<double>() - 38.0) <= 0.1);
   // The written recipe carries the alpha of the brew day, so it reads back at the IBU promised.
   const auto ibu = run_cli({"ibu", written, "--json"});
   REQUIRE(ibu.status == 0);
-  CHECK(std::abs(nlohmann::json::parse(ibu.out)["total_ibu"].get<double>() - 38.0) <= 0.05);
+  CHECK(std::abs(nlohmann::json::parse(ibu.out)["total_ibu"].get<double>() - doc["total_ibu"].get<double>()) <=
+        0.005);
 }
 
 TEST_CASE("bine blend JSON is byte-identical across runs") {

@@ -97,7 +97,7 @@ TEST_CASE("swap --recipe --stock checks each lot against what the recipe needs a
   CHECK(picked.out.find("Fixture Standin (lot SI-1): need 67.5 g, have 50.0 g, short 17.5 g") != std::string::npos);
 }
 
-TEST_CASE("swap --pick, --pair and --write need --recipe; --pick and --pair exclude each other") {
+TEST_CASE("swap --pick, --pair and --write need --recipe, and --pick and --pair exclude each other") {
   CHECK(run_cli({"swap", "Tidewell", "--pick", "2"}).status == 2);
   CHECK(run_cli({"swap", "Tidewell", "--write", "x.json"}).status == 2);
   CHECK(swap({"--pick", "1", "--pair", "1"}).status == 2);
