@@ -16,9 +16,9 @@
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
-#include "report/html_reports.hpp"
 #include "io/recipe_file.hpp"
 #include "model/errors.hpp"
+#include "report/html_reports.hpp"
 #include "report/recipe_swap_report.hpp"
 #include "report/swap_report.hpp"
 

@@ -59,8 +59,7 @@ TEST_CASE("blend from a warm store promises the IBU with the lots' alpha on the 
   // The written recipe carries the alpha of the brew day, so it reads back at the IBU promised.
   const auto ibu = run_cli({"ibu", written, "--json"});
   REQUIRE(ibu.status == 0);
-  CHECK(std::abs(nlohmann::json::parse(ibu.out)["total_ibu"].get<double>() - doc["total_ibu"].get<double>()) <=
-        0.005);
+  CHECK(std::abs(nlohmann::json::parse(ibu.out)["total_ibu"].get<double>() - doc["total_ibu"].get<double>()) <= 0.005);
 }
 
 TEST_CASE("bine blend JSON is byte-identical across runs") {

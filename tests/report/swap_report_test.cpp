@@ -179,8 +179,8 @@ TEST_CASE("a bittering swap's HTML charts alpha, beta and cohumulone, not aroma"
   // (8 + 10) / 2 = 9.0 %, cohumulone (20 + 24) / 2 = 22.0 %.
   const auto chart = page.find("Bittering acids: ");
   REQUIRE(chart != std::string::npos);
-  for (const char* value : {": 7.0 %</title>", ": 4.5 %</title>", ": 32.0 %</title>", ": 9.0 %</title>",
-                            ": 22.0 %</title>"}) {
+  for (const char* value :
+       {": 7.0 %</title>", ": 4.5 %</title>", ": 32.0 %</title>", ": 9.0 %</title>", ": 22.0 %</title>"}) {
     INFO(value);
     CHECK(page.find(value, chart) != std::string::npos);
   }
