@@ -53,6 +53,27 @@ std::string words_text(const Substitute& s, const SwapResult& r) {
 
 std::string chemistry_cell(const std::optional<Range>& range, std::string_view unit) { return range_text(range, unit); }
 
+/// The two-variety blends that beat the best single substitute, with grams per gram of the missing one.
+void render_pairs(std::ostream& out, const SwapResult& r) {
+  out << "\nTwo-variety blends that match better than the best single substitute (shares by weight)\n";
+  TextTable pairs({{"Blend", Align::left},
+                   {"Shares", Align::right},
+                   {"Per g of " + r.missing.name, Align::right},
+                   {"Similarity", Align::right}});
+  for (const auto& p : r.pairs) {
+    const auto label = [&](int i) {
+      return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]);
+    };
+    const auto per_gram = [&](int i) {
+      return p.grams_per_gram[i] ? fmt::format("{:.2f} g", *p.grams_per_gram[i]) : std::string("n/a");
+    };
+    pairs.add_row({label(0) + " + " + label(1),
+                   fmt::format("{:.0f} % + {:.0f} %", 100.0 * p.shares[0], 100.0 * p.shares[1]),
+                   per_gram(0) + " + " + per_gram(1), fmt::format("{:.0f}/100", p.similarity)});
+  }
+  pairs.render(out);
+}
+
 }  // namespace
 
 nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
@@ -170,25 +191,7 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
   for (const auto& s : r.substitutes) chem_row(name_of(s), s.variety);
   chem.render(out);
 
-  if (with_pairs && !r.pairs.empty()) {
-    out << "\nTwo-variety blends that match better than the best single substitute (shares by weight)\n";
-    TextTable pairs({{"Blend", Align::left},
-                     {"Shares", Align::right},
-                     {"Per g of " + r.missing.name, Align::right},
-                     {"Similarity", Align::right}});
-    for (const auto& p : r.pairs) {
-      const auto label = [&](int i) {
-        return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]);
-      };
-      const auto per_gram = [&](int i) {
-        return p.grams_per_gram[i] ? fmt::format("{:.2f} g", *p.grams_per_gram[i]) : std::string("n/a");
-      };
-      pairs.add_row({label(0) + " + " + label(1),
-                     fmt::format("{:.0f} % + {:.0f} %", 100.0 * p.shares[0], 100.0 * p.shares[1]),
-                     per_gram(0) + " + " + per_gram(1), fmt::format("{:.0f}/100", p.similarity)});
-    }
-    pairs.render(out);
-  }
+  if (with_pairs && !r.pairs.empty()) render_pairs(out, r);
   if (!r.notes.empty()) {
     out << '\n';
     for (const auto& note : r.notes) out << "Note: " << note << '\n';
