@@ -475,11 +475,11 @@ FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon) {
 }
 
 nlohmann::ordered_json recipe_to_json(const Recipe& recipe) {
-  using json = nlohmann::ordered_json;
+  using ordered = nlohmann::ordered_json;
   // Written in the brewer's notation (docs/methods.md#recipe-files): every quantity in the unit it
   // was read in, to 10 significant digits, so that reading the file back gives the same recipe.
   const RecipeNotation& notation = recipe.notation;
-  json out;
+  ordered out;
   if (!recipe.name.empty()) out["name"] = recipe.name;
   out["batch_volume"] = format_in_unit(recipe.batch_volume_l, Dimension::volume, notation.volume);
   out["original_gravity"] = format_in_unit(recipe.original_gravity, Dimension::gravity, notation.gravity);
@@ -489,9 +489,9 @@ nlohmann::ordered_json recipe_to_json(const Recipe& recipe) {
     out["hop_stand"] = {
         {"time", format_in_unit(recipe.hop_stand->minutes, Dimension::time, notation.stand_time)},
         {"temperature", format_in_unit(recipe.hop_stand->temperature_c, Dimension::temperature, notation.temperature)}};
-  json hops = json::array();
+  ordered hops = ordered::array();
   for (const auto& hop : recipe.hops) {
-    json h;
+    ordered h;
     if (!hop.variety.empty()) h["variety"] = hop.variety;
     if (!hop.lot.empty()) h["lot"] = hop.lot;
     h["amount"] = format_in_unit(hop.grams, Dimension::mass, amount_unit(recipe, hop));
