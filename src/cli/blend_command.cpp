@@ -20,6 +20,7 @@
 #include "io/recipe_file.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
+#include "model/names.hpp"
 #include "report/blend_report.hpp"
 #include "report/html_reports.hpp"
 
@@ -82,14 +83,17 @@ void check_conflicts(OptionReader& reader, const BlendOptions& o) {
   }
 }
 
-/// --oil-dose in mL/hL, else --rate in g/L, else the plan's default rate.
-LateDose read_dose(OptionReader& reader, const BlendOptions& o) {
-  LateDose dose;
+/// --rate (g/L, oz/gal, lb/bbl ...) or --oil-dose (mL/hL, or "recipe": the oil the recipe's late hops
+/// deliver); neither: the recipe's own late grams, else the plan's default rate.
+void read_dose(OptionReader& reader, const BlendOptions& o, BlendChoices& choices) {
   if (auto rate = reader.optional_quantity("--rate", o.rate, Dimension::hop_rate, limits::late_hop_rate))
-    dose = {LateDose::Kind::grams_per_litre, *rate};
-  if (auto oil = reader.optional_quantity("--oil-dose", o.oil_dose, Dimension::oil_dose, limits::oil_dose))
-    dose = {LateDose::Kind::oil_ml_per_hl, *oil};
-  return dose;
+    choices.dose = LateDose{LateDose::Kind::grams_per_litre, *rate};
+  if (o.oil_dose == "recipe") {
+    reader.require(!o.recipe.empty(), "--oil-dose recipe: needs --recipe (the oil its late hops deliver is kept)");
+    choices.keep_recipe_oil = true;
+  } else if (auto oil = reader.optional_quantity("--oil-dose", o.oil_dose, Dimension::oil_dose, limits::oil_dose)) {
+    choices.dose = LateDose{LateDose::Kind::oil_ml_per_hl, *oil};
+  }
 }
 
 BlendArgs parse_blend_args(const BlendOptions& o) {
@@ -110,7 +114,7 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
                  fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", o.cellar.on));
   if (auto k = reader.count("--max-varieties", o.max_varieties, limits::blend_varieties, 3)) args.max_varieties = *k;
   BlendChoices& choices = args.choices;
-  choices.dose = read_dose(reader, o);
+  read_dose(reader, o, choices);
   if (auto others = reader.optional_quantity("--others", o.others, Dimension::number, limits::axis_weight))
     args.others = *others;
   choices.split = reader.optional_quantity("--split", o.split, Dimension::number, limits::share);
@@ -136,19 +140,44 @@ BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
   return target_from_spec(intensity, named, o.others);
 }
 
+/// Where the late-hop amount came from, so the brewer knows what to change.
+std::string late_amount_note(const BlendPlan& plan) {
+  const double litres = plan.wort.volume_l;
+  switch (plan.late_source) {
+    case LateSource::given:
+      return plan.late.kind == LateAmount::Kind::grams
+                 ? fmt::format("late hops: {:.0f} g, from --rate over {:.1f} L", plan.late.total, litres)
+                 : fmt::format("late hops deliver {:.1f} mL of oil, from --oil-dose over {:.1f} L", plan.late.total,
+                               litres);
+    case LateSource::recipe_grams:
+      return fmt::format(
+          "late hops: {:.0f} g, the recipe's own whirlpool and dry-hop amount (--rate or --oil-dose changes it)",
+          plan.late.total);
+    case LateSource::recipe_oil:
+      return fmt::format("late hops deliver {:.1f} mL of oil, as the recipe's own late hops do (--oil-dose recipe)",
+                         plan.late.total);
+    case LateSource::default_rate:
+      return fmt::format("late hops at the default rate of {:.0f} g/L: {:.0f} g (--rate or --oil-dose changes it)",
+                         LateDose{}.value, plan.late.total);
+  }
+  return {};
+}
+
 /// The notes under the blend: what the options changed, what was left out, what was searched.
 std::vector<std::string> blend_notes(const BlendArgs& args, const BlendRequest& request,
                                      const std::vector<std::string>& candidate_notes, const BlendResult& result) {
   std::vector<std::string> notes;
   if (args.choices.no_bittering && !request.plan.kept.empty())
     notes.push_back("--no-bittering: every boil addition is kept as written");
+  notes.push_back(late_amount_note(request.plan));
   notes.insert(notes.end(), candidate_notes.begin(), candidate_notes.end());
   if (!args.cellar.allow_stale &&
       std::any_of(candidate_notes.begin(), candidate_notes.end(),
                   [](const std::string& note) { return note.find(" stale ") != std::string::npos; }))
     notes.push_back("pass --allow-stale to blend stale lots too");
-  notes.push_back(fmt::format("searched {} subsets of a pool of {} candidates (of {})", result.subsets_solved,
-                              result.pool_size, request.candidates.size()));
+  notes.push_back(fmt::format("searched {} of a pool of {} (of {})",
+                              count_of(result.subsets_solved, "subset", "subsets"),
+                              count_of(result.pool_size, "candidate", "candidates"), request.candidates.size()));
   return notes;
 }
 
@@ -172,6 +201,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
       plan_blend(recipe ? &*recipe : nullptr, data.catalog, cellar ? &*cellar : nullptr, args.choices, args.settings);
   request.candidates = std::move(candidates.candidates);
   request.max_varieties = args.max_varieties;
+  request.weighed = true;
   // 3. Solve: choose the pool, solve every subset, hold IBU.
   const BlendResult result = [&] {
     const auto timer = console.time("blend search");
@@ -209,8 +239,12 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
                     "stock file: blend only lots on hand, within their amounts, aged to the brew day");
   add_cellar_options(blend, options->cellar, true);
   blend->add_option("--max-varieties", options->max_varieties, "at most this many varieties or lots (default 3)");
-  blend->add_option("--rate", options->rate, "total late hops in g/L (default 4g/L)");
-  blend->add_option("--oil-dose", options->oil_dose, "or fix the oil delivered, in mL of oil per hL of wort");
+  blend->add_option("--rate", options->rate,
+                    "total late hops per volume: g/L, oz/gal or lb/bbl (default: the recipe's own late grams, "
+                    "else 4g/L)");
+  blend->add_option("--oil-dose", options->oil_dose,
+                    "or fix the oil delivered: mL of oil per hL of wort, or \"recipe\" for the oil the recipe's "
+                    "late hops deliver");
   blend->add_option("--split", options->split, "whirlpool share of the late hops 0-1 (default the recipe's, else 0.3)");
   blend->add_option("--ibu", options->ibu, "IBU to hold (default the recipe's target_ibu, else its current total)");
   blend->add_option("--bittering", options->bittering,
@@ -229,7 +263,11 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
       "  bine blend --target \"floral=4,citrus=4\" --recipe pale-ale.json --stock stock.json\n"
       "  bine blend --like Tidewell --recipe pale-ale.json --max-varieties 2 --json\n"
       "  bine blend --like Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --allow-stale\n"
-      "  bine blend --target \"tropical=4,stone-fruit=3\" --volume 20L --ibu 30 --no-bittering --rate 6g/L\n"
+      "  bine blend --target \"tropical=4,stone-fruit=3\" --volume 20L --ibu 30 --bittering Keelstone --rate 6g/L\n"
+      "  bine --units us blend --target \"tropical=4\" --volume 5gal --ibu 8 --no-bittering --split 0.5 --rate "
+      "1oz/gal\n"
+      "With --no-bittering only the whirlpool share of the late hops bitters: a whirlpool at 80 C gives a few\n"
+      "IBU per 100 g in 20 L, so ask for an IBU the whirlpool can reach (or raise --split).\n"
       "The blend's aroma is the oil-weighted mean of its hops' profiles (a linear first approximation).");
   commands.add(
       blend, [&globals, options](const Console& console) { run_blend(console, globals, parse_blend_args(*options)); });

@@ -57,7 +57,7 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
   catalog->footer(
       "Examples:\n"
       "  bine catalog list\n"
-      "  bine catalog show \"saltmarsh gold\"\n"
+      "  bine catalog show \"clairiere douce\"\n"
       "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json");
 
   auto* list = catalog->add_subcommand("list", "list every variety (shipped and --catalog files)");

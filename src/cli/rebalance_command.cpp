@@ -157,7 +157,7 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
   // 2. Rebalance.
   RebalanceResult result = [&] {
     const auto timer = console.time("rebalance");
-    return rebalance(recipe, context.lots, data.catalog, args.settings);
+    return rebalance(recipe, context.lots, data.catalog, args.settings, Weighing::as_weighed);
   }();
   result.notes.insert(result.notes.begin(), stock_notes.begin(), stock_notes.end());
   result.notes.insert(result.notes.begin(), file.notes.begin(), file.notes.end());

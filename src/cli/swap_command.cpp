@@ -2,18 +2,24 @@
 // and how much of it.
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <memory>
+#include <optional>
 
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "engine/hop_index.hpp"
+#include "engine/recipe_swap.hpp"
 #include "engine/substitutes.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
 #include "report/html_reports.hpp"
+#include "io/recipe_file.hpp"
+#include "model/errors.hpp"
+#include "report/recipe_swap_report.hpp"
 #include "report/swap_report.hpp"
 
 namespace bine::cli {
@@ -28,6 +34,10 @@ struct SwapOptions {
   bool pairs = false;
   bool json = false;
   std::string html;
+  std::string recipe;
+  std::string pick;
+  std::string pair;
+  std::string write;
 };
 
 struct SwapArgs {
@@ -36,7 +46,29 @@ struct SwapArgs {
   std::string stock;
   bool json = false;
   std::string html;
+  std::size_t shown = 5;  // substitutes listed (the request may rank more, for --pick and --pair)
+  std::string recipe;
+  std::optional<std::size_t> pick;  // 1-based
+  std::optional<std::size_t> pair;  // 1-based
+  std::string write;
 };
+
+/// --recipe, --pick, --pair, --write: which substitute goes into which recipe.
+void read_recipe_options(OptionReader& reader, const SwapOptions& options, SwapArgs& args) {
+  args.recipe = options.recipe;
+  args.write = options.write;
+  reader.require(options.pick.empty() || options.pair.empty(), "--pick/--pair: give one, not both");
+  reader.require(!options.recipe.empty() || (options.pick.empty() && options.pair.empty() && options.write.empty()),
+                 "--pick/--pair/--write: only with --recipe FILE (the recipe to put the substitute into)");
+  if (!options.pick.empty()) args.pick = reader.count("--pick", options.pick, limits::substitutes_listed, 1);
+  if (!options.pair.empty()) args.pair = reader.count("--pair", options.pair, limits::substitutes_listed, 1);
+  if (args.pair) args.request.pairs = true;
+  // Rank enough to pick from, and every hop a pair can be made of (the best 12).
+  std::size_t needed = std::max<std::size_t>(args.shown, args.pick.value_or(1));
+  if (args.request.pairs && !args.recipe.empty())
+    needed = std::max<std::size_t>(needed, SubstituteSettings{}.pair_pool);
+  args.request.top = needed;
+}
 
 SwapArgs parse_swap_args(const SwapOptions& options) {
   OptionReader reader;
@@ -50,13 +82,103 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
     args.request.purpose = *purpose;
   else
     reader.add(fmt::format("--for: \"{}\": unknown question (expected aroma or bittering)", options.purpose));
-  if (auto top = reader.count("--top", options.top, limits::substitutes_listed, 5)) args.request.top = *top;
+  if (auto top = reader.count("--top", options.top, limits::substitutes_listed, 5)) args.shown = *top;
+  args.request.top = args.shown;
+  read_recipe_options(reader, options, args);
   args.cellar = read_cellar_options(reader, options.cellar);
   reader.require(
       options.cellar.on.empty() || !options.stock.empty(),
       fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.cellar.on));
   reader.throw_if_any();
   return args;
+}
+
+/// A ranked substitute as the hop that goes into the recipe: its lot's alpha today, else the catalog
+/// midpoint; its lot's oil, else the catalog midpoint.
+SwapIn swap_in_of(const Substitute& s, double share) {
+  SwapIn in;
+  in.share = share;
+  in.hop.variety = s.variety.name;
+  if (s.alpha_today)
+    in.hop.alpha_percent = *s.alpha_today;
+  else if (s.variety.alpha_acid)
+    in.hop.alpha_percent = s.variety.alpha_acid->mid();
+  else
+    throw InputError(
+        fmt::format("swap: {}: no alpha acid known (add an alpha_acid range to its catalog entry)", s.variety.name));
+  if (s.lot && s.lot->total_oil)
+    in.hop.total_oil = s.lot->total_oil;
+  else if (s.variety.total_oil)
+    in.hop.total_oil = s.variety.total_oil->mid();
+  if (s.lot) {
+    in.hop.form = s.lot->form;
+    in.hop.lot_code = s.lot->lot;
+    in.hop.on_hand_g = s.lot->on_hand_g;
+  }
+  return in;
+}
+
+/// The grams the swapped recipe takes of the lot `in` names (every addition drawing on it).
+double grams_of(const RecipeSwap& swap, const SwapIn& in) {
+  double grams = 0.0;
+  for (const auto& hop : swap.result.recipe_after.hops)
+    if (hop.variety == in.hop.variety && hop.lot == in.hop.lot_code) grams += hop.grams;
+  return grams;
+}
+
+/// The substitutes of --pair N, found among the ranked ones.
+std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n) {
+  if (n > result.pairs.size())
+    throw Infeasible(fmt::format("--pair {}: there are {} two-variety blends that beat the best single substitute", n,
+                                 result.pairs.size()));
+  const SubstitutePair& pair = result.pairs[n - 1];
+  std::vector<SwapIn> members;
+  for (std::size_t k = 0; k < 2; ++k)
+    for (const auto& s : result.substitutes)
+      if (s.variety.name == pair.varieties[k] && (s.lot ? s.lot->lot : std::string()) == pair.lots[k]) {
+        members.push_back(swap_in_of(s, pair.shares[k]));
+        break;
+      }
+  return members;
+}
+
+/// Swaps the chosen substitute into the recipe: --pair N, --pick N, else the best-ranked one whose
+/// lot covers what the recipe needs (else the best, with its shortfall shown).
+RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const SwapResult& result,
+                             const Recipe& recipe) {
+  RecipeSwapReport report;
+  report.missing = result.missing.name;
+  report.from_stock = result.from_stock;
+  const auto into = [&](const std::vector<SwapIn>& in) {
+    return swap_into_recipe(recipe, result.missing.name, in, data.catalog, BitternessSettings{}, Weighing::as_weighed);
+  };
+  if (result.substitutes.empty()) throw Infeasible("no substitute to put into the recipe");
+  std::optional<std::size_t> chosen;
+  for (std::size_t i = 0; i < result.substitutes.size() && i < args.shown; ++i) {
+    const SwapIn in = swap_in_of(result.substitutes[i], 1.0);
+    const RecipeSwap swap = into({in});
+    report.coverage.push_back(
+        {in.hop.lot_code.empty() ? in.hop.variety : fmt::format("{} ({})", in.hop.variety, in.hop.lot_code),
+         grams_of(swap, in), in.hop.on_hand_g});
+    if (!chosen && swap.result.shortfalls.empty()) chosen = i;
+  }
+  if (args.pair) {
+    report.swapped_in = pair_members(result, *args.pair);
+    report.choice = fmt::format("--pair {}", *args.pair);
+  } else if (args.pick) {
+    if (*args.pick > result.substitutes.size())
+      throw Infeasible(fmt::format("--pick {}: only {} substitutes were found", *args.pick, result.substitutes.size()));
+    report.swapped_in = {swap_in_of(result.substitutes[*args.pick - 1], 1.0)};
+    report.choice = fmt::format("--pick {}", *args.pick);
+  } else {
+    const std::size_t index = chosen.value_or(0);
+    report.swapped_in = {swap_in_of(result.substitutes[index], 1.0)};
+    report.choice = !result.from_stock ? "the best-ranked substitute"
+                    : chosen ? fmt::format("substitute {}, the best-ranked whose lot covers the recipe", index + 1)
+                             : "the best-ranked substitute; no listed lot covers the recipe";
+  }
+  report.swap = into(report.swapped_in);
+  return report;
 }
 
 void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs args) {
@@ -76,14 +198,32 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   if (result.from_stock) result.notes.push_back(brew_day_line(args.cellar));
   if (data.catalog.demo)
     result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
-  // 3. Render.
+  // 3. Into the recipe, when asked; then list only the substitutes the brewer asked to see.
+  std::optional<RecipeSwapReport> swapped;
+  if (!args.recipe.empty()) {
+    const RecipeFile file = read_recipe_file(args.recipe, BeerXmlReadOptions{});
+    swapped = swap_recipe(args, data, result, file.recipe);
+    result.notes.insert(result.notes.end(), file.notes.begin(), file.notes.end());
+    if (!args.write.empty())
+      swapped->written = write_recipe_file(args.write, file, swapped->swap.result.recipe_after, &data.catalog);
+  }
+  if (result.substitutes.size() > args.shown) result.substitutes.resize(args.shown);
+  // 4. Render.
   const auto timer = console.time("render");
   const bool pairs = args.request.pairs;
   write_html(args.html,
              [&] { return swap_html(result, globals.unit_system(), pairs, page_meta(&data, "", args.stock)); });
   print_result(
-      console, args.json, [&] { return swap_to_json(result, pairs); },
-      [&](std::ostream& out) { render_swap(out, result, globals.unit_system(), pairs); });
+      console, args.json,
+      [&] {
+        nlohmann::json out = swap_to_json(result, pairs);
+        if (swapped) out["recipe_swap"] = recipe_swap_to_json(*swapped);
+        return out;
+      },
+      [&](std::ostream& out) {
+        render_swap(out, result, globals.unit_system(), pairs);
+        if (swapped) render_recipe_swap(out, *swapped, globals.unit_system());
+      });
 }
 
 }  // namespace
@@ -99,6 +239,14 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
   add_html_option(swap, options->html);
+  swap->add_option("--recipe", options->recipe,
+                   "put the substitute into this recipe: late additions by the oil factor, boil additions by "
+                   "alpha, total IBU held by the bittering charge");
+  swap->add_option("--pick", options->pick,
+                   "with --recipe: use substitute N of the list (default: the best whose "
+                   "lot covers the recipe)");
+  swap->add_option("--pair", options->pair, "with --recipe: use two-variety blend N (implies --pairs)");
+  swap->add_option("--write", options->write, "with --recipe: save the recipe with the substitute (atomically)");
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"
@@ -110,7 +258,9 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs\n"
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --stale-below 80%\n"
       "  bine swap Keelstone --for bittering --top 3 --json\n"
-      "  bine --units us swap Tidewell --html tidewell.html");
+      "  bine --units us swap Tidewell --html tidewell.html\n"
+      "  bine swap Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-swap.json\n"
+      "  bine swap Tidewell --recipe pale-ale.json --pair 1");
   commands.add(swap,
                [&globals, options](const Console& console) { run_swap(console, globals, parse_swap_args(*options)); });
 }

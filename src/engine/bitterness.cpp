@@ -40,12 +40,6 @@ namespace {
 constexpr double kKelvinOffset = 273.15;
 constexpr double kBoilCelsius = 100.0;
 
-double form_factor(const HopAddition& hop, const BitternessSettings& settings) {
-  // A hop without a form is taken as pellet (the common case); callers note it.
-  const HopForm form = hop.form.value_or(HopForm::pellet);
-  return form == HopForm::whole ? 1.0 : settings.pellet_factor;
-}
-
 // Minutes the addition isomerises for, in boil minutes.
 double effective_minutes(const HopAddition& hop, const WortContext& wort) {
   switch (hop.use) {
@@ -128,6 +122,11 @@ bool is_late_addition(HopUse use, std::optional<double> minutes) {
   return use == HopUse::whirlpool || (use == HopUse::boil && minutes.value_or(0.0) <= 0.0);
 }
 
+double form_factor(std::optional<HopForm> form, const BitternessSettings& settings) {
+  // A hop without a form is taken as pellet (the common case); callers note it.
+  return form.value_or(HopForm::pellet) == HopForm::whole ? 1.0 : settings.pellet_factor;
+}
+
 std::string_view to_string(IbuModel model) { return model == IbuModel::rager ? "rager" : "tinseth"; }
 
 std::optional<IbuModel> ibu_model_from(std::string_view text) {
@@ -194,7 +193,7 @@ AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_perc
   const double brewhouse = is_late_addition(hop.use, hop.minutes)
                                ? settings.late_calibration.value_or(settings.calibration)
                                : settings.calibration;
-  const double factors = form_factor(hop, settings) * brewhouse;
+  const double factors = form_factor(hop.form, settings) * brewhouse;
   const double mg_per_litre = alpha_mg_per_litre(hop.grams, alpha_percent, wort.volume_l);
   switch (settings.model) {
     case IbuModel::tinseth:

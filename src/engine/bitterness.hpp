@@ -54,6 +54,10 @@ AdditionBitterness addition_bitterness(const HopAddition& hop, double alpha_perc
 
 // --- The pieces, exposed for tests and for other engines -------------------------------------
 
+/// The utilization factor of a form: the pellet factor for pellets and powder (and a hop without a
+/// form), 1 for whole cones. With alpha it is what a gram of hops bitters in proportion to at any time.
+double form_factor(std::optional<HopForm> form, const BitternessSettings& settings);
+
 /// Alpha acid dissolved, mg/L: AA (fraction) x W (g) x 1000 / V (L).
 double alpha_mg_per_litre(double grams, double alpha_percent, double volume_l);
 /// Tinseth's gravity ("bigness") factor B(G) = 1.65 x 0.000125^(G - 1).

@@ -86,6 +86,8 @@ BlendResult design_blend(const BlendRequest& request) {
   result.pool_size = pool.size();
   result.subsets_solved = search.solved;
   check_ibu_held(request, result);
+  // 7. As weighed, when asked.
+  if (request.weighed) weigh_result(request, prepared, result);
   return result;
 }
 

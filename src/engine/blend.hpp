@@ -70,6 +70,9 @@ struct BlendRequest {
   std::size_t max_varieties = 3;
   BlendPlan plan;  // wort, IBU budget, bittering charge, whirlpool stand, late-hop amount
   PoolSettings pool;
+  /// Round the amounts as the brewer weighs them (in plan.mass_unit) and re-solve the bittering
+  /// charge for them; false keeps the exact solution.
+  bool weighed = false;
 };
 
 struct BlendPart {
@@ -78,6 +81,7 @@ struct BlendPart {
   std::string lot;
   double oil_share = 0.0;  // x_i
   double alpha_percent = 0.0;
+  double oil_ml_per_100g = 0.0;
   HopForm form = HopForm::pellet;
   double grams = 0.0;
   double whirlpool_g = 0.0;

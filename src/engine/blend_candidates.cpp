@@ -112,11 +112,10 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
     set.notes.push_back(
         fmt::format("{} skipped: no total oil value ({})", left_out.no_oil.size(), join_names(left_out.no_oil)));
   if (!left_out.unknown.empty())
-    set.notes.push_back(fmt::format("{} lots skipped: variety not in any catalog ({})", left_out.unknown.size(),
-                                    join_names(left_out.unknown)));
+    set.notes.push_back(fmt::format("{} skipped: variety not in any catalog ({})",
+                                    count_of(left_out.unknown.size(), "lot", "lots"), join_names(left_out.unknown)));
   if (!left_out.stale.empty())
-    set.notes.push_back(fmt::format("{} stale {} left out ({})", left_out.stale.size(),
-                                    left_out.stale.size() == 1 ? "lot" : "lots",
+    set.notes.push_back(fmt::format("{} left out ({})", count_of(left_out.stale.size(), "stale lot", "stale lots"),
                                     fmt::format("{}", fmt::join(left_out.stale, "; "))));
   return set;
 }

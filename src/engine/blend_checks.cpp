@@ -11,6 +11,7 @@
 
 #include "engine/blend_steps.hpp"
 #include "model/errors.hpp"
+#include "model/names.hpp"
 
 namespace bine::blend_steps {
 namespace {
@@ -63,9 +64,10 @@ void explain_infeasible(const BlendRequest& request, const Prepared& prepared) {
     const bool stock = stock_limited(request);
     std::vector<Remedy> remedies{Remedy::lower_whirlpool_share, Remedy::lower_late_amount, Remedy::raise_target_ibu};
     if (stock) remedies.push_back(Remedy::add_stock);
-    throw Infeasible(fmt::format("no blend of up to {} candidates fits the limits: the late hops' whirlpool IBU must "
+    throw Infeasible(fmt::format("no blend of up to {} fits the limits: the late hops' whirlpool IBU must "
                                  "stay at or below {:.1f} IBU{}",
-                                 request.max_varieties, room, stock ? " and each lot within its stock" : ""),
+                                 count_of(request.max_varieties, "candidate", "candidates"), room,
+                                 stock ? " and each lot within its stock" : ""),
                      remedies);
   }
   const double most = prepared.ibu_per_gram.size() ? prepared.ibu_per_gram.maxCoeff() : 0.0;

@@ -79,7 +79,26 @@ struct RecipeAsWritten {
   double total_ibu = 0.0;
   double whirlpool_g = 0.0;
   double dry_hop_g = 0.0;
+  double late_oil_ml = 0.0;                   // oil the late hops deliver, where known
+  std::vector<std::size_t> late_without_oil;  // late additions whose total oil is not known
 };
+
+/// The oil an addition was written for: its own record, else its lot's, else the catalog midpoint.
+std::optional<double> addition_oil(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar) {
+  if (hop.total_oil) return hop.total_oil;
+  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->lot.total_oil) return lot->lot.total_oil;
+  if (const Variety* variety = find_variety(catalog, hop.variety); variety != nullptr && variety->total_oil)
+    return variety->total_oil->mid();
+  return std::nullopt;
+}
+
+void add_late_oil(const HopAddition& hop, std::size_t index, const Catalog& catalog, const Cellar* cellar,
+                  RecipeAsWritten& written) {
+  if (const auto oil = addition_oil(hop, catalog, cellar))
+    written.late_oil_ml += hop.grams * *oil / 100.0;
+  else
+    written.late_without_oil.push_back(index);
+}
 
 /// Computes every addition's IBU; takes the whirlpool stand and dry-hop time into `plan`. Throws
 /// InputError listing every addition whose alpha acid is not known.
@@ -90,6 +109,7 @@ RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, con
   std::vector<std::string> problems;
   for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
     const HopAddition& hop = recipe.hops[i];
+    if (hop.use == HopUse::dry_hop || hop.use == HopUse::whirlpool) add_late_oil(hop, i, catalog, cellar, written);
     if (hop.use == HopUse::dry_hop) {
       written.dry_hop_g += hop.grams;
       if (!plan.dry_hop_minutes) plan.dry_hop_minutes = hop.minutes;
@@ -174,6 +194,35 @@ void keep_boil_additions(const Recipe& recipe, const std::vector<double>& ibu, B
   }
 }
 
+/// The late-hop amount: the brewer's dose, else the recipe's own late grams (or the oil they deliver),
+/// else our default rate.
+void plan_late_amount(const Recipe& recipe, const BlendChoices& choices, const RecipeAsWritten& written,
+                      BlendPlan& plan) {
+  const double late_g = written.whirlpool_g + written.dry_hop_g;
+  if (choices.dose) {
+    plan.late = late_amount(*choices.dose, plan.wort.volume_l);
+    plan.late_source = LateSource::given;
+  } else if (choices.keep_recipe_oil) {
+    if (late_g <= 0.0)
+      throw InputError(
+          fmt::format("{}: /hops: no whirlpool or dry-hop addition whose oil the blend could keep", recipe.source_file),
+          {Remedy::give_late_amount});
+    std::vector<std::string> problems;
+    for (const std::size_t i : written.late_without_oil)
+      problems.push_back(fmt::format("{}: /hops/{}: no total oil known for {} (add \"total_oil\" to the addition)",
+                                     recipe.source_file, i, recipe.hops[i].variety));
+    if (!problems.empty()) throw InputError(problems);
+    plan.late = {LateAmount::Kind::oil_ml, written.late_oil_ml};
+    plan.late_source = LateSource::recipe_oil;
+  } else if (late_g > 0.0) {
+    plan.late = {LateAmount::Kind::grams, late_g};
+    plan.late_source = LateSource::recipe_grams;
+  } else {
+    plan.late = late_amount(LateDose{}, plan.wort.volume_l);
+    plan.late_source = LateSource::default_rate;
+  }
+}
+
 /// Without a recipe: the wort and the IBU as the brewer gave them, a 60-minute boil.
 BlendPlan plan_without_recipe(const Catalog& catalog, const Cellar* cellar, const BlendChoices& choices,
                               const BitternessSettings& settings) {
@@ -185,7 +234,8 @@ BlendPlan plan_without_recipe(const Catalog& catalog, const Cellar* cellar, cons
   plan.ibu.target_ibu = choices.ibu.value_or(0.0);
   plan.ibu.target_source = IbuTargetSource::given;
   if (choices.split) plan.ibu.whirlpool_share = *choices.split;
-  plan.late = late_amount(choices.dose, plan.wort.volume_l);
+  plan.late = late_amount(choices.dose.value_or(LateDose{}), plan.wort.volume_l);
+  plan.late_source = choices.dose ? LateSource::given : LateSource::default_rate;
   if (!choices.no_bittering) plan.bittering = bittering_from(choices.bittering, catalog, cellar, 60.0);
   return plan;
 }
@@ -213,7 +263,8 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Cellar*
   plan.wort = wort_of(*recipe);
   const RecipeAsWritten written = read_additions(*recipe, catalog, cellar, plan);
   plan.ibu = recipe_budget(*recipe, choices, written);
-  plan.late = late_amount(choices.dose, plan.wort.volume_l);
+  plan.mass_unit = recipe->notation.mass;
+  plan_late_amount(*recipe, choices, written, plan);
   const std::optional<std::size_t> largest = largest_boil_addition(*recipe, written.ibu);
   if (!choices.no_bittering) {
     plan.bittering = recipe_bittering(*recipe, largest, catalog, cellar, choices);
@@ -226,7 +277,8 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Cellar*
 Recipe blended_recipe(const Recipe& recipe, const BlendPlan& plan, const BlendResult& result) {
   Recipe out = recipe;
   out.hops.clear();
-  out.target_ibu = plan.ibu.target_ibu;
+  // A target the brewer gave or the recipe had; a total the recipe merely computed to stays unwritten.
+  if (plan.ibu.target_source != IbuTargetSource::recipe_total) out.target_ibu = plan.ibu.target_ibu;
   for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
     if (plan.bittering_index == i && plan.bittering) {
       HopAddition hop = recipe.hops[i];
@@ -263,7 +315,9 @@ Recipe blended_recipe(const Recipe& recipe, const BlendPlan& plan, const BlendRe
       // A candidate without a known alpha has 0 here; the recipe then gives none (a file may not
       // say 0 % alpha acid, and bine never writes what it would refuse to read).
       if (part.alpha_percent > 0.0) hop.alpha_acid = part.alpha_percent;
+      hop.total_oil = part.oil_ml_per_100g;
       hop.form = part.form;
+      hop.amount_unit.clear();  // written in the recipe's unit
       if (use == HopUse::whirlpool) {
         hop.minutes = plan.whirlpool_minutes;
         hop.temperature_c = plan.whirlpool_temperature_c;

@@ -77,9 +77,18 @@ struct BlendChoices {
   NamedVariety bittering;          // empty name: the recipe's largest boil addition
   bool no_bittering = false;       // no bittering charge: the whirlpool gives the IBU left
   std::optional<double> split;     // whirlpool share of the late hops
-  LateDose dose;                   // late-hop rate or oil dose
+  std::optional<LateDose> dose;    // late-hop rate or oil dose; none: the recipe's own amount, else 4 g/L
+  bool keep_recipe_oil = false;    // hold the oil the recipe's late hops deliver instead of their grams
   std::optional<double> volume_l;  // wort volume (no recipe)
   std::optional<double> gravity;   // boil gravity (no recipe)
+};
+
+/// Where the late-hop amount comes from (the report words it).
+enum class LateSource {
+  given,         // --rate or --oil-dose
+  recipe_grams,  // the recipe's own whirlpool and dry-hop grams
+  recipe_oil,    // the oil the recipe's late hops deliver
+  default_rate,  // no recipe amount: our default of 4 g/L
 };
 
 struct BlendPlan {
@@ -87,12 +96,14 @@ struct BlendPlan {
   BitternessSettings bitterness;
   IbuBudget ibu;
   LateAmount late;
+  LateSource late_source = LateSource::given;
   std::optional<BitteringHop> bittering;       // nullopt: no charge, late IBU must equal the room left
   std::optional<std::size_t> bittering_index;  // the recipe addition the charge replaces
   std::vector<std::size_t> kept;               // recipe additions kept (boil and first-wort, not bittering)
   double whirlpool_temperature_c = 80.0;
   double whirlpool_minutes = 20.0;
   std::optional<double> dry_hop_minutes;
+  std::string mass_unit;  // the recipe's hop amounts are written and weighed in it ("" is grams)
 };
 
 /// The alpha acid of a recipe addition: its own value, else its lot's (or the first lot of its variety

@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "engine/blend_steps.hpp"
+#include "model/quantity.hpp"
 
 namespace bine::blend_steps {
 namespace {
@@ -22,6 +23,7 @@ void add_parts(const BlendRequest& request, const BestBlend& best, BlendResult& 
     part.lot = candidate.lot;
     part.oil_share = best.shares[at(k)];
     part.alpha_percent = candidate.alpha_percent;
+    part.oil_ml_per_100g = candidate.oil_ml_per_100g;
     part.form = candidate.form;
     part.grams = grams[at(k)];
     part.whirlpool_g = share * part.grams;
@@ -57,7 +59,48 @@ void add_bittering_charge(const BlendRequest& request, const Prepared& prepared,
   result.bittering_left_g = left;
 }
 
+/// Stock left of each lot once every part and the charge are taken.
+void stock_left(const BlendRequest& request, BlendResult& result) {
+  for (auto& part : result.parts)
+    if (const auto& on_hand = request.candidates[part.candidate].on_hand_g) part.left_g = *on_hand - part.grams;
+  result.bittering_left_g.reset();
+  const std::optional<BitteringHop>& bittering = request.plan.bittering;
+  if (!bittering || !bittering->on_hand_g) return;
+  double left = *bittering->on_hand_g - result.bittering_grams;
+  for (auto& part : result.parts)
+    if (!bittering->lot.empty() && part.lot == bittering->lot) {
+      left -= part.grams;
+      part.left_g = left;
+    }
+  result.bittering_left_g = left;
+}
+
 }  // namespace
+
+void weigh_result(const BlendRequest& request, const Prepared& prepared, BlendResult& result) {
+  const std::string_view unit = request.plan.mass_unit;
+  result.late_grams = result.whirlpool_grams = result.oil_ml = result.late_ibu = 0.0;
+  for (auto& part : result.parts) {
+    const BlendCandidate& candidate = request.candidates[part.candidate];
+    const double whirlpool = part.whirlpool_g;
+    part.whirlpool_g = weighed_grams(whirlpool, unit);
+    part.dry_hop_g = weighed_grams(part.grams - whirlpool, unit);
+    part.grams = part.whirlpool_g + part.dry_hop_g;
+    part.whirlpool_ibu = part.whirlpool_g * whirlpool_ibu_per_gram(candidate, request.plan);
+    result.late_grams += part.grams;
+    result.whirlpool_grams += part.whirlpool_g;
+    result.oil_ml += part.grams * candidate.oil_ml_per_100g / 100.0;
+    result.late_ibu += part.whirlpool_ibu;
+  }
+  if (request.plan.bittering && prepared.bittering_per_gram > 0.0) {
+    const double exact = std::max(
+        0.0, (request.plan.ibu.target_ibu - request.plan.ibu.kept_ibu - result.late_ibu) / prepared.bittering_per_gram);
+    result.bittering_grams = weighed_grams(exact, unit);
+    result.bittering_ibu = result.bittering_grams * prepared.bittering_per_gram;
+  }
+  result.total_ibu = request.plan.ibu.kept_ibu + result.late_ibu + result.bittering_ibu;
+  stock_left(request, result);
+}
 
 BlendResult assemble_result(const BlendRequest& request, const Prepared& prepared, const BestBlend& best) {
   BlendResult result;

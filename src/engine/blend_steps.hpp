@@ -126,5 +126,9 @@ void check_ibu_held(const BlendRequest& request, const BlendResult& result);
 
 /// The parts, profile, bittering charge and totals of the best blend.
 BlendResult assemble_result(const BlendRequest& request, const Prepared& prepared, const BestBlend& best);
+/// The blend as weighed: each whirlpool and dry-hop amount rounded as the brewer weighs it (in the
+/// plan's mass unit), the whirlpool IBU from those amounts, then the bittering charge re-solved and
+/// weighed. Every figure of the result is then that of the recipe bine writes.
+void weigh_result(const BlendRequest& request, const Prepared& prepared, BlendResult& result);
 
 }  // namespace bine::blend_steps

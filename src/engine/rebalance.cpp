@@ -25,6 +25,7 @@
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
+#include "model/quantity.hpp"
 
 namespace bine {
 namespace {
@@ -37,10 +38,9 @@ const ReplacementLot* lot_for(const std::vector<ReplacementLot>& lots, const std
   return nullptr;
 }
 
-double ibu_per_gram(HopAddition hop, double alpha, const WortContext& wort, const BitternessSettings& settings) {
-  hop.grams = 1.0;
-  return addition_bitterness(hop, alpha, wort, settings).ibu;
-}
+/// Alpha and oil as a recipe records them (0.01 % and 0.01 mL/100 g): the amounts are worked out
+/// for the recorded values, so a recipe rebalanced again with the same lot does not move.
+double as_recorded(double value) { return std::round(value * 100.0) / 100.0; }
 
 // The addition (index into recipe.hops) that absorbs the IBU change: the boil or first-wort
 // addition with most IBU.
@@ -93,35 +93,66 @@ struct Working {
   std::vector<std::optional<double>> oil_after;
 };
 
+/// The oil an addition was written for: the recipe's own record, else the catalog midpoint.
+std::optional<double> oil_written_for(const HopAddition& hop, const Catalog& catalog, bool& from_catalog) {
+  if (hop.total_oil) return hop.total_oil;
+  const Variety* variety = find_variety(catalog, hop.variety);
+  if (variety == nullptr || !variety->total_oil) return std::nullopt;
+  from_catalog = true;
+  return variety->total_oil->mid();
+}
+
 /// Step 1, each addition on its own: the boil side holds its IBU, late hops their oil (else grams).
-Working rebalance_each(const Recipe& recipe, const RecipeBitterness& before, const std::vector<ReplacementLot>& lots,
-                       const Catalog& catalog, const BitternessSettings& settings) {
+/// A boil addition's IBU per gram is proportional to alpha x form factor at any time, so the ratio
+/// also moves a 0-minute addition, whose Tinseth IBU is 0.
+Working rebalance_each(const Recipe& recipe, const RecipeBitterness& before,
+                       const std::vector<const ReplacementLot*>& lot_of, const Catalog& catalog,
+                       const BitternessSettings& settings, bool& oil_from_catalog) {
   Working w{recipe, std::vector<RebalanceRule>(recipe.hops.size(), RebalanceRule::unchanged),
             std::vector<std::optional<double>>(recipe.hops.size()),
             std::vector<std::optional<double>>(recipe.hops.size())};
   for (const auto& line : before.additions) {
     const HopAddition& hop = recipe.hops[line.index];
     HopAddition& next = w.after.hops[line.index];
-    const ReplacementLot* lot = lot_for(lots, hop.variety);
+    const ReplacementLot* lot = lot_of[line.index];
     if (lot == nullptr) continue;
-    next.alpha_acid = lot->alpha_percent;
+    const double alpha = as_recorded(lot->alpha_percent);
+    next.alpha_acid = alpha;
     if (lot->form) next.form = lot->form;
     if (!lot->lot_code.empty()) next.lot = lot->lot_code;
-    const Variety* variety = find_variety(catalog, hop.variety);
-    if (variety != nullptr && variety->total_oil) w.oil_before[line.index] = variety->total_oil->mid();
-    w.oil_after[line.index] = lot->total_oil;
+    if (fold_name(lot->variety) != fold_name(hop.variety)) {  // a substitute takes its place
+      next.variety = lot->variety;
+      next.lot = lot->lot_code;
+      next.total_oil.reset();
+    }
+    bool from_catalog = false;
+    w.oil_before[line.index] = oil_written_for(hop, catalog, from_catalog);
+    if (lot->total_oil) w.oil_after[line.index] = as_recorded(*lot->total_oil);
     if (hop.use == HopUse::boil || hop.use == HopUse::first_wort) {
-      const double per_gram = ibu_per_gram(next, lot->alpha_percent, before.wort, settings);
-      if (per_gram > 0.0 && line.bitterness.ibu > 0.0) next.grams = line.bitterness.ibu / per_gram;
+      const double strength_before = line.alpha_percent * form_factor(hop.form, settings);
+      const double strength_after = alpha * form_factor(next.form, settings);
+      if (strength_before > 0.0 && strength_after > 0.0) next.grams = hop.grams * strength_before / strength_after;
       w.rules[line.index] = RebalanceRule::holds_ibu;
     } else if (w.oil_before[line.index] && w.oil_after[line.index]) {
       next.grams = hop.grams * *w.oil_before[line.index] / *w.oil_after[line.index];
+      next.total_oil = w.oil_after[line.index];
+      oil_from_catalog = oil_from_catalog || from_catalog;
       w.rules[line.index] = RebalanceRule::holds_oil;
     } else {
       w.rules[line.index] = RebalanceRule::holds_grams;
     }
   }
   return w;
+}
+
+/// Amounts the steps changed, rounded as the brewer weighs them in the unit the recipe uses (all but
+/// `skip`, the addition that will absorb the IBU change and is weighed once it has).
+void weigh_changed(const Recipe& recipe, Working& w, std::optional<std::size_t> skip = std::nullopt) {
+  for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
+    if (skip == i) continue;
+    HopAddition& hop = w.after.hops[i];
+    if (hop.grams != recipe.hops[i].grams) hop.grams = weighed_grams(hop.grams, amount_unit(recipe, hop));
+  }
 }
 
 /// Without a boil addition: the whirlpool additions are scaled together by the same factor.
@@ -145,8 +176,8 @@ void scale_whirlpool(const RecipeBitterness& provisional, double change, Working
 }
 
 /// Step 2, hold the total: the largest boil addition absorbs the change, else scale the whirlpool.
-void hold_total(const RecipeBitterness& before, const Catalog& catalog, const BitternessSettings& settings, Working& w,
-                RebalanceResult& result) {
+void hold_total(const RecipeBitterness& before, const Catalog& catalog, const BitternessSettings& settings,
+                Weighing weighing, Working& w, RebalanceResult& result) {
   const RecipeBitterness provisional = recipe_bitterness(w.after, catalog, settings);
   const double change = before.total_ibu - provisional.total_ibu;
   if (std::abs(change) <= 1e-9 * std::max(1.0, before.total_ibu)) return;
@@ -162,25 +193,30 @@ void hold_total(const RecipeBitterness& before, const Catalog& catalog, const Bi
         "addition can hold it (cut the whirlpool amounts by more than {:.0f} %, or use a lot with less alpha)",
         late, before.total_ibu, 100.0 * (1.0 - before.total_ibu / late)));
   }
-  w.after.hops[*absorber].grams *= wanted / line.bitterness.ibu;
+  HopAddition& hop = w.after.hops[*absorber];
+  double grams = hop.grams * wanted / line.bitterness.ibu;
+  if (weighing == Weighing::as_weighed) grams = weighed_grams(grams, amount_unit(w.after, hop));
+  if (grams == hop.grams) return;  // a change finer than the absorber can be weighed to
+  hop.grams = grams;
   w.rules[*absorber] = RebalanceRule::absorbs_ibu;
   result.ibu_change_absorbed = change;
   result.absorber = *absorber;
 }
 
 /// Step 4: everything drawn from one lot against what it has on hand.
-std::vector<Shortfall> shortfalls(const Recipe& recipe, const std::vector<RebalancedAddition>& rows,
-                                  const std::vector<ReplacementLot>& lots) {
-  std::map<std::string, double> needed;
-  for (const auto& row : rows)
-    if (const ReplacementLot* lot = lot_for(lots, recipe.hops[row.index].variety); lot != nullptr && lot->on_hand_g)
-      needed[fold_name(lot->variety)] += row.grams_after;
-  std::vector<Shortfall> found;
-  for (const auto& lot : lots) {
-    const auto it = needed.find(fold_name(lot.variety));
-    if (it != needed.end() && lot.on_hand_g && it->second > *lot.on_hand_g + 1e-9)
-      found.push_back(Shortfall{lot.variety, lot.lot_code, it->second, *lot.on_hand_g});
+std::vector<Shortfall> shortfalls(const std::vector<RebalancedAddition>& rows,
+                                  const std::vector<const ReplacementLot*>& lot_of) {
+  std::vector<std::pair<const ReplacementLot*, double>> needed;  // in the order the lots are first used
+  for (const auto& row : rows) {
+    const ReplacementLot* lot = lot_of[row.index];
+    if (lot == nullptr || !lot->on_hand_g) continue;
+    auto it = std::find_if(needed.begin(), needed.end(), [&](const auto& entry) { return entry.first == lot; });
+    if (it == needed.end()) it = needed.insert(needed.end(), {lot, 0.0});
+    it->second += row.grams_after;
   }
+  std::vector<Shortfall> found;
+  for (const auto& [lot, grams] : needed)
+    if (grams > *lot->on_hand_g + 1e-9) found.push_back(Shortfall{lot->variety, lot->lot_code, grams, *lot->on_hand_g});
   return found;
 }
 
@@ -212,32 +248,41 @@ void check_total_held(const RebalanceResult& result, const std::vector<Replaceme
 }  // namespace
 
 RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
-                          const BitternessSettings& settings) {
+                          const BitternessSettings& settings, Weighing weighing) {
+  std::vector<const ReplacementLot*> lot_of;
+  for (const auto& hop : recipe.hops) lot_of.push_back(lot_for(lots, hop.variety));
+  return rebalance_additions(recipe, lot_of, catalog, settings, weighing);
+}
+
+RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<const ReplacementLot*>& lot_of,
+                                    const Catalog& catalog, const BitternessSettings& settings, Weighing weighing) {
   RebalanceResult result;
   result.before = recipe_bitterness(recipe, catalog, settings);
   // 1. Each addition on its own; 2. hold the total.
-  Working w = rebalance_each(recipe, result.before, lots, catalog, settings);
-  hold_total(result.before, catalog, settings, w, result);
+  // The amounts are weighed (rounded) before the total is held, and the absorber once more after, so
+  // every figure below is that of the recipe as it will be weighed and written.
+  bool oil_from_catalog = false;
+  Working w = rebalance_each(recipe, result.before, lot_of, catalog, settings, oil_from_catalog);
+  if (weighing == Weighing::as_weighed) weigh_changed(recipe, w, choose_absorber(result.before));
+  hold_total(result.before, catalog, settings, weighing, w, result);
+  if (weighing == Weighing::as_weighed) weigh_changed(recipe, w);
   // 3. The result, recomputed from the final recipe so every figure comes from the model.
   result.after = recipe_bitterness(w.after, catalog, settings);
   for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
     const AdditionLine& b = result.before.additions[k];
     const AdditionLine& a = result.after.additions[k];
-    result.additions.push_back(RebalancedAddition{b.index, b.variety, b.use, b.grams, a.grams, b.alpha_percent,
-                                                  a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
+    result.additions.push_back(RebalancedAddition{b.index, b.variety, a.variety, b.use, b.grams, a.grams,
+                                                  b.alpha_percent, a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
                                                   w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
   }
   check_total_held(result, lots);
   result.recipe_after = std::move(w.after);
   // 4. Stock shortfalls.
-  result.shortfalls = shortfalls(recipe, result.additions, lots);
-  for (const auto& row : result.additions)
-    if (row.rule == RebalanceRule::holds_oil) {
-      result.notes.push_back(
-          "late additions hold the oil they deliver; the recipe is taken as written for the "
-          "catalog midpoint of each variety's total oil");
-      break;
-    }
+  result.shortfalls = shortfalls(result.additions, lot_of);
+  if (oil_from_catalog)
+    result.notes.push_back(
+        "late additions hold the oil they deliver; where the recipe records no total_oil it is taken as written "
+        "for the catalog midpoint of the variety's total oil");
   return result;
 }
 

@@ -43,6 +43,7 @@ std::string_view to_string(RebalanceRule rule);
 struct RebalancedAddition {
   std::size_t index = 0;
   std::string variety;
+  std::string variety_after;  // differs from variety when a substitute took the addition's place
   HopUse use = HopUse::boil;
   double grams_before = 0.0;
   double grams_after = 0.0;
@@ -77,10 +78,19 @@ struct RebalanceResult {
 /// True when some addition of `recipe` is of `variety` (folded comparison).
 bool recipe_uses_variety(const Recipe& recipe, std::string_view variety);
 
+/// Exact amounts, or rounded as the brewer weighs them in the recipe's units (0.1 g, 1 g, 0.01 oz ...).
+enum class Weighing { exact, as_weighed };
+
 /// Rebalances `recipe` to `lots`. Throws Infeasible when the late additions alone would exceed the
-/// recipe's total IBU.
+/// recipe's total IBU. As weighed, the changed amounts are rounded before the total is held and the
+/// absorber once more after, so every figure is that of the recipe as weighed.
 RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
-                          const BitternessSettings& settings);
+                          const BitternessSettings& settings, Weighing weighing = Weighing::exact);
+
+/// The same with the lot of each addition given (`lot_of[i]` for recipe.hops[i]; nullptr keeps the
+/// addition as written). A lot of another variety puts that variety in the addition's place.
+RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<const ReplacementLot*>& lot_of,
+                                    const Catalog& catalog, const BitternessSettings& settings, Weighing weighing);
 
 /// For each variety the recipe uses, the cellar lot with most on hand, its alpha on the cellar's brew
 /// day; stale lots are left out (and noted) unless `allow_stale`.

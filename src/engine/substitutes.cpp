@@ -264,6 +264,16 @@ std::vector<SubstitutePair> fit_pairs(const std::vector<Candidate>& candidates, 
   return pairs;
 }
 
+/// Each pair member's grams per gram of the missing variety: its share times its own amount factor.
+void add_grams_per_gram(std::vector<SubstitutePair>& pairs, const std::vector<Substitute>& ranked) {
+  for (auto& pair : pairs)
+    for (std::size_t k = 0; k < 2; ++k)
+      for (const auto& s : ranked)
+        if (s.variety.name == pair.varieties[k] && (s.lot ? s.lot->lot : std::string()) == pair.lots[k] &&
+            s.amount_factor)
+          pair.grams_per_gram[k] = pair.shares[k] * *s.amount_factor;
+}
+
 }  // namespace
 
 SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
@@ -306,6 +316,7 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
   }
   result.pairs = fit_pairs(candidates, order, ranked[order[0]].similarity, wanted, vectorizer, settings);
   if (result.pairs.size() > request.top) result.pairs.resize(request.top);
+  add_grams_per_gram(result.pairs, ranked);
   if (result.pairs.empty())
     result.notes.push_back(fmt::format("no two-variety blend beats the best single substitute by {:g} points or more",
                                        settings.min_pair_gain));

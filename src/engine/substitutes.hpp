@@ -67,6 +67,8 @@ struct SubstitutePair {
   std::array<std::string, 2> lots;  // empty without stock
   std::array<double, 2> shares{};   // fractions summing to 1
   double similarity = 0.0;          // 0-100
+  /// Grams of each hop per gram of the missing variety: share x its amount factor (nullopt without one).
+  std::array<std::optional<double>, 2> grams_per_gram{};
 };
 
 struct SwapResult {

@@ -290,6 +290,23 @@ std::optional<Cooling> read_cooling(FieldReader& reader, std::optional<HopUse> u
   return cooling;
 }
 
+/// The unit a field was written in ("oz", "gal", "P"; empty for a bare number or a missing field).
+std::string unit_written(const FieldReader& reader, std::string_view key, Dimension dimension) {
+  const json* value = reader.raw(key);
+  if (value == nullptr || !value->is_string()) return {};
+  return parse_quantity(value->get<std::string>(), dimension).unit;
+}
+
+/// The recipe-wide notation: volume, gravity and boil time as written; the first temperature and
+/// hop amount written with a unit.
+void read_notation(const FieldReader& top, Recipe& recipe) {
+  recipe.notation.volume = unit_written(top, "batch_volume", Dimension::volume);
+  recipe.notation.gravity = unit_written(top, "original_gravity", Dimension::gravity);
+  recipe.notation.boil_time = unit_written(top, "boil_time", Dimension::time);
+  for (const auto& hop : recipe.hops)
+    if (recipe.notation.mass.empty()) recipe.notation.mass = hop.amount_unit;
+}
+
 Recipe recipe_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
   FieldReader top(document, "", diagnostics);
   top.allow_only({"name", "batch_volume", "original_gravity", "boil_time", "target_ibu", "hop_stand", "hops", "notes"});
@@ -307,11 +324,13 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
     auto temperature =
         stand_reader.quantity("temperature", Dimension::temperature, limits::whirlpool_temperature, true);
     if (minutes && temperature) recipe.hop_stand = HopStand{*minutes, *temperature};
+    recipe.notation.stand_time = unit_written(stand_reader, "time", Dimension::time);
+    recipe.notation.temperature = unit_written(stand_reader, "temperature", Dimension::temperature);
   }
   for_each_in_array(top, "hops", true, [&](const json& element, const std::string& pointer) {
     FieldReader reader(element, pointer, diagnostics);
-    reader.allow_only(
-        {"variety", "lot", "amount", "alpha_acid", "use", "time", "temperature", "cooling", "form", "notes"});
+    reader.allow_only({"variety", "lot", "amount", "alpha_acid", "total_oil", "use", "time", "temperature", "cooling",
+                       "form", "notes"});
     HopAddition hop;
     hop.variety = reader.name("variety", false).value_or("");
     hop.lot = reader.name("lot", false).value_or("");
@@ -319,6 +338,11 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
       diagnostics.add(reader.at("variety"), "is missing (give a variety or a lot)");
     hop.grams = reader.quantity("amount", Dimension::mass, limits::hop_mass, true).value_or(0.0);
     hop.alpha_acid = reader.quantity("alpha_acid", Dimension::percent, limits::alpha_acid, false);
+    hop.total_oil = reader.quantity("total_oil", Dimension::oil_content, limits::total_oil, false);
+    hop.amount_unit = unit_written(reader, "amount", Dimension::mass);
+    hop.time_unit = unit_written(reader, "time", Dimension::time);
+    if (recipe.notation.temperature.empty())
+      recipe.notation.temperature = unit_written(reader, "temperature", Dimension::temperature);
     const auto use = read_enum<HopUse>(reader, "use", true, use_from, "first-wort, boil, whirlpool or dry-hop");
     hop.use = use.value_or(HopUse::boil);
     hop.minutes = reader.quantity("time", Dimension::time, limits::addition_time, false);
@@ -341,6 +365,7 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
                                                      recipe.boil_minutes));
     recipe.hops.push_back(std::move(hop));
   });
+  read_notation(top, recipe);
   return recipe;
 }
 
@@ -449,30 +474,41 @@ FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon) {
   return kind;
 }
 
-json recipe_to_json(const Recipe& recipe) {
+nlohmann::ordered_json recipe_to_json(const Recipe& recipe) {
+  using json = nlohmann::ordered_json;
+  // Written in the brewer's notation (docs/methods.md#recipe-files): every quantity in the unit it
+  // was read in, to 10 significant digits, so that reading the file back gives the same recipe.
+  const RecipeNotation& notation = recipe.notation;
   json out;
   if (!recipe.name.empty()) out["name"] = recipe.name;
-  out["batch_volume"] = fmt::format("{:.6g} L", recipe.batch_volume_l);
-  out["original_gravity"] = fmt::format("{:.4f}", recipe.original_gravity);
-  out["boil_time"] = fmt::format("{:.6g} min", recipe.boil_minutes);
-  if (recipe.target_ibu) out["target_ibu"] = *recipe.target_ibu;
+  out["batch_volume"] = format_in_unit(recipe.batch_volume_l, Dimension::volume, notation.volume);
+  out["original_gravity"] = format_in_unit(recipe.original_gravity, Dimension::gravity, notation.gravity);
+  out["boil_time"] = format_in_unit(recipe.boil_minutes, Dimension::time, notation.boil_time);
+  if (recipe.target_ibu) out["target_ibu"] = std::round(*recipe.target_ibu * 10.0) / 10.0;
   if (recipe.hop_stand)
-    out["hop_stand"] = {{"time", fmt::format("{:.6g} min", recipe.hop_stand->minutes)},
-                        {"temperature", fmt::format("{:.6g} C", recipe.hop_stand->temperature_c)}};
+    out["hop_stand"] = {
+        {"time", format_in_unit(recipe.hop_stand->minutes, Dimension::time, notation.stand_time)},
+        {"temperature", format_in_unit(recipe.hop_stand->temperature_c, Dimension::temperature, notation.temperature)}};
   json hops = json::array();
   for (const auto& hop : recipe.hops) {
     json h;
     if (!hop.variety.empty()) h["variety"] = hop.variety;
     if (!hop.lot.empty()) h["lot"] = hop.lot;
-    h["amount"] = fmt::format("{:.6g} g", hop.grams);
-    if (hop.alpha_acid) h["alpha_acid"] = std::round(*hop.alpha_acid * 100.0) / 100.0;
+    h["amount"] = format_in_unit(hop.grams, Dimension::mass, amount_unit(recipe, hop));
+    // Alpha and oil as the amounts were worked out for them (engines record 0.01; a catalog midpoint
+    // may carry a third decimal), so that the file reads back to the same IBU.
+    if (hop.alpha_acid) h["alpha_acid"] = std::round(*hop.alpha_acid * 1e4) / 1e4;
+    if (hop.total_oil) h["total_oil"] = std::round(*hop.total_oil * 1e4) / 1e4;
     h["use"] = std::string(to_string(hop.use));
-    if (hop.minutes) h["time"] = fmt::format("{:.6g} min", *hop.minutes);
-    if (hop.temperature_c) h["temperature"] = fmt::format("{:.6g} C", *hop.temperature_c);
-    if (hop.cooling && hop.cooling->to_c) h["cooling"] = {{"to", fmt::format("{:.6g} C", *hop.cooling->to_c)}};
+    if (hop.minutes) h["time"] = format_in_unit(*hop.minutes, Dimension::time, hop.time_unit);
+    if (hop.temperature_c)
+      h["temperature"] = format_in_unit(*hop.temperature_c, Dimension::temperature, notation.temperature);
+    if (hop.cooling && hop.cooling->to_c)
+      h["cooling"] = {{"to", format_in_unit(*hop.cooling->to_c, Dimension::temperature, notation.temperature)}};
     if (hop.cooling && hop.cooling->per_minute)
-      h["cooling"] = {{"constant", *hop.cooling->per_minute},
-                      {"ambient", fmt::format("{:.6g} C", hop.cooling->ambient_c)}};
+      h["cooling"] = {
+          {"constant", *hop.cooling->per_minute},
+          {"ambient", format_in_unit(hop.cooling->ambient_c, Dimension::temperature, notation.temperature)}};
     if (hop.form) h["form"] = std::string(to_string(*hop.form));
     hops.push_back(std::move(h));
   }

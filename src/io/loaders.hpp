@@ -34,8 +34,8 @@ std::string_view to_string(FileKind kind);
 /// Validates any of our file types; returns the kind. Throws InputError with every problem.
 FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon);
 
-/// A recipe as JSON in our format, canonical units (for --write).
-nlohmann::json recipe_to_json(const Recipe& recipe);
+/// A recipe as JSON in our format, in the brewer's notation and key order (for --write).
+nlohmann::ordered_json recipe_to_json(const Recipe& recipe);
 
 /// A computed recipe as bine writes it (recipe_to_json, indented), checked first by the recipe
 /// loader's own bounds and the input size limit, so bine never shows or writes a recipe it would

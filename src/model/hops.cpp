@@ -6,6 +6,10 @@
 
 namespace bine {
 
+std::string_view amount_unit(const Recipe& recipe, const HopAddition& hop) {
+  return hop.amount_unit.empty() ? std::string_view(recipe.notation.mass) : std::string_view(hop.amount_unit);
+}
+
 std::string_view to_string(Purpose purpose) {
   switch (purpose) {
     case Purpose::aroma:

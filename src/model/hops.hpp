@@ -97,6 +97,24 @@ struct HopAddition {
   std::optional<double> temperature_c;  // whirlpool only: the temperature it goes in at
   std::optional<Cooling> cooling;       // whirlpool only: the course after that (none: held)
   std::optional<HopForm> form;
+  /// Total oil (mL/100 g) the amount was worked out for, when bine wrote it (recipe key "total_oil"),
+  /// so that rebalancing a rebalanced recipe with the same lot changes nothing.
+  std::optional<double> total_oil;
+  // How the brewer wrote this addition ("oz", "d" ...; empty: canonical or bare number), kept on writing.
+  std::string amount_unit;
+  std::string time_unit;
+};
+
+/// How the brewer wrote a recipe's quantities (unit spellings of ParsedQuantity::unit; empty for a
+/// bare number in the canonical unit), so that bine shows and writes them back the same way.
+struct RecipeNotation {
+  std::string volume;       // "L", "hL", "gal", "bbl" ...
+  std::string gravity;      // "SG" or "P"
+  std::string temperature;  // "C" or "F": hop stand and whirlpool temperatures
+  std::string boil_time;    // "min" or "h"
+  std::string stand_time;   // the hop stand's time
+  /// The unit of the first hop amount written with one: new additions are written in it.
+  std::string mass;
 };
 
 /// Wort held hot after flame-out before chilling (recipe key "hop_stand"). Boil and first-wort
@@ -115,7 +133,11 @@ struct Recipe {
   std::optional<HopStand> hop_stand;  // hot stand after flame-out, before chilling
   std::vector<HopAddition> hops;
   std::string source_file;
+  RecipeNotation notation;
 };
+
+/// The unit an addition's amount is written and weighed in: its own, else the recipe's ("" is grams).
+std::string_view amount_unit(const Recipe& recipe, const HopAddition& hop);
 
 std::string_view to_string(Purpose purpose);
 std::string_view to_string(HopForm form);

@@ -198,4 +198,8 @@ std::string did_you_mean(std::string_view wanted, const std::vector<std::string>
   return out + "?";
 }
 
+std::string count_of(std::size_t count, std::string_view singular, std::string_view plural) {
+  return std::to_string(count) + " " + std::string(count == 1 ? singular : plural);
+}
+
 }  // namespace bine

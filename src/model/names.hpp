@@ -32,6 +32,9 @@ std::size_t edit_distance_within(std::string_view a, std::string_view b, std::si
 std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,
                                        std::size_t limit = 3);
 
+/// "1 lot", "2 lots": the count with the noun in the number it needs.
+std::string count_of(std::size_t count, std::string_view singular, std::string_view plural);
+
 /// "did you mean A, B or C?" or an empty string.
 std::string did_you_mean(std::string_view wanted, const std::vector<std::string>& known);
 

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <array>
 #include <cctype>
 #include <charconv>
@@ -13,32 +14,40 @@ namespace bine {
 namespace {
 
 struct Unit {
-  std::string_view symbol;
-  double factor;  // canonical = value * factor (+ offset handled separately for temperature)
+  std::string_view symbol;   // lower case, as matched
+  double factor;             // canonical = value * factor
+  std::string_view written;  // the usual spelling, for ParsedQuantity::unit and for writing
 };
 
-constexpr std::array kMassUnits{
-    Unit{"g", 1.0},    Unit{"gram", 1.0},          Unit{"grams", 1.0},         Unit{"kg", 1000.0},
-    Unit{"mg", 0.001}, Unit{"oz", kGramsPerOunce}, Unit{"lb", kGramsPerPound}, Unit{"lbs", kGramsPerPound}};
-constexpr std::array kVolumeUnits{Unit{"l", 1.0},
-                                  Unit{"litre", 1.0},
-                                  Unit{"liter", 1.0},
-                                  Unit{"litres", 1.0},
-                                  Unit{"liters", 1.0},
-                                  Unit{"hl", 100.0},
-                                  Unit{"ml", 0.001},
-                                  Unit{"gal", kLitresPerUsGallon},
-                                  Unit{"bbl", kUsGallonsPerBeerBarrel* kLitresPerUsGallon}};
-constexpr std::array kTimeUnits{Unit{"min", 1.0},  Unit{"mins", 1.0},   Unit{"minute", 1.0}, Unit{"minutes", 1.0},
-                                Unit{"h", 60.0},   Unit{"hr", 60.0},    Unit{"hour", 60.0},  Unit{"hours", 60.0},
-                                Unit{"d", 1440.0}, Unit{"day", 1440.0}, Unit{"days", 1440.0}};
-constexpr std::array kPercentUnits{Unit{"%", 1.0}};
-constexpr std::array kOilUnits{Unit{"ml/100g", 1.0}, Unit{"ml/100 g", 1.0}};
+constexpr std::array kMassUnits{Unit{"g", 1.0, "g"},
+                                Unit{"gram", 1.0, "g"},
+                                Unit{"grams", 1.0, "g"},
+                                Unit{"kg", 1000.0, "kg"},
+                                Unit{"mg", 0.001, "mg"},
+                                Unit{"oz", kGramsPerOunce, "oz"},
+                                Unit{"lb", kGramsPerPound, "lb"},
+                                Unit{"lbs", kGramsPerPound, "lb"}};
+constexpr std::array kVolumeUnits{Unit{"l", 1.0, "L"},
+                                  Unit{"litre", 1.0, "L"},
+                                  Unit{"liter", 1.0, "L"},
+                                  Unit{"litres", 1.0, "L"},
+                                  Unit{"liters", 1.0, "L"},
+                                  Unit{"hl", 100.0, "hL"},
+                                  Unit{"ml", 0.001, "mL"},
+                                  Unit{"gal", kLitresPerUsGallon, "gal"},
+                                  Unit{"bbl", kUsGallonsPerBeerBarrel* kLitresPerUsGallon, "bbl"}};
+constexpr std::array kTimeUnits{Unit{"min", 1.0, "min"},     Unit{"mins", 1.0, "min"}, Unit{"minute", 1.0, "min"},
+                                Unit{"minutes", 1.0, "min"}, Unit{"h", 60.0, "h"},     Unit{"hr", 60.0, "h"},
+                                Unit{"hour", 60.0, "h"},     Unit{"hours", 60.0, "h"}, Unit{"d", 1440.0, "d"},
+                                Unit{"day", 1440.0, "d"},    Unit{"days", 1440.0, "d"}};
+constexpr std::array kPercentUnits{Unit{"%", 1.0, "%"}};
+constexpr std::array kOilUnits{Unit{"ml/100g", 1.0, "mL/100 g"}, Unit{"ml/100 g", 1.0, "mL/100 g"}};
 // Rates and doses are matched with spaces removed ("6 g / L" is "6g/l").
-constexpr std::array kHopRateUnits{Unit{"g/l", 1.0}, Unit{"g/hl", 0.01}, Unit{"kg/hl", 10.0},
-                                   Unit{"oz/gal", kGramsPerOunce / kLitresPerUsGallon},
-                                   Unit{"lb/bbl", kGramsPerPound / (kUsGallonsPerBeerBarrel * kLitresPerUsGallon)}};
-constexpr std::array kOilDoseUnits{Unit{"ml/hl", 1.0}, Unit{"ml/l", 100.0}};
+constexpr std::array kHopRateUnits{
+    Unit{"g/l", 1.0, "g/L"}, Unit{"g/hl", 0.01, "g/hL"}, Unit{"kg/hl", 10.0, "kg/hL"},
+    Unit{"oz/gal", kGramsPerOunce / kLitresPerUsGallon, "oz/gal"},
+    Unit{"lb/bbl", kGramsPerPound / (kUsGallonsPerBeerBarrel * kLitresPerUsGallon), "lb/bbl"}};
+constexpr std::array kOilDoseUnits{Unit{"ml/hl", 1.0, "mL/hL"}, Unit{"ml/l", 100.0, "mL/L"}};
 
 std::string lower(std::string_view text) {
   std::string out;
@@ -55,13 +64,64 @@ std::string without_spaces(std::string text) {
 }
 
 template <std::size_t N>
-std::optional<double> factor_for(const std::array<Unit, N>& units, const std::string& symbol) {
+const Unit* unit_for(const std::array<Unit, N>& units, const std::string& symbol) {
   for (const auto& unit : units)
-    if (unit.symbol == symbol) return unit.factor;
-  return std::nullopt;
+    if (unit.symbol == symbol) return &unit;
+  return nullptr;
 }
 
-ParsedQuantity fail(std::string message) { return {std::nullopt, std::move(message)}; }
+template <std::size_t N>
+const Unit* written_unit(const std::array<Unit, N>& units, std::string_view written) {
+  for (const auto& unit : units)
+    if (unit.written == written) return &unit;
+  return nullptr;
+}
+
+/// The unit table of a dimension with a plain factor (not temperature, gravity or number).
+const Unit* find_unit(Dimension dimension, const std::string& symbol) {
+  switch (dimension) {
+    case Dimension::mass:
+      return unit_for(kMassUnits, symbol);
+    case Dimension::volume:
+      return unit_for(kVolumeUnits, symbol);
+    case Dimension::time:
+      return unit_for(kTimeUnits, symbol);
+    case Dimension::percent:
+      return unit_for(kPercentUnits, symbol);
+    case Dimension::oil_content:
+      return unit_for(kOilUnits, symbol);
+    case Dimension::hop_rate:
+      return unit_for(kHopRateUnits, without_spaces(symbol));
+    case Dimension::oil_dose:
+      return unit_for(kOilDoseUnits, without_spaces(symbol));
+    case Dimension::temperature:
+    case Dimension::gravity:
+    case Dimension::number:
+      return nullptr;
+  }
+  return nullptr;
+}
+
+const Unit* find_written_unit(Dimension dimension, std::string_view written) {
+  switch (dimension) {
+    case Dimension::mass:
+      return written_unit(kMassUnits, written);
+    case Dimension::volume:
+      return written_unit(kVolumeUnits, written);
+    case Dimension::time:
+      return written_unit(kTimeUnits, written);
+    case Dimension::oil_content:
+      return written_unit(kOilUnits, written);
+    case Dimension::hop_rate:
+      return written_unit(kHopRateUnits, written);
+    case Dimension::oil_dose:
+      return written_unit(kOilDoseUnits, written);
+    default:
+      return nullptr;
+  }
+}
+
+ParsedQuantity fail(std::string message) { return {std::nullopt, std::move(message), {}}; }
 
 }  // namespace
 
@@ -185,52 +245,67 @@ ParsedQuantity parse_quantity(std::string_view text, Dimension dimension) {
   const auto not_unit = [&] {
     return fail(fmt::format("{} is not {} ({})", quoted, dimension_noun(dimension), accepted_units(dimension)));
   };
-  std::optional<double> factor;
   // A number near the double limit can overflow in the conversion ("1e308 F", "1.7e308 kg").
-  const auto checked = [&](double canonical) -> ParsedQuantity {
+  const auto checked = [&](double canonical, std::string_view written) -> ParsedQuantity {
     if (!std::isfinite(canonical))
       return fail(fmt::format("{} is out of range ({})", quoted, accepted_units(dimension)));
-    return {canonical, {}};
+    return {canonical, {}, std::string(written)};
   };
   switch (dimension) {
-    case Dimension::mass:
-      factor = unit.empty() ? 1.0 : factor_for(kMassUnits, unit);
-      break;
-    case Dimension::volume:
-      factor = unit.empty() ? 1.0 : factor_for(kVolumeUnits, unit);
-      break;
-    case Dimension::time:
-      factor = unit.empty() ? 1.0 : factor_for(kTimeUnits, unit);
-      break;
-    case Dimension::percent:
-      factor = unit.empty() ? 1.0 : factor_for(kPercentUnits, unit);
-      break;
-    case Dimension::oil_content:
-      factor = unit.empty() ? 1.0 : factor_for(kOilUnits, unit);
-      break;
     case Dimension::number:
-      factor = unit.empty() ? std::optional<double>(1.0) : std::nullopt;
-      break;
-    case Dimension::hop_rate:
-      factor = unit.empty() ? 1.0 : factor_for(kHopRateUnits, without_spaces(unit));
-      break;
-    case Dimension::oil_dose:
-      factor = unit.empty() ? 1.0 : factor_for(kOilDoseUnits, without_spaces(unit));
-      break;
+      if (!unit.empty()) return not_unit();
+      return {number, {}, {}};
     case Dimension::temperature:
-      if (unit.empty() || unit == "c") return {number, {}};
-      if (unit == "f") return checked(fahrenheit_to_celsius(number));
+      if (unit.empty()) return {number, {}, {}};
+      if (unit == "c") return {number, {}, "C"};
+      if (unit == "f") return checked(fahrenheit_to_celsius(number), "F");
       return not_unit();
     case Dimension::gravity:
-      if (unit.empty() || unit == "sg") return {number, {}};
+      if (unit.empty()) return {number, {}, {}};
+      if (unit == "sg") return {number, {}, "SG"};
       if (unit == "p" || unit == "plato") {
         if (number < 0.0 || number > 40.0) return fail(fmt::format("{} is outside 0-40 degrees Plato", quoted));
-        return {sg_from_plato(number), {}};
+        return {sg_from_plato(number), {}, "P"};
       }
       return not_unit();
+    default:
+      break;
   }
-  if (!factor) return not_unit();
-  return checked(number * *factor);
+  if (unit.empty()) return checked(number, {});
+  const Unit* found = find_unit(dimension, unit);
+  if (found == nullptr) return not_unit();
+  return checked(number * found->factor, found->written);
+}
+
+std::string format_in_unit(double canonical, Dimension dimension, std::string_view unit) {
+  double value = canonical;
+  if (dimension == Dimension::temperature && unit == "F")
+    value = celsius_to_fahrenheit(canonical);
+  else if (dimension == Dimension::gravity && unit == "P")
+    value = plato_from_sg(canonical);
+  else if (const Unit* found = find_written_unit(dimension, unit); found != nullptr)
+    value = canonical / found->factor;
+  else
+    unit = dimension == Dimension::gravity ? std::string_view() : canonical_unit(dimension);
+  std::string text = fmt::format("{:.10g}", value);
+  if (text == "-0") text = "0";
+  if (!unit.empty() && unit != "SG") text += " " + std::string(unit);
+  return text;
+}
+
+double weighed_grams(double grams, std::string_view unit) {
+  // The step a brewer weighs to, in grams (common practice).
+  double step = grams < 100.0 ? 0.1 : 1.0;
+  if (unit == "kg") step = 1.0;
+  if (unit == "oz") step = 0.01 * kGramsPerOunce;
+  if (unit == "lb") step = 0.01 * kGramsPerPound;
+  if (!(grams > 0.0)) return grams;
+  return std::max(step, std::round(grams / step) * step);
+}
+
+std::string format_gravity(double specific_gravity, std::string_view unit) {
+  if (unit == "P") return fmt::format("{:.1f} P", plato_from_sg(specific_gravity));
+  return fmt::format("{:.3f}", specific_gravity);
 }
 
 namespace {
@@ -261,6 +336,10 @@ std::string format_mass(double grams, UnitSystem units) {
 std::string format_volume(double litres, UnitSystem units) {
   if (units == UnitSystem::us) {
     const double gallons = litres / kLitresPerUsGallon;
+    if (gallons >= kUsGallonsPerBeerBarrel) {
+      const double barrels = gallons / kUsGallonsPerBeerBarrel;
+      return trim_number(barrels, decimals_for(barrels)) + " bbl";
+    }
     return trim_number(gallons, decimals_for(gallons)) + " gal";
   }
   if (litres >= 1000.0) return trim_number(litres / 100.0, 1) + " hL";

@@ -28,6 +28,7 @@ std::string_view dimension_noun(Dimension dimension);
 struct ParsedQuantity {
   std::optional<double> value;
   std::string error;  // set when !value
+  std::string unit;   // the unit as written, in its usual spelling ("oz", "gal", "F", "P"); empty for a bare number
 };
 
 /// Parses "28 g", "1.5oz", "12.4 P", "-2 C" ... into the canonical unit. A bare number ("20") is
@@ -50,11 +51,24 @@ double plato_from_sg(double specific_gravity);
 /// so that a round trip returns the input.
 double sg_from_plato(double plato);
 
+/// A canonical value in `unit` (a spelling ParsedQuantity::unit gives: "oz", "gal", "F", "P" ...) with
+/// the unit, to 10 significant digits so that reading it back returns the value ("12.4 P", "5.5 gal").
+/// An empty or unknown unit writes the canonical unit.
+std::string format_in_unit(double canonical, Dimension dimension, std::string_view unit);
+
+/// A hop amount rounded as a brewer weighs it in `unit` (common practice): grams to 0.1 g below 100 g
+/// and to 1 g above, kg to 1 g, oz and lb to 0.01. Never rounds a positive amount to zero.
+double weighed_grams(double grams, std::string_view unit);
+
+/// Original gravity as the brewer gave it: "12.4 P" when `unit` is "P", else "1.052".
+std::string format_gravity(double specific_gravity, std::string_view unit);
+
 /// Unit system used for text output.
 enum class UnitSystem { metric, us };
 
 /// Formats a canonical value for a brewer in the chosen unit system, always with its unit:
-/// mass 28.3 g / 1.00 oz (kg and lb above 1000 g / 1 lb), volume 20.0 L / 5.28 gal,
+/// mass 28.3 g / 1.00 oz (kg and lb above 1000 g / 1 lb), volume 20.0 L / 5.28 gal (hL from 1000 L,
+/// bbl from one US beer barrel),
 /// temperature 80 C / 176 F.
 std::string format_mass(double grams, UnitSystem units);
 std::string format_volume(double litres, UnitSystem units);

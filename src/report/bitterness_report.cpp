@@ -135,8 +135,9 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
     if (intervals == nullptr) return fmt::format("{:.1f} IBU", ibu);
     return ibu_with_interval(ibu, row ? intervals->additions[*row] : intervals->total);
   };
-  out << fmt::format("{}: {} at OG {:.3f}, {} boil; {}\n\n", recipe.name.empty() ? recipe.source_file : recipe.name,
-                     format_volume(recipe.batch_volume_l, units), recipe.original_gravity,
+  out << fmt::format("{}: {} at OG {}, {} boil; {}\n\n", recipe.name.empty() ? recipe.source_file : recipe.name,
+                     format_volume(recipe.batch_volume_l, units),
+                     format_gravity(recipe.original_gravity, recipe.notation.gravity),
                      format_minutes(recipe.boil_minutes), model_line(bitterness));
   TextTable table({{"#", Align::right},
                    {"variety"},
@@ -190,8 +191,9 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
     for (const auto& note : bitterness.notes) out << "  - " << note << '\n';
   }
   for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
-  out << fmt::format("\nTotal {:.1f} IBU at OG {:.3f}: BU:GU {:.2f}, {} (common-practice reading).\n",
-                     bitterness.total_ibu, recipe.original_gravity, bitterness.bu_gu, bitterness.bu_gu_reading);
+  out << fmt::format("\nTotal {:.1f} IBU at OG {}: BU:GU {:.2f}, {} (common-practice reading).\n", bitterness.total_ibu,
+                     format_gravity(recipe.original_gravity, recipe.notation.gravity), bitterness.bu_gu,
+                     bitterness.bu_gu_reading);
 }
 
 nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& bitterness,

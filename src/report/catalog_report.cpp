@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "model/names.hpp"
 #include "report/table.hpp"
 
 namespace bine {
@@ -75,7 +76,7 @@ void render_catalog_list(std::ostream& out, const Catalog& catalog, const Lexico
                    range_text(variety->alpha_acid, "%"), range_text(variety->total_oil, "mL/100 g"),
                    leading_aromas(*variety, 3)});
   table.render(out);
-  out << fmt::format("{} varieties", catalog.varieties.size());
+  out << count_of(catalog.varieties.size(), "variety", "varieties");
   if (catalog.demo) out << " (includes the invented demo catalog: not real varieties or measurements)";
   out << '\n';
 }

@@ -2,6 +2,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+
+#include "model/names.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/table.hpp"
 
@@ -12,14 +15,16 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
   std::string text = fmt::format("{}: ", lot.variety);
   if (!lot.lot_code.empty()) {
     text += fmt::format("lot {}", lot.lot_code);
-    if (lot.lots_of_variety > 1) text += fmt::format(" (most on hand of {} lots)", lot.lots_of_variety);
+    if (lot.lots_of_variety > 1)
+      text += fmt::format(" (most on hand of {})", count_of(lot.lots_of_variety, "lot", "lots"));
     text += "; ";
   }
   if (lot.certificate_alpha && lot.packaged && lot.storage) {
     text += fmt::format(
-        "{:.1f} % packaged {}, {} days at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
+        "{:.1f} % packaged {}, {} at {}, {}; stability {:.0f} % ({}) -> {:.2f} % alpha on brew "
         "day ({:.1f} % left)",
-        *lot.certificate_alpha, format_date(*lot.packaged), lot.days,
+        *lot.certificate_alpha, format_date(*lot.packaged),
+        count_of(static_cast<std::size_t>(std::max(0L, lot.days)), "day", "days"),
         format_temperature(lot.storage->temperature_c, units), to_string(lot.storage->package),
         lot.stability_percent.value_or(0.0), lot.stability_source, lot.alpha_percent, 100.0 * lot.remaining);
   } else {
@@ -35,17 +40,8 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
 
 }  // namespace
 
-void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
-                      const RebalanceResult& result, UnitSystem units) {
-  out << fmt::format("Rebalance of {} for brew day {}{} ({} model)\n\n",
-                     recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
-                     context.on_from_clock ? " (today; pass --on to reproduce)" : "",
-                     result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
-  if (result.before.settings.brewhouse) out << brewhouse_line(result.before.settings) << ".\n\n";
-  out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
-  for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
-  out << '\n';
-
+void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
+                              UnitSystem units) {
   TextTable table({{"#", Align::right},
                    {"variety"},
                    {"use"},
@@ -59,7 +55,10 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& row : result.additions) {
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
-    table.add_row({std::to_string(row.index + 1), row.variety, describe_use(hop, units),
+    const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
+                                    ? row.variety
+                                    : row.variety + " -> " + row.variety_after;
+    table.add_row({std::to_string(row.index + 1), variety, describe_use(hop, units),
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
                    dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
@@ -75,19 +74,20 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
     const auto& row = result.additions[*result.absorber];
     const HopAddition& hop = recipe.hops[row.index];
     out << fmt::format(
-        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the late additions, so the "
-        "total holds at {:.1f} IBU.\n",
-        row.index + 1, row.variety, describe_use(hop, units), result.ibu_change_absorbed, result.after.total_ibu);
+        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
+        "changed by {:+.2f} IBU), so the total holds at {:.1f} IBU.\n",
+        row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
+        result.ibu_change_absorbed, result.after.total_ibu);
   } else if (result.whirlpool_scaled) {
     out << fmt::format(
-        "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU, so the total "
-        "holds at {:.1f} IBU but their aroma changes.\n",
-        result.ibu_change_absorbed, result.after.total_ibu);
+        "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
+        "were scaled to make it up, so the total holds at {:.1f} IBU but their aroma changes.\n",
+        -result.ibu_change_absorbed + 0.0, result.after.total_ibu);
   } else {
     out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
   }
   if (result.shortfalls.empty()) {
-    if (context.from_stock) out << "Stock covers every addition.\n";
+    if (from_stock) out << "Stock covers every addition.\n";
   } else {
     out << "Stock shortfalls:\n";
     for (const auto& s : result.shortfalls)
@@ -95,6 +95,20 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
                          format_mass(s.needed_g, units), format_mass(s.on_hand_g, units),
                          format_mass(s.needed_g - s.on_hand_g, units));
   }
+}
+
+void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
+                      const RebalanceResult& result, UnitSystem units) {
+  out << fmt::format("Rebalance of {} for brew day {}{} ({} model)\n\n",
+                     recipe.name.empty() ? recipe.source_file : recipe.name, format_date(context.on),
+                     context.on_from_clock ? " (today; pass --on to reproduce)" : "",
+                     result.before.settings.model == IbuModel::rager ? "Rager" : "Tinseth");
+  if (result.before.settings.brewhouse) out << brewhouse_line(result.before.settings) << ".\n\n";
+  out << (context.from_stock ? "Lots from stock (alpha aged to brew day, Garetz 1994):\n" : "New lots:\n");
+  for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
+  out << '\n';
+
+  render_rebalance_changes(out, recipe, result, context.from_stock, units);
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   if (!notes.empty()) {
@@ -102,6 +116,44 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
     for (const auto& note : notes) out << "  - " << note << '\n';
   }
   for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
+}
+
+nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
+  using nlohmann::json;
+  json out;
+  json additions = json::array();
+  for (const auto& row : result.additions) {
+    json a;
+    a["index"] = row.index + 1;
+    a["variety"] = row.variety;
+    if (!row.variety_after.empty() && row.variety_after != row.variety) a["variety_after"] = row.variety_after;
+    a["use"] = std::string(to_string(row.use));
+    a["grams_before"] = rounded(row.grams_before, 3);
+    a["grams_after"] = rounded(row.grams_after, 3);
+    a["alpha_before"] = rounded(row.alpha_before, 4);
+    a["alpha_after"] = rounded(row.alpha_after, 4);
+    a["ibu_before"] = rounded(row.ibu_before, 3);
+    a["ibu_after"] = rounded(row.ibu_after, 3);
+    a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
+    a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
+    a["rule"] = std::string(to_string(row.rule));
+    additions.push_back(std::move(a));
+  }
+  out["additions"] = std::move(additions);
+  out["total_ibu_before"] = rounded(result.before.total_ibu, 3);
+  out["total_ibu_after"] = rounded(result.after.total_ibu, 3);
+  out["absorbed_by"] = result.absorber ? json(result.additions[*result.absorber].index + 1) : json(nullptr);
+  out["ibu_change_absorbed"] = rounded(result.ibu_change_absorbed, 3);
+  out["whirlpool_scaled"] = result.whirlpool_scaled;
+  json shortfalls = json::array();
+  for (const auto& s : result.shortfalls)
+    shortfalls.push_back({{"variety", s.variety},
+                          {"lot", s.lot},
+                          {"needed_g", rounded(s.needed_g, 3)},
+                          {"on_hand_g", rounded(s.on_hand_g, 3)},
+                          {"short_g", rounded(s.needed_g - s.on_hand_g, 3)}});
+  out["shortfalls"] = std::move(shortfalls);
+  return out;
 }
 
 nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result) {
@@ -130,37 +182,7 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
     lots.push_back(std::move(l));
   }
   out["lots"] = std::move(lots);
-  json additions = json::array();
-  for (const auto& row : result.additions) {
-    json a;
-    a["index"] = row.index + 1;
-    a["variety"] = row.variety;
-    a["use"] = std::string(to_string(row.use));
-    a["grams_before"] = rounded(row.grams_before, 3);
-    a["grams_after"] = rounded(row.grams_after, 3);
-    a["alpha_before"] = rounded(row.alpha_before, 4);
-    a["alpha_after"] = rounded(row.alpha_after, 4);
-    a["ibu_before"] = rounded(row.ibu_before, 3);
-    a["ibu_after"] = rounded(row.ibu_after, 3);
-    a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
-    a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
-    a["rule"] = std::string(to_string(row.rule));
-    additions.push_back(std::move(a));
-  }
-  out["additions"] = std::move(additions);
-  out["total_ibu_before"] = rounded(result.before.total_ibu, 3);
-  out["total_ibu_after"] = rounded(result.after.total_ibu, 3);
-  out["absorbed_by"] = result.absorber ? json(result.additions[*result.absorber].index + 1) : json(nullptr);
-  out["ibu_change_absorbed"] = rounded(result.ibu_change_absorbed, 3);
-  out["whirlpool_scaled"] = result.whirlpool_scaled;
-  json shortfalls = json::array();
-  for (const auto& s : result.shortfalls)
-    shortfalls.push_back({{"variety", s.variety},
-                          {"lot", s.lot},
-                          {"needed_g", rounded(s.needed_g, 3)},
-                          {"on_hand_g", rounded(s.on_hand_g, 3)},
-                          {"short_g", rounded(s.needed_g - s.on_hand_g, 3)}});
-  out["shortfalls"] = std::move(shortfalls);
+  out.update(rebalance_changes_json(result));
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   out["notes"] = notes;

@@ -18,6 +18,13 @@ struct RebalanceContext {
   bool on_from_clock = false;  // --on not given: today's date from the system clock
 };
 
+/// The before/after table of the additions, the sentence on who took the IBU change, and the stock
+/// shortfalls ("Stock covers every addition." when `from_stock` and none); shared with swap --recipe.
+void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
+                              UnitSystem units);
+/// The additions, totals, absorber and shortfalls as JSON (the keys rebalance --json documents).
+nlohmann::json rebalance_changes_json(const RebalanceResult& result);
+
 void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
                       const RebalanceResult& result, UnitSystem units);
 nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& context, const RebalanceResult& result);

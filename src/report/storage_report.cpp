@@ -2,6 +2,10 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <cmath>
+
+#include "model/names.hpp"
 #include "report/bitterness_report.hpp"
 
 namespace bine {
@@ -10,7 +14,8 @@ void render_age(std::ostream& out, const AgeQuery& query, const AgedAlpha& aged,
   out << fmt::format("Estimated alpha acid on {}{}: {:.2f} % ({:.1f} % of the {:.2f} % at packaging)\n",
                      format_date(query.on), query.on_from_clock ? " (today; pass --on to reproduce)" : "",
                      aged.alpha_percent, 100.0 * aged.remaining, query.history.alpha_percent);
-  out << fmt::format("  packaged {}, {:.0f} days stored at {}, {}\n", format_date(query.packaged), query.history.days,
+  const auto days = static_cast<std::size_t>(std::max(0.0, std::round(query.history.days)));
+  out << fmt::format("  packaged {}, {} stored at {}, {}\n", format_date(query.packaged), count_of(days, "day", "days"),
                      format_temperature(query.history.storage.temperature_c, units),
                      to_string(query.history.storage.package));
   const std::string reference = format_temperature(20.0, units);

@@ -103,6 +103,9 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
                           {"shares", {rounded(p.shares[0], 3), rounded(p.shares[1], 3)}},
                           {"similarity", rounded(p.similarity, 1)}};
       if (!p.lots[0].empty() || !p.lots[1].empty()) item["lots"] = p.lots;
+      nlohmann::json per_gram = nlohmann::json::array();
+      for (const auto& g : p.grams_per_gram) per_gram.push_back(g ? nlohmann::json(rounded(*g, 3)) : nullptr);
+      item["grams_per_gram"] = per_gram;
       pairs.push_back(item);
     }
     out["pairs"] = pairs;
@@ -169,14 +172,20 @@ void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool 
 
   if (with_pairs && !r.pairs.empty()) {
     out << "\nTwo-variety blends that match better than the best single substitute (shares by weight)\n";
-    TextTable pairs({{"Blend", Align::left}, {"Shares", Align::right}, {"Similarity", Align::right}});
+    TextTable pairs({{"Blend", Align::left},
+                     {"Shares", Align::right},
+                     {"Per g of " + r.missing.name, Align::right},
+                     {"Similarity", Align::right}});
     for (const auto& p : r.pairs) {
       const auto label = [&](int i) {
         return p.lots[i].empty() ? p.varieties[i] : fmt::format("{} ({})", p.varieties[i], p.lots[i]);
       };
+      const auto per_gram = [&](int i) {
+        return p.grams_per_gram[i] ? fmt::format("{:.2f} g", *p.grams_per_gram[i]) : std::string("n/a");
+      };
       pairs.add_row({label(0) + " + " + label(1),
                      fmt::format("{:.0f} % + {:.0f} %", 100.0 * p.shares[0], 100.0 * p.shares[1]),
-                     fmt::format("{:.0f}/100", p.similarity)});
+                     per_gram(0) + " + " + per_gram(1), fmt::format("{:.0f}/100", p.similarity)});
     }
     pairs.render(out);
   }

@@ -81,11 +81,10 @@ TEST_CASE("rebalance --write new.xml: the new grams in AMOUNT (kg), the rest of 
   const std::string original = bine::test::slurp(kPaleXml);
   CHECK(without_first(without_first(written, "AMOUNT"), "ALPHA") ==
         without_first(without_first(original, "AMOUNT"), "ALPHA"));
-  // And it reads again: the 60-minute addition now weighs 22.1 g.
+  // And it reads again: the 60-minute addition now weighs 22.1 g (30 x 7.0 / 9.5 = 22.105 g, weighed to 0.1 g).
   const auto again = run_cli({"ibu", "--json", out.string()});
   REQUIRE(again.status == 0);
-  CHECK(nlohmann::json::parse(again.out)["additions"][0]["grams"].get<double>() ==
-        doctest::Approx(22.105).epsilon(1e-4));
+  CHECK(nlohmann::json::parse(again.out)["additions"][0]["grams"].get<double>() == doctest::Approx(22.1));
 }
 
 TEST_CASE("rebalance --write x.xml from a bine JSON recipe is refused, nothing written") {

@@ -345,7 +345,8 @@ TEST_CASE("a plan takes the recipe's whirlpool split, stand and IBU target (hand
   choices.no_bittering = true;
   const bine::Recipe recipe = late_only_recipe();
   const auto plan = bine::plan_blend(&recipe, catalog, nullptr, choices, {});
-  // Whirlpool share 30 / (30 + 70) = 0.3; the stand is the recipe's; 4 g/L x 20 L = 80 g.
+  // Whirlpool share 30 / (30 + 70) = 0.3; the stand is the recipe's; the late amount is the recipe's
+  // own 30 + 70 = 100 g.
   CHECK(plan.ibu.whirlpool_share == doctest::Approx(0.3));
   CHECK(plan.whirlpool_temperature_c == 85.0);
   CHECK(plan.whirlpool_minutes == 15.0);
@@ -354,7 +355,46 @@ TEST_CASE("a plan takes the recipe's whirlpool split, stand and IBU target (hand
   CHECK(plan.ibu.kept_ibu == 0.0);
   CHECK_FALSE(plan.bittering);
   CHECK(plan.late.kind == bine::LateAmount::Kind::grams);
+  CHECK(plan.late.total == doctest::Approx(100.0));
+  CHECK(plan.late_source == bine::LateSource::recipe_grams);
+}
+
+TEST_CASE("the late amount: --rate over the volume, the recipe's oil with --oil-dose recipe, else 4 g/L") {
+  bine::Catalog catalog;
+  bine::Variety a;
+  a.name = "A";
+  a.total_oil = bine::Range{1.0, 2.0};  // midpoint 1.5 mL/100 g
+  catalog.varieties = {a};
+  bine::Recipe recipe = late_only_recipe();
+  bine::BlendChoices choices;
+  choices.no_bittering = true;
+  // --rate 1 oz/gal = 28.349523125 / 3.785411784 = 7.48915 g/L, x 20 L = 149.78 g.
+  choices.dose = bine::LateDose{bine::LateDose::Kind::grams_per_litre, 28.349523125 / 3.785411784};
+  auto plan = bine::plan_blend(&recipe, catalog, nullptr, choices, {});
+  CHECK(plan.late.total == doctest::Approx(149.783).epsilon(1e-5));
+  CHECK(plan.late_source == bine::LateSource::given);
+  // The oil the recipe's late hops deliver: 100 g x 1.5 mL/100 g = 1.5 mL; a recorded total_oil wins:
+  // 30 g x 2.0 / 100 + 70 g x 1.5 / 100 = 0.6 + 1.05 = 1.65 mL.
+  choices.dose.reset();
+  choices.keep_recipe_oil = true;
+  plan = bine::plan_blend(&recipe, catalog, nullptr, choices, {});
+  CHECK(plan.late.kind == bine::LateAmount::Kind::oil_ml);
+  CHECK(plan.late.total == doctest::Approx(1.5));
+  recipe.hops[0].total_oil = 2.0;
+  plan = bine::plan_blend(&recipe, catalog, nullptr, choices, {});
+  CHECK(plan.late.total == doctest::Approx(1.65));
+  CHECK(plan.late_source == bine::LateSource::recipe_oil);
+  // No late additions in the recipe: our default 4 g/L x 20 L = 80 g.
+  choices.keep_recipe_oil = false;
+  bine::Recipe boil_only = recipe;
+  boil_only.hops[0].use = bine::HopUse::boil;
+  boil_only.hops[0].minutes = 60.0;
+  boil_only.hops[0].temperature_c.reset();
+  boil_only.hops.pop_back();
+  choices.no_bittering = false;
+  plan = bine::plan_blend(&boil_only, catalog, nullptr, choices, {});
   CHECK(plan.late.total == doctest::Approx(80.0));
+  CHECK(plan.late_source == bine::LateSource::default_rate);
 }
 
 TEST_CASE("plan errors name the recipe field or the variety as the caller named it, with remedies") {

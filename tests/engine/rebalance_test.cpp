@@ -177,3 +177,56 @@ TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future 
     CHECK(e.lines()[0].find("stock.json: /lots/1/packaged: 2025-12-01 is after") == 0);
   }
 }
+
+TEST_CASE("a 0-minute boil addition scales with alpha like every boil addition (20 g at 5 % -> 10 g at 10 %)") {
+  // Tinseth gives 0 IBU at 0 minutes, yet the addition is a boil addition: W x A is held,
+  // 20 x 5.0 / 10.0 = 10.0 g (hand arithmetic, docs/methods.md#rebalance).
+  const auto recipe =
+      recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60), addition("Aroma", 20, 5.0, HopUse::boil, 0)});
+  const auto result = bine::rebalance(recipe, {lot("Aroma", 10.0)}, test_catalog(), {});
+  CHECK(result.additions[1].grams_after == doctest::Approx(10.0));
+  CHECK(result.additions[1].rule == bine::RebalanceRule::holds_ibu);
+  CHECK(result.additions[0].grams_after == 30.0);  // nothing to absorb: 0 IBU before and after
+}
+
+TEST_CASE("as weighed, changed amounts are rounded to 0.1 g below 100 g and 1 g above, in the recipe's unit") {
+  // 30 x 7.0 / 9.5 = 22.105 g -> 22.1 g; 150 x 7.0 / 9.5 = 110.53 g -> 111 g (common-practice weighing).
+  auto recipe =
+      recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60), addition("Bitter", 150, 7.0, HopUse::boil, 10)});
+  const auto grams = bine::rebalance(recipe, {lot("Bitter", 9.5)}, test_catalog(), {}, bine::Weighing::as_weighed);
+  CHECK(grams.recipe_after.hops[0].grams == doctest::Approx(22.1));
+  CHECK(grams.recipe_after.hops[1].grams == doctest::Approx(111.0));
+  // In ounces to 0.01 oz: 22.105 g = 0.7797 oz -> 0.78 oz = 22.1126 g (1 oz = 28.349523125 g exactly).
+  recipe.notation.mass = "oz";
+  const auto ounces = bine::rebalance(recipe, {lot("Bitter", 9.5)}, test_catalog(), {}, bine::Weighing::as_weighed);
+  CHECK(ounces.recipe_after.hops[0].grams == doctest::Approx(0.78 * 28.349523125));
+  // The figures are those of the weighed recipe: 22.1 g at 9.5 % against 30 g at 7.0 % is
+  // 22.1 x 9.5 / (30 x 7.0) = 0.99976 of the IBU.
+  CHECK(grams.additions[0].ibu_after == doctest::Approx(grams.additions[0].ibu_before * 22.1 * 9.5 / 210.0));
+}
+
+TEST_CASE("rebalancing a rebalanced recipe again with the same lots changes nothing") {
+  // The lot's oil 1.176 is taken at the 0.01 a recipe keeps, 1.18, and the whirlpool holds its oil:
+  // 40 x 1.5 / 1.18 = 50.85 g -> 50.8 g. The result records the oil and alpha (8.23) it was worked out
+  // for, so a second and third run
+  // find A_old = A_new and O_before = O_lot for every addition (docs/methods.md#rebalance).
+  const auto recipe =
+      recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60), addition("Aroma", 40, 5.0, HopUse::whirlpool, 20, 80.0),
+                 addition("Aroma", 50, 5.0, HopUse::dry_hop, 4 * 1440)});
+  const std::vector<bine::ReplacementLot> lots{lot("Aroma", 8.234, 1.176), lot("Bitter", 7.71)};
+  auto once = bine::rebalance(recipe, lots, test_catalog(), {}, bine::Weighing::as_weighed);
+  CHECK(once.recipe_after.hops[1].total_oil == doctest::Approx(1.18));
+  CHECK(once.recipe_after.hops[1].grams == doctest::Approx(50.8));  // 40 x 1.5 / 1.18 = 50.85 -> 50.8
+  CHECK(once.recipe_after.hops[1].alpha_acid == doctest::Approx(8.23));
+  bine::Recipe current = once.recipe_after;
+  for (int run = 2; run <= 3; ++run) {
+    const auto again = bine::rebalance(current, lots, test_catalog(), {}, bine::Weighing::as_weighed);
+    for (std::size_t i = 0; i < current.hops.size(); ++i) {
+      INFO("run " << run << ", addition " << i + 1);
+      CHECK(again.recipe_after.hops[i].grams == current.hops[i].grams);
+      CHECK(again.recipe_after.hops[i].alpha_acid == current.hops[i].alpha_acid);
+    }
+    CHECK_FALSE(again.absorber.has_value());
+    current = again.recipe_after;
+  }
+}

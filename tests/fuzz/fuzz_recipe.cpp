@@ -1,5 +1,5 @@
 // Fuzz target: recipe files. A recipe that loads must also survive the --write path: written back
-// in canonical units by recipe_to_json, it must load again with the same additions.
+// in the brewer's notation by recipe_to_json, it must load again with the same additions.
 #include <cmath>
 #include <cstddef>
 #include <cstdint>

@@ -14,15 +14,15 @@ std::string recipe_with_stand(const std::string& stand) {
 
 }  // namespace
 
-TEST_CASE("hop_stand is read in canonical units and written back") {
+TEST_CASE("hop_stand is read in canonical units and written back in the brewer's units") {
   // 176 F = (176 - 32) x 5 / 9 = 80 C; 0.5 h = 30 min.
   const auto recipe = bine::parse_recipe(recipe_with_stand(R"({"time": "0.5 h", "temperature": "176 F"})"), "r.json");
   REQUIRE(recipe.hop_stand.has_value());
   CHECK(recipe.hop_stand->minutes == doctest::Approx(30.0));
   CHECK(recipe.hop_stand->temperature_c == doctest::Approx(80.0));
   const auto json = bine::recipe_to_json(recipe);
-  CHECK(json["hop_stand"]["time"] == "30 min");
-  CHECK(json["hop_stand"]["temperature"] == "80 C");
+  CHECK(json["hop_stand"]["time"] == "0.5 h");
+  CHECK(json["hop_stand"]["temperature"] == "176 F");
   const auto again = bine::parse_recipe(json.dump(), "again.json");
   REQUIRE(again.hop_stand.has_value());
   CHECK(again.hop_stand->minutes == doctest::Approx(30.0));

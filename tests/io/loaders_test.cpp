@@ -235,3 +235,50 @@ TEST_CASE("a recipe written out loads back unchanged") {
   CHECK(*again.hops[0].temperature_c == doctest::Approx(80.0));
   CHECK(again.hops[0].use == bine::HopUse::whirlpool);
 }
+
+TEST_CASE("a recipe is written back in the brewer's notation: oz, gal, F, Plato, days and kg stay so") {
+  // Exact definitions: 1 oz = 28.349523125 g, 1 US gal = 3.785411784 L, F = C x 9 / 5 + 32; the Plato
+  // round trip is the exact inverse of the ASBC cubic (docs/methods.md#plato), so every value the
+  // brewer wrote comes back as written.
+  const auto recipe = bine::parse_recipe(
+      R"({"name": "US IPA", "batch_volume": "5.5 gal", "original_gravity": "15.2 P", "boil_time": "1 h",
+          "hop_stand": {"time": "15 min", "temperature": "185 F"},
+          "hops": [{"variety": "A", "amount": "0.75 oz", "alpha_acid": 12.5, "use": "boil", "time": "60 min"},
+                   {"variety": "B", "amount": "3 oz", "alpha_acid": 7.5, "use": "whirlpool", "time": "20 min",
+                    "temperature": "176 F"},
+                   {"variety": "C", "amount": "0.25 kg", "use": "dry-hop", "time": "4 d"}]})",
+      "us.json");
+  const auto json = bine::recipe_to_json(recipe);
+  CHECK(json["batch_volume"] == "5.5 gal");
+  CHECK(json["original_gravity"] == "15.2 P");
+  CHECK(json["boil_time"] == "1 h");
+  CHECK(json["hop_stand"]["temperature"] == "185 F");
+  CHECK(json["hops"][0]["amount"] == "0.75 oz");
+  CHECK(json["hops"][1]["temperature"] == "176 F");
+  CHECK(json["hops"][2]["amount"] == "0.25 kg");
+  CHECK(json["hops"][2]["time"] == "4 d");
+  // Keys in the order a brewer reads them.
+  CHECK(json.begin().key() == "name");
+  const auto again = bine::parse_recipe(json.dump(), "again.json");
+  CHECK(again.original_gravity == recipe.original_gravity);
+  CHECK(again.batch_volume_l == doctest::Approx(recipe.batch_volume_l).epsilon(1e-12));
+  CHECK(again.hops[0].grams == doctest::Approx(0.75 * 28.349523125).epsilon(1e-12));
+  // A new addition without a unit of its own is written in the recipe's hop unit (the first one given).
+  bine::Recipe grown = recipe;
+  grown.hops.push_back(grown.hops[1]);
+  grown.hops.back().amount_unit.clear();
+  grown.hops.back().grams = 2.0 * 28.349523125;
+  CHECK(bine::recipe_to_json(grown)["hops"][3]["amount"] == "2 oz");
+}
+
+TEST_CASE("a recipe in bare canonical numbers is written with canonical units") {
+  const auto recipe = bine::parse_recipe(
+      R"({"batch_volume": 20, "original_gravity": 1.048, "boil_time": 60,
+          "hops": [{"variety": "A", "amount": 22.1, "alpha_acid": 9.5, "use": "boil", "time": 60}]})",
+      "bare.json");
+  const auto json = bine::recipe_to_json(recipe);
+  CHECK(json["batch_volume"] == "20 L");
+  CHECK(json["original_gravity"] == "1.048");
+  CHECK(json["hops"][0]["amount"] == "22.1 g");
+  CHECK(json["hops"][0]["time"] == "60 min");
+}

@@ -113,3 +113,46 @@ TEST_CASE("formatting always carries a unit") {
   CHECK(bine::format_temperature(-18.0, UnitSystem::us) == "0 F");
   CHECK(bine::format_temperature(-0.3, UnitSystem::metric) == "0 C");
 }
+
+TEST_CASE("large US volumes are shown in US beer barrels (1 bbl = 31 US gal)") {
+  using bine::UnitSystem;
+  // 20 hL = 2000 L = 2000 / 3.785411784 = 528.34 gal = 17.04 bbl.
+  CHECK(bine::format_volume(2000.0, UnitSystem::us) == "17.0 bbl");
+  // 31 gal is one barrel; 30 gal stays in gallons.
+  CHECK(bine::format_volume(31.0 * 3.785411784, UnitSystem::us) == "1.00 bbl");
+  CHECK(bine::format_volume(30.0 * 3.785411784, UnitSystem::us) == "30.0 gal");
+}
+
+TEST_CASE("the unit a quantity was written in is kept, and the value is written back in it") {
+  CHECK(parse_quantity("1.5 oz", Dimension::mass).unit == "oz");
+  CHECK(parse_quantity("3 lbs", Dimension::mass).unit == "lb");
+  CHECK(parse_quantity("5.5 Gal", Dimension::volume).unit == "gal");
+  CHECK(parse_quantity("176 F", Dimension::temperature).unit == "F");
+  CHECK(parse_quantity("12.4 P", Dimension::gravity).unit == "P");
+  CHECK(parse_quantity("20", Dimension::volume).unit.empty());
+  // Written back to 10 significant digits in the same unit, the value reads back as written.
+  CHECK(bine::format_in_unit(value_of("5.5 gal", Dimension::volume), Dimension::volume, "gal") == "5.5 gal");
+  CHECK(bine::format_in_unit(value_of("12.4 P", Dimension::gravity), Dimension::gravity, "P") == "12.4 P");
+  CHECK(bine::format_in_unit(value_of("176 F", Dimension::temperature), Dimension::temperature, "F") == "176 F");
+  CHECK(bine::format_in_unit(value_of("0.5 h", Dimension::time), Dimension::time, "h") == "0.5 h");
+  CHECK(bine::format_in_unit(28.349523125 * 1.23, Dimension::mass, "oz") == "1.23 oz");
+  CHECK(bine::format_in_unit(1.0516, Dimension::gravity, "") == "1.0516");
+  CHECK(bine::format_in_unit(20.0, Dimension::volume, "") == "20 L");
+  // Plato shown back as Plato (ASBC cubic, docs/methods.md#plato).
+  CHECK(bine::format_gravity(value_of("12.4 P", Dimension::gravity), "P") == "12.4 P");
+  CHECK(bine::format_gravity(1.052, "") == "1.052");
+}
+
+TEST_CASE("amounts are rounded as a brewer weighs them") {
+  // Common practice: 0.1 g below 100 g, 1 g from 100 g, kg to 1 g, oz and lb to 0.01.
+  CHECK(bine::weighed_grams(22.105, "g") == doctest::Approx(22.1));
+  CHECK(bine::weighed_grams(22.105, "") == doctest::Approx(22.1));
+  CHECK(bine::weighed_grams(110.53, "g") == doctest::Approx(111.0));
+  CHECK(bine::weighed_grams(2345.6, "kg") == doctest::Approx(2346.0));
+  // 54.468 g = 1.9213 oz -> 1.92 oz = 54.431 g.
+  CHECK(bine::weighed_grams(54.468, "oz") == doctest::Approx(1.92 * 28.349523125));
+  // 1000 g = 2.2046 lb -> 2.20 lb = 997.90 g.
+  CHECK(bine::weighed_grams(1000.0, "lb") == doctest::Approx(2.2 * 453.59237));
+  // Never to zero: 0.02 g stays one step.
+  CHECK(bine::weighed_grams(0.02, "g") == doctest::Approx(0.1));
+}

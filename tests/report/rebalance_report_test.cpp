@@ -108,8 +108,10 @@ TEST_CASE("rebalance text: the struct's numbers with units, the absorber named, 
   CHECK(text.find("24.4 IBU") != std::string::npos);
   CHECK(text.find("25.0 IBU") != std::string::npos);  // 24.9551
   CHECK(text.find("1.5 IBU") != std::string::npos);   // 1.4898
-  CHECK(text.find("Addition 1 (Bittering Test, boil 60 min) absorbed the IBU change of +0.51 IBU from the late "
-                  "additions, so the total holds at 26.4 IBU.") != std::string::npos);
+  // The whirlpool went 2.0 -> 1.4898 IBU, a change of -0.51 IBU, which the boil addition made up (+0.51).
+  CHECK(text.find("Addition 1 (Bittering Test, boil 60 min) absorbed the IBU change of -0.51 IBU from the other "
+                  "additions (its own IBU changed by +0.51 IBU), so the total holds at 26.4 IBU.") !=
+        std::string::npos);
   // Short: 39.5234 - 10 = 29.5234 g -> 29.5 g.
   CHECK(text.find("Bittering Test (lot BT-1): need 39.5 g, have 10.0 g, short 29.5 g") != std::string::npos);
   CHECK(text.find("Stock covers every addition") == std::string::npos);

@@ -72,6 +72,7 @@ SwapResult hand_built(SwapPurpose purpose) {
   pair.lots = {"L<1>", "S-2"};
   pair.shares = {0.6049, 0.3951};
   pair.similarity = 91.26;
+  pair.grams_per_gram = {0.6049 * 0.84371, std::nullopt};  // share x the first's factor; the second has none
   r.pairs = {pair};
   return r;
 }
@@ -102,7 +103,11 @@ TEST_CASE("swap text: the struct's numbers at the documented rounding, each with
   // Chemistry ranges with units; the pair's shares 0.6049 / 0.3951 -> 60 % + 40 %, similarity 91.
   CHECK(text.find("8.0-10.0%") != std::string::npos);
   CHECK(text.find("1.0-2.0 mL/100 g") != std::string::npos);
-  CHECK(text.find("First \"Sub\" (L<1>) + Second Sub (S-2)  60 % + 40 %      91/100") != std::string::npos);
+  // Grams per gram of the missing variety: 0.6049 x 0.84371 = 0.5104 -> 0.51 g; the second has no factor.
+  CHECK(text.find("First \"Sub\" (L<1>) + Second Sub (S-2)  60 % + 40 %") != std::string::npos);
+  CHECK(text.find("0.51 g + n/a") != std::string::npos);
+  CHECK(text.find("Per g of Missing <b>&</b> Co") != std::string::npos);
+  CHECK(text.find("91/100") != std::string::npos);
 }
 
 TEST_CASE("swap text in US units gives lb and oz for the amounts on hand") {
@@ -141,6 +146,8 @@ TEST_CASE("swap JSON: canonical units, documented rounding, null for a missing f
   CHECK(second["alpha_today_percent"].is_null());
   CHECK(json["pairs"][0]["shares"] == nlohmann::json::array({0.605, 0.395}));
   CHECK(json["pairs"][0]["similarity"].get<double>() == 91.3);
+  CHECK(json["pairs"][0]["grams_per_gram"][0].get<double>() == doctest::Approx(0.510));  // 0.5104 to 3 places
+  CHECK(json["pairs"][0]["grams_per_gram"][1].is_null());
 }
 
 TEST_CASE("swap HTML escapes every name and holds no script") {
@@ -158,4 +165,24 @@ TEST_CASE("swap HTML escapes every name and holds no script") {
   REQUIRE(box != std::string::npos);
   CHECK(page.find("toxic to dogs", box) != std::string::npos);
   CHECK(page.find("hop creep", box) != std::string::npos);
+}
+
+TEST_CASE("a bittering swap's HTML charts alpha, beta and cohumulone, not aroma") {
+  SwapResult r = hand_built(SwapPurpose::bittering);
+  r.missing.beta_acid = Range{4.0, 5.0};
+  r.missing.cohumulone = Range{30.0, 34.0};
+  r.substitutes[0].variety.cohumulone = Range{20.0, 24.0};
+  const std::string page = swap_html(r, UnitSystem::metric, false);
+  // Bars carry their values: the missing alpha midpoint (6 + 8) / 2 = 7.0 %, beta 4.5 %, cohumulone
+  // 32.0 %; the lot's alpha today 8.2649 -> 8.3 %, its cohumulone midpoint 22.0 %.
+  CHECK(page.find("alpha acid %: 7.0</title>") != std::string::npos);
+  CHECK(page.find("beta acid %: 4.5</title>") != std::string::npos);
+  CHECK(page.find("cohumulone % of alpha: 32.0</title>") != std::string::npos);
+  CHECK(page.find("alpha acid %: 8.3</title>") != std::string::npos);
+  CHECK(page.find("cohumulone % of alpha: 22.0</title>") != std::string::npos);
+  CHECK(page.find("aroma intensity 0-5") == std::string::npos);
+  CHECK(page.find("citrus: ") == std::string::npos);  // no aroma bars
+  // The aroma swap keeps its aroma chart.
+  CHECK(swap_html(hand_built(SwapPurpose::aroma), UnitSystem::metric, false).find("aroma intensity 0-5") !=
+        std::string::npos);
 }

@@ -1,0 +1,109 @@
+// End-to-end (in-process): `bine swap VARIETY --recipe FILE` puts the substitute into the recipe.
+// Fixtures (tests/fixtures/r10-swap-*.json, written for these tests): Fixture Lost (oil midpoint
+// 1.5 mL/100 g) leaves a 20 L pale ale at 1.050 with 20 g of Fixture Charge at 13 % for 60 min, 30 g of
+// Lost at 7 % in an 80 C whirlpool for 20 min and 60 g of Lost as dry hop. Expected values by hand:
+// the oil factor, and Tinseth's formula with Malowicki & Shellhammer's boil-equivalent minutes
+// written out below (docs/methods.md#tinseth, #boil-equivalent-minutes), not bine's functions.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "cli/run_in_process.hpp"
+#include "cli/temp_dir.hpp"
+
+using bine::test::fixture;
+using bine::test::run_cli;
+using nlohmann::json;
+
+namespace {
+
+bine::test::CliRun swap(std::vector<std::string> args) {
+  args.insert(args.begin(), {"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Lost", "--recipe",
+                             fixture("r10-swap-recipe.json")});
+  return run_cli(args);
+}
+
+/// Tinseth IBU of `grams` at `alpha` % in 20 L at 1.050 after `minutes` of boil, pellets (x 1.10).
+double tinseth(double grams, double alpha, double minutes) {
+  const double bigness = 1.65 * std::pow(0.000125, 0.050);
+  const double time = (1.0 - std::exp(-0.04 * minutes)) / 4.15;
+  return bigness * time * 1.10 * alpha / 100.0 * grams * 1000.0 / 20.0;
+}
+
+/// 20 min at 80 C in boil minutes: 20 x exp(-11858 (1/353.15 - 1/373.15)).
+double stand_minutes() { return 20.0 * std::exp(-11858.0 * (1.0 / 353.15 - 1.0 / 373.15)); }
+
+}  // namespace
+
+TEST_CASE("swap --recipe: late additions by the oil factor, the bittering charge holds the total IBU") {
+  const auto run = swap({"--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json doc = json::parse(run.out)["recipe_swap"];
+  CHECK(doc["swapped_in"][0]["variety"] == "Fixture Standin");
+  // Oil factor 1.5 / 2.0 = 0.75: whirlpool 30 -> 22.5 g, dry hop 60 -> 45.0 g.
+  CHECK(doc["additions"][1]["grams_after"].get<double>() == doctest::Approx(22.5));
+  CHECK(doc["additions"][2]["grams_after"].get<double>() == doctest::Approx(45.0));
+  CHECK(doc["additions"][1]["variety_after"] == "Fixture Standin");
+  // The whirlpool's IBU goes from 30 g at 7 % to 22.5 g at 10 %; the 60-minute charge gives up the
+  // difference: 20 g - (after - before) / (IBU per gram of the charge), weighed to 0.1 g.
+  const double before = tinseth(30.0, 7.0, stand_minutes());
+  const double after = tinseth(22.5, 10.0, stand_minutes());
+  const double per_gram = tinseth(1.0, 13.0, 60.0);
+  const double charge = 20.0 - (after - before) / per_gram;
+  CHECK(std::abs(doc["additions"][0]["grams_after"].get<double>() - charge) <= 0.05 + 1e-9);
+  CHECK(doc["absorbed_by"] == 1);
+  // Total held within the charge's weighing (0.05 g x IBU per gram).
+  CHECK(std::abs(doc["total_ibu_after"].get<double>() - doc["total_ibu_before"].get<double>()) <=
+        0.05 * per_gram + 1e-3);
+  CHECK(doc["total_ibu_before"].get<double>() == doctest::Approx(tinseth(20.0, 13.0, 60.0) + before).epsilon(1e-4));
+}
+
+TEST_CASE("swap --recipe --stock checks each lot against what the recipe needs and picks one that covers") {
+  const bine::test::TempDir dir;
+  const auto out = dir.path() / "swapped.json";
+  const auto run =
+      swap({"--stock", fixture("r10-swap-stock.json"), "--on", "2026-12-01", "--json", "--write", out.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json doc = json::parse(run.out)["recipe_swap"];
+  // Lot SI-1 of Fixture Standin (oil 2.0) would need 22.5 + 45.0 = 67.5 g and has 50 g; lot FA-1 of
+  // Fixture Far (oil 1.2) needs 30 x 1.25 + 60 x 1.25 = 37.5 + 75.0 = 112.5 g of its 500 g.
+  bool standin = false;
+  for (const auto& c : doc["coverage"])
+    if (c["substitute"] == "Fixture Standin (SI-1)") {
+      standin = true;
+      CHECK(c["needed_g"].get<double>() == doctest::Approx(67.5));
+      CHECK(c["covers"] == false);
+    }
+  CHECK(standin);
+  CHECK(doc["swapped_in"][0]["lot"] == "FA-1");
+  CHECK(doc["additions"][1]["grams_after"].get<double>() == doctest::Approx(37.5));
+  CHECK(doc["additions"][2]["grams_after"].get<double>() == doctest::Approx(75.0));
+  CHECK(doc["shortfalls"].empty());
+  // The written recipe names the lot and reads back at the reported total.
+  const json written = json::parse(bine::test::slurp(out));
+  CHECK(written["hops"][1]["variety"] == "Fixture Far");
+  CHECK(written["hops"][1]["lot"] == "FA-1");
+  const auto reread = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "ibu", "--json", out.string()});
+  REQUIRE(reread.status == 0);
+  CHECK(std::abs(json::parse(reread.out)["total_ibu"].get<double>() - doc["total_ibu_after"].get<double>()) <= 1e-3);
+  // --pick 1 takes the short lot and says how short: 67.5 - 50 = 17.5 g.
+  const auto picked = swap({"--stock", fixture("r10-swap-stock.json"), "--on", "2026-12-01", "--pick", "1"});
+  REQUIRE(picked.status == 0);
+  CHECK(picked.out.find("Fixture Standin (lot SI-1): need 67.5 g, have 50.0 g, short 17.5 g") != std::string::npos);
+}
+
+TEST_CASE("swap --pick, --pair and --write need --recipe; --pick and --pair exclude each other") {
+  CHECK(run_cli({"swap", "Tidewell", "--pick", "2"}).status == 2);
+  CHECK(run_cli({"swap", "Tidewell", "--write", "x.json"}).status == 2);
+  CHECK(swap({"--pick", "1", "--pair", "1"}).status == 2);
+  // A recipe without the missing variety: bad input naming the recipe.
+  const auto other = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Far", "--recipe",
+                              fixture("r10-swap-recipe.json")});
+  CHECK(other.status == 2);
+  CHECK(other.err.find("r10-swap-recipe.json: /hops: the recipe does not use Fixture Far") != std::string::npos);
+}
