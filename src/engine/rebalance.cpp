@@ -222,7 +222,7 @@ std::vector<Shortfall> shortfalls(const std::vector<RebalancedAddition>& rows,
 
 /// The total must really hold before anything says so: a lot whose alpha has aged to almost nothing
 /// gives (almost) no IBU per gram, and no amount of it holds the total. Within 0.05 IBU + 0.5 %.
-void check_total_held(const RebalanceResult& result, const std::vector<ReplacementLot>& lots) {
+void check_total_held(const RebalanceResult& result, const std::vector<const ReplacementLot*>& lots) {
   const double before = result.before.total_ibu;
   const double after = result.after.total_ibu;
   if (!std::isfinite(before))
@@ -231,8 +231,8 @@ void check_total_held(const RebalanceResult& result, const std::vector<Replaceme
         "nothing is computed from it");
   if (std::isfinite(after) && std::abs(after - before) <= 0.05 + 0.005 * before) return;
   const ReplacementLot* weakest = nullptr;
-  for (const auto& lot : lots)
-    if (weakest == nullptr || lot.alpha_percent < weakest->alpha_percent) weakest = &lot;
+  for (const ReplacementLot* lot : lots)
+    if (lot != nullptr && (weakest == nullptr || lot->alpha_percent < weakest->alpha_percent)) weakest = lot;
   std::string why;
   if (weakest != nullptr)
     why = fmt::format(" ({}{} has {:.2f} % alpha acid{})", weakest->variety,
@@ -275,7 +275,7 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
                                                   b.alpha_percent, a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
                                                   w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
   }
-  check_total_held(result, lots);
+  check_total_held(result, lot_of);
   result.recipe_after = std::move(w.after);
   // 4. Stock shortfalls.
   result.shortfalls = shortfalls(result.additions, lot_of);
