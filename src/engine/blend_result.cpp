@@ -41,6 +41,18 @@ void add_parts(const BlendRequest& request, const BestBlend& best, BlendResult& 
                    [](const BlendPart& l, const BlendPart& r) { return l.oil_share > r.oil_share; });
 }
 
+/// What is left of the bittering charge's lot once the charge and every blend part drawn from the
+/// same lot are taken; each such part shows the lot as left after it.
+void bittering_lot_left(const BitteringHop& bittering, BlendResult& result) {
+  double left = *bittering.on_hand_g - result.bittering_grams;
+  for (auto& part : result.parts)
+    if (!bittering.lot.empty() && part.lot == bittering.lot) {
+      left -= part.grams;
+      part.left_g = left;
+    }
+  result.bittering_left_g = left;
+}
+
 /// b = (T - K - late IBU) / u_b, and what is left of its lot after the charge and any blend part
 /// from the same lot.
 void add_bittering_charge(const BlendRequest& request, const Prepared& prepared, BlendResult& result) {
@@ -50,13 +62,7 @@ void add_bittering_charge(const BlendRequest& request, const Prepared& prepared,
       0.0, (request.plan.ibu.target_ibu - request.plan.ibu.kept_ibu - result.late_ibu) / prepared.bittering_per_gram);
   result.bittering_ibu = result.bittering_grams * prepared.bittering_per_gram;
   if (!bittering->on_hand_g) return;
-  double left = *bittering->on_hand_g - result.bittering_grams;
-  for (auto& part : result.parts)
-    if (!bittering->lot.empty() && part.lot == bittering->lot) {
-      left -= part.grams;
-      part.left_g = left;
-    }
-  result.bittering_left_g = left;
+  bittering_lot_left(*bittering, result);
 }
 
 /// Stock left of each lot once every part and the charge are taken.
@@ -66,13 +72,7 @@ void stock_left(const BlendRequest& request, BlendResult& result) {
   result.bittering_left_g.reset();
   const std::optional<BitteringHop>& bittering = request.plan.bittering;
   if (!bittering || !bittering->on_hand_g) return;
-  double left = *bittering->on_hand_g - result.bittering_grams;
-  for (auto& part : result.parts)
-    if (!bittering->lot.empty() && part.lot == bittering->lot) {
-      left -= part.grams;
-      part.left_g = left;
-    }
-  result.bittering_left_g = left;
+  bittering_lot_left(*bittering, result);
 }
 
 }  // namespace
