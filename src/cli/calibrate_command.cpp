@@ -67,8 +67,7 @@ std::vector<CalibrationBatch> model_batches(const BatchLog& log, const Catalog& 
       std::vector<std::string> stock_notes;
       // The beer was brewed with what was in the cold store, stale or not.
       const Cellar cellar = age_cellar(load_stock(*logged.stock), catalog, logged.brewed);
-      const auto lots = lots_from_stock(recipe, cellar, /*allow_stale=*/true, stock_notes);
-      recipe = recipe_as_brewed(recipe, lots);
+      recipe = recipe_as_brewed(recipe, cellar, stock_notes);
       for (const auto& note : stock_notes) notes.push_back(fmt::format("{}: {}", logged.where, note));
     }
     const RecipeBitterness bitterness = recipe_bitterness(recipe, catalog, settings);

@@ -4,6 +4,7 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "engine/lot_allocation.hpp"
 #include "io/loaders.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
@@ -16,6 +17,7 @@ struct CatalogOptions {
   bool json = false;
   std::string name;
   std::vector<std::string> files;
+  std::string stock;  // check: where the lots recipes name are looked up (besides stock files checked)
 };
 
 void run_list(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
@@ -33,18 +35,50 @@ void run_show(const Console& console, const GlobalOptions& globals, const Catalo
       [&](std::ostream& out) { render_variety(out, variety, data.lexicon); });
 }
 
+/// The lots the recipes name, looked up in the stock files (a lot-only addition needs one).
+void check_named_lots(const std::vector<std::string>& recipes, const std::vector<std::string>& stocks,
+                      std::vector<std::string>& problems) {
+  std::vector<Lot> lots;
+  for (const auto& file : stocks) {
+    try {
+      const Stock stock = load_stock(file);
+      lots.insert(lots.end(), stock.lots.begin(), stock.lots.end());
+    } catch (const InputError& error) {
+      problems.insert(problems.end(), error.lines().begin(), error.lines().end());
+    }
+  }
+  for (const auto& file : recipes) {
+    try {
+      const Recipe recipe = load_recipe(file);
+      if (stocks.empty())
+        require_stock_for_lot_only(recipe);
+      else
+        with_lot_varieties(recipe, lots, fmt::format("{}", fmt::join(stocks, ", ")));
+    } catch (const InputError& error) {
+      for (const auto& line : error.lines())
+        problems.push_back(stocks.empty() ? line + " (give --stock FILE, or check the stock file with it)" : line);
+    }
+  }
+}
+
 void run_check(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   // The lexicon is needed to check aroma axes; the catalogs themselves are not loaded.
   const Lexicon lexicon = load_lexicon(resolve_data_dir(globals.data) / "lexicon.json");
   std::vector<std::string> problems;
+  std::vector<std::string> recipes;
+  std::vector<std::string> stocks;
+  if (!options.stock.empty()) stocks.push_back(options.stock);
   for (const auto& file : options.files) {
     try {
       const FileKind kind = check_file(file, lexicon);
+      if (kind == FileKind::recipe) recipes.push_back(file);
+      if (kind == FileKind::stock && file != options.stock) stocks.push_back(file);
       console.out << fmt::format("{}: ok ({})\n", file, to_string(kind));
     } catch (const InputError& error) {
       problems.insert(problems.end(), error.lines().begin(), error.lines().end());
     }
   }
+  check_named_lots(recipes, stocks, problems);
   if (!problems.empty()) throw InputError(problems);
 }
 
@@ -71,6 +105,8 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
 
   auto* check = catalog->add_subcommand("check", "validate catalog, stock, recipe or lexicon files");
   check->add_option("FILE", options->files, "files to check")->required();
+  check->add_option("--stock", options->stock,
+                    "look up the lots recipes name in this stock file (stock files among FILE count too)");
   commands.add(check, [&globals, options](const Console& console) { run_check(console, globals, *options); });
 }
 

@@ -1,6 +1,6 @@
 #pragma once
 // The options that say how the cold store is read on the brew day (--on, --stale-below,
-// --allow-stale), bound and read the same way by every command that takes a stock file, and the one
+// --allow-stale, --lot-order), bound and read the same way by every command that takes a stock file, and the one
 // place a stock file becomes a Cellar (engine/cellar.hpp).
 #include <CLI/CLI.hpp>
 #include <string>
@@ -14,6 +14,7 @@ struct CellarOptions {
   std::string on;
   std::string stale_below;
   bool allow_stale = false;
+  std::string lot_order = "oldest";
 };
 
 /// What the options give.
@@ -23,7 +24,7 @@ struct CellarChoice {
   bool allow_stale = false;
 };
 
-/// Adds --on, --stale-below and --allow-stale to `command`. `allow_stale_option`: whether the
+/// Adds --on, --stale-below, --lot-order and --allow-stale to `command`. `allow_stale_option`: whether the
 /// command leaves stale lots out (blend, rebalance) and so offers --allow-stale.
 void add_cellar_options(CLI::App* command, CellarOptions& options, bool allow_stale_option);
 
@@ -32,6 +33,9 @@ CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& opti
 
 /// The stock file aged to the brew day.
 Cellar load_cellar(const std::string& stock_file, const Catalog& catalog, const CellarChoice& choice);
+
+/// The stock file: `option` if given, else $BINE_STOCK; InputError when neither.
+std::string stock_file_or_env(const std::string& option);
 
 /// "lots aged to 2026-12-01 (today; pass --on DATE to reproduce)": the line every stock output prints.
 std::string brew_day_line(const CellarChoice& choice);

@@ -1,14 +1,17 @@
 // bine ibu RECIPE: the recipe's bitterness, addition by addition, with BU:GU.
 #include <fmt/format.h>
 
+#include <cstdlib>
 #include <memory>
 
 #include "cli/bitterness_options.hpp"
+#include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
 #include "engine/ibu_interval.hpp"
+#include "engine/lot_allocation.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "io/limits.hpp"
 #include "io/recipe_file.hpp"
@@ -23,6 +26,8 @@ struct IbuOptions {
   RecipeFileOptions recipe_file;
   BitternessOptions bitterness;
   std::string alpha_tolerance;
+  std::string stock;
+  CellarOptions cellar;
   bool json = false;
   std::string html;
 };
@@ -32,6 +37,8 @@ struct IbuArgs {
   BeerXmlReadOptions recipe_file;
   BitternessSettings settings;
   double alpha_tolerance = kDefaultCertificateTolerancePercent;
+  std::string stock;  // the stock file the recipe's named lots are looked up in (may be empty)
+  CellarChoice cellar;
   bool json = false;
   std::string html;
 };
@@ -47,7 +54,9 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   if (auto tolerance = reader.optional_quantity("--alpha-tolerance", options.alpha_tolerance, Dimension::percent,
                                                 limits::alpha_tolerance))
     args.alpha_tolerance = *tolerance;
+  args.cellar = read_cellar_options(reader, options.cellar);
   reader.throw_if_any();
+  if (!options.stock.empty() || std::getenv("BINE_STOCK") != nullptr) args.stock = stock_file_or_env(options.stock);
   return args;
 }
 
@@ -55,12 +64,19 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   // 1. Load: the catalogs (alpha midpoints for additions without alpha) and the recipe.
   const DataSet data = load_data(globals, console);
   const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
-  const Recipe& recipe = file.recipe;
+  // The lots the recipe names, looked up in the stock (a lot-only addition takes its variety there).
+  std::vector<std::string> lot_notes;
+  Recipe recipe = file.recipe;
+  if (args.stock.empty())
+    require_stock_for_lot_only(recipe);
+  else
+    recipe = with_named_lots(recipe, load_cellar(args.stock, data.catalog, args.cellar), lot_notes);
   // 2. Compute every addition.
   RecipeBitterness bitterness = [&] {
     const auto timer = console.time("bitterness");
     return recipe_bitterness(recipe, data.catalog, args.settings);
   }();
+  bitterness.notes.insert(bitterness.notes.begin(), lot_notes.begin(), lot_notes.end());
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
   const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance);
   // 3. Render.
@@ -81,6 +97,9 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   add_recipe_file_options(ibu, options->recipe_file);
   ibu->add_option("--alpha-tolerance", options->alpha_tolerance,
                   "a certificate's alpha tolerance, +- % of the value, read as a 90 % range (default 5 %)");
+  ibu->add_option("--stock", options->stock,
+                  "look up the lots the recipe names in this stock file (default: $BINE_STOCK, if set)");
+  add_cellar_options(ibu, options->cellar, false);
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
   add_html_option(ibu, options->html);
   ibu->footer(
@@ -91,6 +110,7 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
       "  bine --units us ibu hazy-ipa.json --json\n"
       "  bine ibu their-recipe.xml --recipe-name \"Harbour Pale\" --whirlpool-temp 85C\n"
       "  bine ibu pale-ale.json --html pale-ale.html     # brew-day sheet to print\n"
+      "  bine ibu pale-ale.json --stock stock.json --on 2026-12-01   # lots the recipe names looked up there\n"
       "Whirlpool additions count their boil-equivalent minutes (Malowicki & Shellhammer 2005);\n"
       "a recipe \"hop_stand\" adds its boil-equivalent minutes to boil and first-wort additions.\n"
       "Every IBU comes with its 90 % interval (alpha range or certificate tolerance, brewhouse factor).");

@@ -13,6 +13,7 @@
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
 #include "engine/rebalance.hpp"
+#include "engine/stock_rebalance.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
@@ -143,23 +144,27 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
   // 1. Load: catalogs, the recipe, and the lots (named, or from the stock file aged to brew day).
   const DataSet data = load_data(globals, console);
   const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
-  const Recipe& recipe = file.recipe;
+  Recipe recipe = file.recipe;
   RebalanceContext context;
   context.on = args.cellar.on.date;
   context.on_from_clock = args.cellar.on.from_clock;
   context.from_stock = !args.stock.empty();
-  std::vector<std::string> stock_notes;
-  if (context.from_stock)
-    context.lots = lots_from_stock(recipe, load_cellar(args.stock, data.catalog, args.cellar), args.cellar.allow_stale,
-                                   stock_notes);
-  else
-    context.lots = lots_for_recipe(args.lots, recipe);
-  // 2. Rebalance.
-  RebalanceResult result = [&] {
+  // 2. Rebalance (from stock: each addition's lots chosen by the cellar's lot order, split where one
+  //    lot has too little).
+  RebalanceResult result;
+  if (context.from_stock) {
+    const Cellar cellar = load_cellar(args.stock, data.catalog, args.cellar);
     const auto timer = console.time("rebalance");
-    return rebalance(recipe, context.lots, data.catalog, args.settings, Weighing::as_weighed);
-  }();
-  result.notes.insert(result.notes.begin(), stock_notes.begin(), stock_notes.end());
+    StockRebalance stocked = rebalance_from_stock(recipe, cellar, data.catalog, args.settings, Weighing::as_weighed);
+    context.lots = std::move(stocked.lots);
+    recipe = std::move(stocked.recipe);
+    result = std::move(stocked.result);
+  } else {
+    require_stock_for_lot_only(recipe);
+    context.lots = lots_for_recipe(args.lots, recipe);
+    const auto timer = console.time("rebalance");
+    result = rebalance(recipe, context.lots, data.catalog, args.settings, Weighing::as_weighed);
+  }
   result.notes.insert(result.notes.begin(), file.notes.begin(), file.notes.end());
   // 3. Check the result by the recipe loader's bounds (nothing is shown or written otherwise), save
   //    it if asked, then render.
@@ -185,7 +190,7 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
                                        "holding the recipe's IBU");
   rebalance->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   rebalance->add_option("--lot", options->lots, "a lot to brew with: VARIETY=ALPHA%[,oil=ML] (repeatable)");
-  rebalance->add_option("--stock", options->stock, "take each variety's lot from this stock file (most on hand)");
+  rebalance->add_option("--stock", options->stock, "take the lots from this stock file (named lots, else --lot-order)");
   add_cellar_options(rebalance, options->cellar, true);
   add_bitterness_options(rebalance, options->bitterness);
   add_recipe_file_options(rebalance, options->recipe_file);

@@ -44,6 +44,8 @@ std::string_view remedy_text(Remedy remedy) {
       return "trim the recipe's other boil additions";
     case Remedy::bittering_with_alpha:
       return "give --bittering with a variety that has alpha acid data";
+    case Remedy::give_stock_file:
+      return "give --stock FILE or set BINE_STOCK";
   }
   return "";
 }

@@ -13,6 +13,7 @@
 #include <algorithm>
 
 #include "engine/blend.hpp"
+#include "engine/lot_allocation.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -20,13 +21,11 @@
 namespace bine {
 namespace {
 
-/// The addition's lot: the one it names, else the first of its variety on hand.
+/// The addition's lot: the one it names, else the first its variety's lots are taken in
+/// (engine/lot_allocation.hpp: oldest packaging or most on hand first, stale lots left out unless allowed).
 const CellarLot* lot_for(const HopAddition& hop, const Cellar* cellar) {
   if (cellar == nullptr) return nullptr;
-  if (!hop.lot.empty()) return cellar->find(hop.lot);
-  for (const CellarLot* lot : cellar->lots_of(hop.variety))
-    if (lot->on_hand()) return lot;
-  return nullptr;
+  return first_lot(hop, *cellar, allocation_of(*cellar));
 }
 
 /// The alpha on the brew day of the lot the charge is drawn from, else the addition's own.
@@ -35,7 +34,7 @@ std::optional<double> charge_alpha(const HopAddition& hop, const Catalog& catalo
   return addition_alpha(hop, catalog, cellar);
 }
 
-/// The charge from a variety the brewer named: its first lot on hand, else the catalog's values.
+/// The charge from a variety the brewer named: its first lot in order, else the catalog's values.
 BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, const Cellar* cellar, double minutes) {
   const Variety& known = require_variety(catalog, named.name, named.named_by);
   HopAddition probe;

@@ -107,7 +107,7 @@ struct BlendPlan {
 };
 
 /// The alpha acid of a recipe addition: its own value, else its lot's (or the first lot of its variety
-/// on hand) on the cellar's brew day, else the catalog midpoint. nullopt when none is known.
+/// in lot order) on the cellar's brew day, else the catalog midpoint. nullopt when none is known.
 std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar);
 
 /// Plans a blend for `recipe` (or, without one, for the wort the choices describe). Throws

@@ -22,6 +22,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "engine/lot_allocation.hpp"
 #include "engine/statistics.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -151,14 +152,31 @@ CalibrationBatch calibration_batch(const RecipeBitterness& bitterness, std::stri
   return batch;
 }
 
-Recipe recipe_as_brewed(const Recipe& recipe, const std::vector<ReplacementLot>& lots) {
-  Recipe brewed = recipe;
-  for (auto& hop : brewed.hops)
-    for (const auto& lot : lots)
-      if (!hop.variety.empty() && fold_name(hop.variety) == fold_name(lot.variety)) {
-        hop.alpha_acid = lot.alpha_percent;
-        if (lot.form) hop.form = lot.form;
-      }
+Recipe recipe_as_brewed(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes) {
+  Recipe written = with_named_lots(recipe, cellar, notes);
+  AllocationSettings settings = allocation_of(cellar);
+  settings.allow_stale = true;
+  // What was weighed is the grams as written: each lot gives one gram per gram.
+  const std::vector<LotDemand> demands(written.hops.size(), LotDemand{0.0, [](const CellarLot&) { return 1.0; }});
+  std::vector<LotDemand> by_grams = demands;
+  for (std::size_t i = 0; i < written.hops.size(); ++i) by_grams[i].effect = written.hops[i].grams;
+  const LotAllocation allocation = allocate_lots(written, cellar, by_grams, settings);
+  notes.insert(notes.end(), allocation.notes.begin(), allocation.notes.end());
+  Recipe brewed = written;
+  brewed.hops.clear();
+  for (const auto& a : allocation.additions) {
+    const HopAddition& hop = written.hops[a.index];
+    if (a.parts.empty()) brewed.hops.push_back(hop);
+    for (const auto& part : a.parts) {
+      const CellarLot& lot = cellar.lots[part.lot];
+      HopAddition piece = hop;
+      piece.grams = part.grams;
+      piece.lot = lot.code;
+      piece.alpha_acid = lot.alpha_today;
+      piece.form = lot.lot.form;
+      brewed.hops.push_back(piece);
+    }
+  }
   return brewed;
 }
 

@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "engine/cellar.hpp"
 #include "engine/rebalance.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/brewhouse.hpp"
@@ -81,9 +82,10 @@ BrewhouseProfile profile_from(const Calibration& calibration, const BitternessSe
 /// ones (whirlpool and flame-out, engine/bitterness.hpp is_late_addition).
 CalibrationBatch calibration_batch(const RecipeBitterness& bitterness, std::string label, double lab_ibu);
 
-/// The recipe as it was brewed: each addition of a variety with a stock lot takes that lot's alpha
-/// (aged to the brew day) and form.
-Recipe recipe_as_brewed(const Recipe& recipe, const std::vector<ReplacementLot>& lots);
+/// The recipe as it was brewed from `cellar` (aged to the brew day): the grams as written, weighed
+/// from the lots the one allocation rule gives (engine/lot_allocation.hpp, stale lots included: the
+/// beer was brewed with them), each part at its lot's alpha and form.
+Recipe recipe_as_brewed(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes);
 
 /// Robust deviation multiple beyond which a batch is flagged (3, docs/methods.md#calibration-outliers).
 inline constexpr double kOutlierDeviations = 3.0;

@@ -14,12 +14,18 @@
 
 namespace bine {
 
+/// Which lot of a variety an addition is weighed from first (engine/lot_allocation.hpp): the oldest
+/// packaging (use stock before it ages) or the most on hand.
+enum class LotOrder { oldest, most };
+
 /// How lots are judged and taken.
 struct CellarSettings {
   double stale_below = 0.75;                  // a lot with less than this share of its certificate alpha is stale
   double oxidised_hsi = 0.45;                 // an HSI above this marks the lot oxidised (stale)
   double ageing_hsi = 0.30;                   // from here up to oxidised_hsi: ageing (a word only)
   double default_stability = kStabilityFair;  // % left after 6 months when the variety gives none
+  LotOrder lot_order = LotOrder::oldest;      // which lot of a variety is taken first
+  bool allow_stale = false;                   // stale lots may be taken (else left out)
 };
 
 /// Where a lot's alpha on the brew day comes from.

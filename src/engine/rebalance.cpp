@@ -77,6 +77,14 @@ std::string_view to_string(RebalanceRule rule) {
   return "";
 }
 
+std::optional<double> oil_written_for(const HopAddition& hop, const Catalog& catalog, bool& from_catalog) {
+  if (hop.total_oil) return hop.total_oil;
+  const Variety* variety = find_variety(catalog, hop.variety);
+  if (variety == nullptr || !variety->total_oil) return std::nullopt;
+  from_catalog = true;
+  return variety->total_oil->mid();
+}
+
 bool recipe_uses_variety(const Recipe& recipe, std::string_view variety) {
   const std::string wanted = fold_name(variety);
   return std::any_of(recipe.hops.begin(), recipe.hops.end(),
@@ -92,15 +100,6 @@ struct Working {
   std::vector<std::optional<double>> oil_before;
   std::vector<std::optional<double>> oil_after;
 };
-
-/// The oil an addition was written for: the recipe's own record, else the catalog midpoint.
-std::optional<double> oil_written_for(const HopAddition& hop, const Catalog& catalog, bool& from_catalog) {
-  if (hop.total_oil) return hop.total_oil;
-  const Variety* variety = find_variety(catalog, hop.variety);
-  if (variety == nullptr || !variety->total_oil) return std::nullopt;
-  from_catalog = true;
-  return variety->total_oil->mid();
-}
 
 /// Step 1, each addition on its own: the boil side holds its IBU, late hops their oil (else grams).
 /// A boil addition's IBU per gram is proportional to alpha x form factor at any time, so the ratio
@@ -203,23 +202,6 @@ void hold_total(const RecipeBitterness& before, const Catalog& catalog, const Bi
   result.absorber = *absorber;
 }
 
-/// Step 4: everything drawn from one lot against what it has on hand.
-std::vector<Shortfall> shortfalls(const std::vector<RebalancedAddition>& rows,
-                                  const std::vector<const ReplacementLot*>& lot_of) {
-  std::vector<std::pair<const ReplacementLot*, double>> needed;  // in the order the lots are first used
-  for (const auto& row : rows) {
-    const ReplacementLot* lot = lot_of[row.index];
-    if (lot == nullptr || !lot->on_hand_g) continue;
-    auto it = std::find_if(needed.begin(), needed.end(), [&](const auto& entry) { return entry.first == lot; });
-    if (it == needed.end()) it = needed.insert(needed.end(), {lot, 0.0});
-    it->second += row.grams_after;
-  }
-  std::vector<Shortfall> found;
-  for (const auto& [lot, grams] : needed)
-    if (grams > *lot->on_hand_g + 1e-9) found.push_back(Shortfall{lot->variety, lot->lot_code, grams, *lot->on_hand_g});
-  return found;
-}
-
 /// The total must really hold before anything says so: a lot whose alpha has aged to almost nothing
 /// gives (almost) no IBU per gram, and no amount of it holds the total. Within 0.05 IBU + 0.5 %.
 void check_total_held(const RebalanceResult& result, const std::vector<const ReplacementLot*>& lots) {
@@ -247,6 +229,22 @@ void check_total_held(const RebalanceResult& result, const std::vector<const Rep
 
 }  // namespace
 
+std::vector<Shortfall> shortfalls(const std::vector<RebalancedAddition>& rows,
+                                  const std::vector<const ReplacementLot*>& lot_of, double batches) {
+  std::vector<std::pair<const ReplacementLot*, double>> needed;  // in the order the lots are first used
+  for (const auto& row : rows) {
+    const ReplacementLot* lot = lot_of[row.index];
+    if (lot == nullptr || !lot->on_hand_g) continue;
+    auto it = std::find_if(needed.begin(), needed.end(), [&](const auto& entry) { return entry.first == lot; });
+    if (it == needed.end()) it = needed.insert(needed.end(), {lot, 0.0});
+    it->second += row.grams_after * batches;
+  }
+  std::vector<Shortfall> found;
+  for (const auto& [lot, grams] : needed)
+    if (grams > *lot->on_hand_g + 1e-9) found.push_back(Shortfall{lot->variety, lot->lot_code, grams, *lot->on_hand_g});
+  return found;
+}
+
 RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot>& lots, const Catalog& catalog,
                           const BitternessSettings& settings, Weighing weighing) {
   std::vector<const ReplacementLot*> lot_of;
@@ -273,7 +271,9 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
     const AdditionLine& a = result.after.additions[k];
     result.additions.push_back(RebalancedAddition{b.index, b.variety, a.variety, b.use, b.grams, a.grams,
                                                   b.alpha_percent, a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
-                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
+                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index],
+                                                  lot_of[b.index] != nullptr ? lot_of[b.index]->lot_code
+                                                                             : w.after.hops[b.index].lot});
   }
   check_total_held(result, lot_of);
   result.recipe_after = std::move(w.after);
@@ -284,78 +284,6 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
         "late additions hold the oil they deliver; where the recipe records no total_oil it is taken as written "
         "for the catalog midpoint of the variety's total oil");
   return result;
-}
-
-namespace {
-
-/// A stock lot as the lot rebalancing brews with.
-ReplacementLot replacement_from(const std::string& variety, const CellarLot& c, std::size_t count) {
-  ReplacementLot lot;
-  lot.variety = variety;
-  lot.lot_code = c.code;
-  lot.form = c.lot.form;
-  lot.total_oil = c.lot.total_oil;
-  lot.on_hand_g = c.lot.on_hand_g;
-  lot.certificate_alpha = c.lot.alpha_acid;
-  lot.packaged = c.lot.packaged;
-  lot.storage = c.lot.storage;
-  lot.lots_of_variety = count;
-  lot.alpha_percent = *c.alpha_today;
-  lot.days = c.days;
-  lot.remaining = c.remaining;
-  lot.stability_percent = c.stability_percent;
-  lot.stability_source = c.stability_source;
-  lot.alpha_note = c.alpha_note;
-  lot.hsi_note = c.hsi_note;
-  lot.aged = c.basis == AlphaBasis::aged;
-  lot.stale = c.stale;
-  lot.stale_reason = c.stale_reason;
-  return lot;
-}
-
-}  // namespace
-
-std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& cellar, bool allow_stale,
-                                            std::vector<std::string>& notes) {
-  std::vector<ReplacementLot> chosen;
-  std::vector<std::string> spent;  // lots aged below any hop's alpha
-  std::vector<std::string> seen;
-  for (const auto& hop : recipe.hops) {
-    if (hop.variety.empty()) continue;
-    const std::string folded = fold_name(hop.variety);
-    if (std::find(seen.begin(), seen.end(), folded) != seen.end()) continue;
-    seen.push_back(folded);
-    const CellarLot* best = nullptr;
-    std::size_t count = 0;
-    for (const CellarLot* c : cellar.lots_of(hop.variety)) {
-      if (!c->lot.alpha_acid) continue;
-      if (c->stale && !allow_stale) {
-        notes.push_back(fmt::format("lot {} of {} is stale ({}); left out", c->code, hop.variety, c->stale_reason));
-        continue;
-      }
-      ++count;
-      if (best == nullptr || c->lot.on_hand_g.value_or(0.0) > best->lot.on_hand_g.value_or(0.0)) best = c;
-    }
-    if (best == nullptr) {
-      notes.push_back(fmt::format(
-          "no usable stock lot of {} with a certificate alpha; its additions are kept as written", hop.variety));
-      continue;
-    }
-    // Nothing is computed from an alpha below what any hop keeps (the loaders' bound): such a lot
-    // would need tonnes to bitter, or round to no IBU at all.
-    if (*best->alpha_today < limits::alpha_acid.min)
-      spent.push_back(fmt::format(
-          "{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): below the "
-          "{} % any hop keeps, too little to brew with",
-          cellar.source_file, best->code, hop.variety, *best->alpha_today, format_date(cellar.on),
-          *best->lot.alpha_acid, best->days, limits::alpha_acid.min));
-    if (best->basis != AlphaBasis::aged)
-      notes.push_back(
-          fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", best->code));
-    chosen.push_back(replacement_from(hop.variety, *best, count));
-  }
-  if (!spent.empty()) throw Infeasible(spent.front(), {Remedy::add_stock});
-  return chosen;
 }
 
 }  // namespace bine

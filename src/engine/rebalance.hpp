@@ -33,7 +33,8 @@ struct ReplacementLot {
   bool aged = false;             // alpha aged from packaging to the brew day
   bool stale = false;            // allowed in although stale
   std::string stale_reason;
-  std::size_t lots_of_variety = 1;  // lots of this variety in stock; the largest is chosen
+  std::size_t lots_of_variety = 1;  // usable lots of this variety in stock
+  std::string chosen;               // why this lot: "named in the recipe", "oldest packaging of 2 lots" ...
 };
 
 /// What happened to one addition.
@@ -54,6 +55,9 @@ struct RebalancedAddition {
   std::optional<double> oil_before;  // mL/100 g the recipe was written for (catalog midpoint)
   std::optional<double> oil_after;
   RebalanceRule rule = RebalanceRule::unchanged;
+  std::string lot;         // the lot it is weighed from, if known
+  std::size_t part = 1;    // a split addition: this row is part `part` of `parts` of addition `index`
+  std::size_t parts = 1;
 };
 
 struct Shortfall {
@@ -92,9 +96,12 @@ RebalanceResult rebalance(const Recipe& recipe, const std::vector<ReplacementLot
 RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<const ReplacementLot*>& lot_of,
                                     const Catalog& catalog, const BitternessSettings& settings, Weighing weighing);
 
-/// For each variety the recipe uses, the cellar lot with most on hand, its alpha on the cellar's brew
-/// day; stale lots are left out (and noted) unless `allow_stale`.
-std::vector<ReplacementLot> lots_from_stock(const Recipe& recipe, const Cellar& cellar, bool allow_stale,
-                                            std::vector<std::string>& notes);
+/// The oil (mL/100 g) an addition was written for: the recipe's own record, else the catalog
+/// midpoint of its variety's total oil (`from_catalog` set then); nullopt when neither is known.
+std::optional<double> oil_written_for(const HopAddition& hop, const Catalog& catalog, bool& from_catalog);
+
+/// Stock shortfalls of `rows` (additions of a recipe weighed from `lot_of`), for `batches` batches.
+std::vector<Shortfall> shortfalls(const std::vector<RebalancedAddition>& rows,
+                                  const std::vector<const ReplacementLot*>& lot_of, double batches = 1.0);
 
 }  // namespace bine

@@ -30,6 +30,7 @@ RecipeBitterness recipe_bitterness(const Recipe& recipe, const Catalog& catalog,
     AdditionLine line;
     line.index = i;
     line.variety = hop.variety.empty() ? hop.lot : hop.variety;
+    line.lot = hop.lot;
     line.use = hop.use;
     line.minutes = hop.minutes;
     line.temperature_c = hop.temperature_c;

@@ -17,6 +17,7 @@ enum class AlphaSource { recipe, catalog_midpoint, none };
 struct AdditionLine {
   std::size_t index = 0;  // position in recipe.hops
   std::string variety;    // variety name, else the lot code
+  std::string lot;        // the lot code the recipe names, if any
   HopUse use = HopUse::boil;
   std::optional<double> minutes;
   std::optional<double> temperature_c;

@@ -35,6 +35,7 @@ enum class Remedy {
   add_aroma_catalog,       // load a catalog with aroma data
   trim_kept_additions,     // fewer grams or shorter times for the boil additions a recipe keeps
   bittering_with_alpha,    // bitter with a variety whose alpha acid is known
+  give_stock_file,         // say which stock file the lots are in
 };
 
 /// Bad input: a file, field or option that cannot be used. Holds one line per problem.

@@ -151,7 +151,9 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
   std::size_t row = 0;
   for (const auto& line : bitterness.additions) {
     const bool dry = line.use == HopUse::dry_hop;
-    table.add_row({std::to_string(line.index + 1), line.variety,
+    table.add_row({std::to_string(line.index + 1),
+                   line.lot.empty() || line.lot == line.variety ? line.variety
+                                                                : fmt::format("{} (lot {})", line.variety, line.lot),
                    describe_use(recipe.hops[line.index], units) + (line.bitterness.rate_extrapolated ? " ~" : ""),
                    dry ? "-" : fmt::format("{:.1f} min", line.bitterness.effective_minutes),
                    format_mass(line.grams, units), std::string(to_string(line.form)) + (line.form_assumed ? "*" : ""),
@@ -218,6 +220,7 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
     json a;
     a["index"] = line.index + 1;
     a["variety"] = line.variety;
+    if (!line.lot.empty()) a["lot"] = line.lot;
     a["use"] = std::string(to_string(line.use));
     a["minutes"] = line.minutes ? json(rounded(*line.minutes, 3)) : json(nullptr);
     a["temperature_c"] = line.temperature_c ? json(rounded(*line.temperature_c, 3)) : json(nullptr);

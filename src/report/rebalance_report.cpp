@@ -15,8 +15,7 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
   std::string text = fmt::format("{}: ", lot.variety);
   if (!lot.lot_code.empty()) {
     text += fmt::format("lot {}", lot.lot_code);
-    if (lot.lots_of_variety > 1)
-      text += fmt::format(" (most on hand of {})", count_of(lot.lots_of_variety, "lot", "lots"));
+    if (!lot.chosen.empty()) text += fmt::format(" ({})", lot.chosen);
     text += "; ";
   }
   if (lot.certificate_alpha && lot.packaged && lot.storage) {
@@ -38,6 +37,13 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
   return text;
 }
 
+/// "TW-25-044", or "TW-25-044, part 1 of 2 of addition 3" for a split addition.
+std::string lot_cell(const RebalancedAddition& row) {
+  const std::string lot = row.lot.empty() ? "-" : row.lot;
+  if (row.parts < 2) return lot;
+  return fmt::format("{}, part {} of {} of addition {}", lot, row.part, row.parts, row.index + 1);
+}
+
 }  // namespace
 
 void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
@@ -51,8 +57,11 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
                    {"after", Align::right},
                    {"IBU before", Align::right},
                    {"after", Align::right},
-                   {"rule"}});
+                   {"rule"},
+                   {"lot"}});
+  std::vector<std::size_t> split;  // additions weighed from more than one lot
   for (const auto& row : result.additions) {
+    if (row.parts > 1 && row.part == 1) split.push_back(row.index);
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
     const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
@@ -62,12 +71,19 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
                    dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
-                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule))});
+                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule)),
+                   lot_cell(row)});
   }
   table.add_rule();
   table.add_row({"", "total", "", "", "", "", "", fmt::format("{:.1f} IBU", result.before.total_ibu),
-                 fmt::format("{:.1f} IBU", result.after.total_ibu), ""});
+                 fmt::format("{:.1f} IBU", result.after.total_ibu), "", ""});
   table.render(out);
+  for (const std::size_t index : split)
+    out << fmt::format("Addition {} is split across lots: one lot has too little, and its parts together hold {}.\n",
+                       index + 1,
+                       recipe.hops[index].use == HopUse::boil || recipe.hops[index].use == HopUse::first_wort
+                           ? "its IBU"
+                           : "what it delivers (oil, else grams)");
 
   out << '\n';
   if (result.absorber) {
@@ -137,6 +153,8 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
     a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
     a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
     a["rule"] = std::string(to_string(row.rule));
+    a["lot"] = row.lot.empty() ? json(nullptr) : json(row.lot);
+    if (row.parts > 1) a["part"] = {{"of_addition", row.index + 1}, {"part", row.part}, {"parts", row.parts}};
     additions.push_back(std::move(a));
   }
   out["additions"] = std::move(additions);
@@ -177,6 +195,7 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
     l["stability_source"] = lot.stability_source;
     l["total_oil"] = lot.total_oil ? json(rounded(*lot.total_oil, 4)) : json(nullptr);
     l["on_hand_g"] = lot.on_hand_g ? json(rounded(*lot.on_hand_g, 3)) : json(nullptr);
+    if (!lot.chosen.empty()) l["chosen"] = lot.chosen;
     l["stale"] = lot.stale;
     if (lot.stale) l["stale_reason"] = lot.stale_reason;
     lots.push_back(std::move(l));
