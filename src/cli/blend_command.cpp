@@ -14,6 +14,7 @@
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
 #include "engine/blend_plan.hpp"
+#include "engine/lot_allocation.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
@@ -181,6 +182,18 @@ std::vector<std::string> blend_notes(const BlendArgs& args, const BlendRequest& 
   return notes;
 }
 
+/// The recipe with the lots it names looked up in the stock (a lot-only addition takes the lot's
+/// variety); without a stock, a lot-only addition is refused.
+Recipe recipe_with_lots(const Recipe& recipe, const std::optional<Cellar>& cellar) {
+  if (!cellar) {
+    require_stock_for_lot_only(recipe);
+    return recipe;
+  }
+  std::vector<Lot> lots;
+  for (const auto& c : cellar->lots) lots.push_back(c.lot);
+  return with_lot_varieties(recipe, lots, cellar->source_file);
+}
+
 void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& args) {
   const UnitSystem units = globals.unit_system();
   // 1. Load the catalogs, the stock and the recipe.
@@ -189,7 +202,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
       args.stock.empty() ? std::nullopt : std::optional(load_cellar(args.stock, data.catalog, args.cellar));
   const std::optional<RecipeFile> file =
       args.recipe.empty() ? std::nullopt : std::optional(read_recipe_file(args.recipe, args.recipe_file));
-  const std::optional<Recipe> recipe = file ? std::optional(file->recipe) : std::nullopt;
+  const std::optional<Recipe> recipe = file ? std::optional(recipe_with_lots(file->recipe, cellar)) : std::nullopt;
   // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
   request.target = target_from(args, data);

@@ -11,14 +11,15 @@
 
 namespace bine::cli {
 
-void add_cellar_options(CLI::App* command, CellarOptions& options, bool allow_stale_option) {
+void add_cellar_options(CLI::App* command, CellarOptions& options, bool takes_lots) {
   command->add_option("--on", options.on, "brew day, YYYY-MM-DD, every stock lot is aged to (default: today)");
   command->add_option("--stale-below", options.stale_below,
                       "a lot with less than this share of its certificate alpha is stale (default 75%)");
+  if (!takes_lots) return;
   command->add_option("--lot-order", options.lot_order,
-                      "which lot of a variety is weighed first: oldest (packaging, the default) or most (on hand)");
-  if (allow_stale_option)
-    command->add_flag("--allow-stale", options.allow_stale, "use stale lots too (they are left out by default)");
+                      "which lot of a variety is weighed first: oldest (packaging date, the default) or most (on "
+                      "hand); a lot the recipe names is always used");
+  command->add_flag("--allow-stale", options.allow_stale, "use stale lots too (they are left out by default)");
 }
 
 CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& options) {
@@ -42,10 +43,16 @@ Cellar load_cellar(const std::string& stock_file, const Catalog& catalog, const 
   return age_cellar(stock, catalog, choice.on.date, choice.settings);
 }
 
-std::string stock_file_or_env(const std::string& option) {
+std::string stock_file_if_given(const std::string& option) {
   if (!option.empty()) return option;
   if (const char* env = std::getenv("BINE_STOCK"); env != nullptr && *env != '\0') return env;
-  throw InputError("no stock file (expected --stock FILE, or the BINE_STOCK environment variable)");
+  return {};
+}
+
+std::string stock_file_or_env(const std::string& option) {
+  std::string file = stock_file_if_given(option);
+  if (file.empty()) throw InputError("no stock file (expected --stock FILE, or the BINE_STOCK environment variable)");
+  return file;
 }
 
 std::string brew_day_line(const CellarChoice& choice) {

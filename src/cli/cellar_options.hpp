@@ -1,6 +1,6 @@
 #pragma once
-// The options that say how the cold store is read on the brew day (--on, --stale-below,
-// --allow-stale, --lot-order), bound and read the same way by every command that takes a stock file, and the one
+// The options that say how the cold store is read on the brew day (--on, --stale-below, --lot-order,
+// --allow-stale), bound and read the same way by every command that takes a stock file, and the one
 // place a stock file becomes a Cellar (engine/cellar.hpp).
 #include <CLI/CLI.hpp>
 #include <string>
@@ -24,9 +24,9 @@ struct CellarChoice {
   bool allow_stale = false;
 };
 
-/// Adds --on, --stale-below, --lot-order and --allow-stale to `command`. `allow_stale_option`: whether the
-/// command leaves stale lots out (blend, rebalance) and so offers --allow-stale.
-void add_cellar_options(CLI::App* command, CellarOptions& options, bool allow_stale_option);
+/// Adds --on and --stale-below to `command`, and with `takes_lots` (the command weighs additions from
+/// lots it chooses and leaves stale lots out: blend, rebalance) --lot-order and --allow-stale.
+void add_cellar_options(CLI::App* command, CellarOptions& options, bool takes_lots);
 
 /// The choice the options give; problems go to `reader`.
 CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& options);
@@ -34,7 +34,10 @@ CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& opti
 /// The stock file aged to the brew day.
 Cellar load_cellar(const std::string& stock_file, const Catalog& catalog, const CellarChoice& choice);
 
-/// The stock file: `option` if given, else $BINE_STOCK; InputError when neither.
+/// The stock file: `option` if given, else $BINE_STOCK when set and not empty; empty when neither.
+std::string stock_file_if_given(const std::string& option);
+
+/// The stock file: `option` if given, else $BINE_STOCK (when set and not empty); InputError when neither.
 std::string stock_file_or_env(const std::string& option);
 
 /// "lots aged to 2026-12-01 (today; pass --on DATE to reproduce)": the line every stock output prints.

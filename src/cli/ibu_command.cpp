@@ -1,7 +1,6 @@
 // bine ibu RECIPE: the recipe's bitterness, addition by addition, with BU:GU.
 #include <fmt/format.h>
 
-#include <cstdlib>
 #include <memory>
 
 #include "cli/bitterness_options.hpp"
@@ -56,7 +55,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
     args.alpha_tolerance = *tolerance;
   args.cellar = read_cellar_options(reader, options.cellar);
   reader.throw_if_any();
-  if (!options.stock.empty() || std::getenv("BINE_STOCK") != nullptr) args.stock = stock_file_or_env(options.stock);
+  args.stock = stock_file_if_given(options.stock);
   return args;
 }
 

@@ -4,10 +4,10 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <cstdlib>
 #include <memory>
 #include <set>
 
+#include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
 #include "engine/stock_view.hpp"
@@ -42,12 +42,6 @@ struct HistoryOptions {
   std::string lot;
   bool json = false;
 };
-
-std::string stock_file_from(const std::string& option) {
-  if (!option.empty()) return option;
-  if (const char* env = std::getenv("BINE_STOCK"); env != nullptr && *env != '\0') return env;
-  throw InputError("no stock file (expected --stock FILE, or the BINE_STOCK environment variable)");
-}
 
 std::size_t find_lot(const Stock& stock, const std::string& code, const std::string& option) {
   std::vector<std::string> codes;
@@ -84,7 +78,7 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
   const auto stale_below =
       reader.optional_quantity("--stale-below", options.stale_below, Dimension::percent, kStaleBelow);
   reader.throw_if_any();
-  const std::string file = stock_file_from(options.stock.empty() ? stock_option : options.stock);
+  const std::string file = stock_file_or_env(options.stock.empty() ? stock_option : options.stock);
   const DataSet data = load_data(globals, console);
   std::optional<StockView> view;
   {
@@ -152,7 +146,7 @@ void run_receive(const Console& console, const GlobalOptions& globals, const Rec
                  const std::string& stock_option) {
   double grams = 0.0;
   const nlohmann::ordered_json record = read_receipt(options, grams);
-  StockLedger ledger(stock_file_from(stock_option));
+  StockLedger ledger(stock_file_or_env(stock_option));
   const Stock& stock = ledger.stock();
   for (std::size_t i = 0; i < stock.lots.size(); ++i)
     if (fold_name(stock.lots[i].lot) == fold_name(record["lot"].get<std::string>()))
@@ -175,7 +169,7 @@ void run_adjust(const Console& console, const GlobalOptions& globals, const Adju
   const auto to = reader.quantity("--to", options.to, Dimension::mass, limits::stock_mass);
   reader.require(!trim_space(options.reason).empty(), "--reason: empty (expected why the count changed)");
   reader.throw_if_any();
-  StockLedger ledger(stock_file_from(stock_option));
+  StockLedger ledger(stock_file_or_env(stock_option));
   const Stock& stock = ledger.stock();
   const std::size_t index = find_lot(stock, options.lot, "LOT");
   JournalEntry entry;
@@ -195,7 +189,7 @@ void run_adjust(const Console& console, const GlobalOptions& globals, const Adju
 
 void run_history(const Console& console, const GlobalOptions& globals, const HistoryOptions& options,
                  const std::string& stock_option) {
-  const StockLedger ledger(stock_file_from(stock_option), true);
+  const StockLedger ledger(stock_file_or_env(stock_option), true);
   std::vector<JournalEntry> shown;
   for (const JournalEntry& entry : ledger.entries())
     if (options.lot.empty() || std::any_of(entry.changes.begin(), entry.changes.end(), [&](const LotChange& c) {
@@ -225,7 +219,7 @@ const JournalEntry* entry_to_undo(const std::vector<JournalEntry>& entries) {
 }
 
 void run_undo(const Console& console, const GlobalOptions& globals, const std::string& stock_option) {
-  StockLedger ledger(stock_file_from(stock_option));
+  StockLedger ledger(stock_file_or_env(stock_option));
   const std::string file = ledger.stock_file().string();
   if (ledger.edited_since_last_entry())
     throw InputError(

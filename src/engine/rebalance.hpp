@@ -76,6 +76,9 @@ struct RebalanceResult {
   double ibu_change_absorbed = 0.0;     // IBU the absorber (or the scaled whirlpool) had to make up
   bool whirlpool_scaled = false;        // no boil addition: whirlpool additions scaled to hold total IBU
   std::vector<Shortfall> shortfalls;
+  // From stock only: what the shortfalls cannot speak for.
+  std::vector<std::size_t> without_lot;          // additions (recipe as written) no stock lot was found for
+  std::vector<std::string> lots_without_amount;  // lots drawn on whose stock entry gives no amount on hand
   std::vector<std::string> notes;
 };
 

@@ -200,6 +200,11 @@ StockRebalance rebalance_from_stock(const Recipe& recipe, const Cellar& cellar, 
     row.part = o.part;
     row.parts = o.parts;
   }
+  // 4. What the shortfalls cannot speak for: additions no lot was found for, lots without an amount.
+  for (const auto& a : out.allocation.additions)
+    if (a.parts.empty()) out.result.without_lot.push_back(a.index);
+  for (const auto& lot : out.lots)
+    if (!lot.on_hand_g) out.result.lots_without_amount.push_back(lot.lot_code);
   notes.insert(notes.begin(), out.allocation.notes.begin(), out.allocation.notes.end());
   out.result.notes.insert(out.result.notes.begin(), notes.begin(), notes.end());
   return out;

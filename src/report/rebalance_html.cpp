@@ -15,8 +15,11 @@ using html::Cell;
 std::string add_pointer(std::size_t i, std::string_view key) { return fmt::format("/additions/{}/{}", i, key); }
 std::string lot_pointer(std::size_t i, std::string_view key) { return fmt::format("/lots/{}/{}", i, key); }
 
-const HopAddition& hop_after(const RebalanceResult& result, const RebalancedAddition& row) {
-  return result.recipe_after.hops[row.index];
+/// The addition as written after rebalancing of row `position` (rows follow recipe_after's additions
+/// one to one; a row's `index` is the addition of the recipe as written, which a split spreads over
+/// several rows).
+const HopAddition& hop_after(const RebalanceResult& result, std::size_t position) {
+  return result.recipe_after.hops[position];
 }
 
 std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
@@ -31,7 +34,7 @@ std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
                                                                              {"how"}});
   for (std::size_t i = 0; i < result.additions.size(); ++i) {
     const RebalancedAddition& row = result.additions[i];
-    const HopAddition& hop = hop_after(result, row);
+    const HopAddition& hop = hop_after(result, i);
     table.add_row({Cell(std::to_string(row.index + 1), add_pointer(i, "index")), row.variety,
                    hop.lot.empty() ? "-" : hop.lot, describe_use(row.use, hop.minutes, hop.temperature_c, units),
                    html::number_cell(row.alpha_after, 2, " %", add_pointer(i, "alpha_after")),
@@ -54,7 +57,7 @@ std::string ibu_chart(const RebalanceResult& result, UnitSystem units) {
   chart.description = "Per addition, IBU as written then rebalanced:";
   for (std::size_t i = 0; i < result.additions.size(); ++i) {
     const RebalancedAddition& row = result.additions[i];
-    const HopAddition& hop = hop_after(result, row);
+    const HopAddition& hop = hop_after(result, i);
     std::string label = fmt::format("{}. {}, {}", row.index + 1, row.variety,
                                     describe_use(row.use, hop.minutes, hop.temperature_c, units));
     chart.description += fmt::format(" {} {:.1f} and {:.1f} IBU;", label, row.ibu_before, row.ibu_after);
@@ -102,7 +105,7 @@ std::string stock_left(const RebalanceContext& context, const RebalanceResult& r
     double left = *lot.on_hand_g;
     std::string minus;
     for (std::size_t a = 0; a < result.additions.size(); ++a)
-      if (hop_after(result, result.additions[a]).lot == lot.lot_code) {
+      if (hop_after(result, a).lot == lot.lot_code) {
         left -= result.additions[a].grams_after;
         minus += (minus.empty() ? "" : " ") + add_pointer(a, "grams_after");
       }
@@ -132,7 +135,7 @@ std::string shortfalls_table(const RebalanceResult& result, UnitSystem units) {
 std::string absorber_text(const RebalanceResult& result, UnitSystem units) {
   if (result.absorber) {
     const RebalancedAddition& row = result.additions[*result.absorber];
-    const HopAddition& hop = hop_after(result, row);
+    const HopAddition& hop = hop_after(result, *result.absorber);
     return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {:.1f} IBU.",
                        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
                        result.ibu_change_absorbed, result.after.total_ibu);

@@ -44,6 +44,30 @@ std::string lot_cell(const RebalancedAddition& row) {
   return fmt::format("{}, part {} of {} of addition {}", lot, row.part, row.parts, row.index + 1);
 }
 
+/// Whether the stock covers the recipe: shortfalls, additions no lot was found for, lots without an
+/// amount. "Stock covers every addition." only when every addition was weighed from a lot whose
+/// amount on hand covers it.
+void render_stock_cover(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
+                        UnitSystem units) {
+  if (!result.shortfalls.empty()) {
+    out << "Stock shortfalls:\n";
+    for (const auto& s : result.shortfalls)
+      out << fmt::format("  {} (lot {}): need {}, have {}, short {}\n", s.variety, s.lot,
+                         format_mass(s.needed_g, units), format_mass(s.on_hand_g, units),
+                         format_mass(s.needed_g - s.on_hand_g, units));
+  }
+  if (!from_stock) return;
+  for (const std::size_t index : result.without_lot) {
+    const HopAddition& hop = recipe.hops[index];
+    out << fmt::format("No stock lot for addition {} ({}, {}): kept as written, the stock does not cover it.\n",
+                       index + 1, hop.variety.empty() ? hop.lot : hop.variety, describe_use(hop, units));
+  }
+  for (const auto& code : result.lots_without_amount)
+    out << fmt::format("Lot {} gives no amount on hand: its draw is not checked against the stock.\n", code);
+  if (result.shortfalls.empty() && result.without_lot.empty() && result.lots_without_amount.empty())
+    out << "Stock covers every addition.\n";
+}
+
 }  // namespace
 
 void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
@@ -102,15 +126,7 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
   } else {
     out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
   }
-  if (result.shortfalls.empty()) {
-    if (from_stock) out << "Stock covers every addition.\n";
-  } else {
-    out << "Stock shortfalls:\n";
-    for (const auto& s : result.shortfalls)
-      out << fmt::format("  {} (lot {}): need {}, have {}, short {}\n", s.variety, s.lot,
-                         format_mass(s.needed_g, units), format_mass(s.on_hand_g, units),
-                         format_mass(s.needed_g - s.on_hand_g, units));
-  }
+  render_stock_cover(out, recipe, result, from_stock, units);
 }
 
 void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
@@ -171,6 +187,10 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
                           {"on_hand_g", rounded(s.on_hand_g, 3)},
                           {"short_g", rounded(s.needed_g - s.on_hand_g, 3)}});
   out["shortfalls"] = std::move(shortfalls);
+  json without = json::array();
+  for (const std::size_t index : result.without_lot) without.push_back(index + 1);
+  out["additions_without_lot"] = std::move(without);
+  out["lots_without_amount"] = result.lots_without_amount;
   return out;
 }
 

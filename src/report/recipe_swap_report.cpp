@@ -39,7 +39,9 @@ void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitS
   out << fmt::format("\nSwapped into {}: {} replaced by {} ({})\n\n",
                      recipe.name.empty() ? recipe.source_file : recipe.name, report.missing, swapped_in_text(report),
                      report.choice);
-  render_rebalance_changes(out, recipe, report.swap.result, report.from_stock, units);
+  // Only the substitute's lots are checked against the stock (the coverage table below), so the
+  // table never says that the stock covers every addition.
+  render_rebalance_changes(out, recipe, report.swap.result, /*from_stock=*/false, units);
   out << "Late additions take the oil factor, boil additions the alpha factor; the bittering charge holds the total.\n";
   render_coverage(out, report, units);
   if (!report.written.empty()) out << fmt::format("\nRecipe with the substitute written to {}\n", report.written);
