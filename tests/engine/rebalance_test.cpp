@@ -1,6 +1,7 @@
 // Rebalancing recipes to new lots: the rules of rebalance.cpp checked by hand arithmetic and the
 // docs/methods.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
 #include "engine/rebalance.hpp"
+#include "engine/stock_rebalance.hpp"
 
 #include <doctest/doctest.h>
 
@@ -143,7 +144,9 @@ TEST_CASE("stock shortfalls sum every addition drawn from the lot") {
   CHECK(result.shortfalls[0].lot == "B-1");
 }
 
-TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future packaging rejected") {
+TEST_CASE("lots from stock: a dated lot before an undated one, alpha aged to brew day, future packaging rejected") {
+  // Oldest packaging first (docs/methods.md#lot-choice): B-big has a packaged date, B-small none, so
+  // B-big comes first (dated lots before undated ones); it has 500 g for the 30 g needed.
   bine::Stock stock;
   stock.source_file = "stock.json";
   bine::Lot small;
@@ -159,12 +162,14 @@ TEST_CASE("lots from stock: most on hand chosen, alpha aged to brew day, future 
   big.storage = bine::Storage{-18.0, bine::Package::vacuum};
   stock.lots = {small, big};
   const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60)});
-  std::vector<std::string> notes;
-  const auto lots = bine::lots_from_stock(
-      recipe, bine::age_cellar(stock, test_catalog(), *bine::parse_date("2026-12-01")), false, notes);
+  const auto stocked = bine::rebalance_from_stock(
+      recipe, bine::age_cellar(stock, test_catalog(), *bine::parse_date("2026-12-01")), test_catalog(), {},
+      bine::Weighing::exact);
+  const auto& lots = stocked.lots;
   REQUIRE(lots.size() == 1);
   CHECK(lots[0].lot_code == "B-big");
   CHECK(lots[0].lots_of_variety == 2);
+  CHECK(lots[0].chosen == "oldest packaging first of 2 lots");
   CHECK(lots[0].days == 365);
   // docs/methods.md: 6.0 % AA, PL 50 (catalog stability 50), vacuum, -18 C, 365 d -> 5.31 %.
   CHECK(lots[0].alpha_percent == doctest::Approx(5.31).epsilon(1e-3));
