@@ -133,8 +133,9 @@ Recipe with_lot_varieties(const Recipe& recipe, const std::vector<Lot>& lots, co
     if (hop.variety.empty())
       hop.variety = lot.variety;
     else if (fold_name(hop.variety) != fold_name(lot.variety))
-      problems.push_back(fmt::format("{}: /hops/{}/lot: lot {} in {} is {}, not {} (give the lot's variety or no variety)",
-                                     recipe.source_file, h, *found, stock_file, lot.variety, hop.variety));
+      problems.push_back(
+          fmt::format("{}: /hops/{}/lot: lot {} in {} is {}, not {} (give the lot's variety or no variety)",
+                      recipe.source_file, h, *found, stock_file, lot.variety, hop.variety));
   }
   if (!problems.empty()) throw InputError(problems);
   return out;

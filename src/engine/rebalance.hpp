@@ -55,8 +55,8 @@ struct RebalancedAddition {
   std::optional<double> oil_before;  // mL/100 g the recipe was written for (catalog midpoint)
   std::optional<double> oil_after;
   RebalanceRule rule = RebalanceRule::unchanged;
-  std::string lot;         // the lot it is weighed from, if known
-  std::size_t part = 1;    // a split addition: this row is part `part` of `parts` of addition `index`
+  std::string lot;       // the lot it is weighed from, if known
+  std::size_t part = 1;  // a split addition: this row is part `part` of `parts` of addition `index`
   std::size_t parts = 1;
 };
 

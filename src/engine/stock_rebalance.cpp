@@ -84,12 +84,12 @@ ReplacementLot replacement_from(const CellarLot& c, std::size_t count, std::stri
 /// need tonnes to bitter, or round to no IBU at all.
 void refuse_spent(const CellarLot& c, const Cellar& cellar) {
   if (*c.alpha_today >= limits::alpha_acid.min) return;
-  throw Infeasible(fmt::format(
-                       "{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): "
-                       "below the {} % any hop keeps, too little to brew with",
-                       cellar.source_file, c.code, c.lot.variety, *c.alpha_today, format_date(cellar.on),
-                       c.lot.alpha_acid.value_or(0.0), c.days, limits::alpha_acid.min),
-                   {Remedy::add_stock});
+  throw Infeasible(
+      fmt::format("{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): "
+                  "below the {} % any hop keeps, too little to brew with",
+                  cellar.source_file, c.code, c.lot.variety, *c.alpha_today, format_date(cellar.on),
+                  c.lot.alpha_acid.value_or(0.0), c.days, limits::alpha_acid.min),
+      {Remedy::add_stock});
 }
 
 /// Where each row of the split recipe comes from.
@@ -154,8 +154,8 @@ void sum_draws(const Cellar& cellar, StockRebalance& out, const std::vector<cons
     const CellarLot* c = cellar.find(lot->lot_code);
     auto it = std::find_if(out.draws.begin(), out.draws.end(), [&](const LotDraw& d) { return d.lot == c->index; });
     if (it == out.draws.end())
-      it = out.draws.insert(out.draws.end(), LotDraw{c->index, c->code, c->lot.variety, 0.0,
-                                                     available_per_batch(*c, 1.0)});
+      it = out.draws.insert(out.draws.end(),
+                            LotDraw{c->index, c->code, c->lot.variety, 0.0, available_per_batch(*c, 1.0)});
     it->grams += row.grams_after * out.batches;
   }
 }

@@ -91,12 +91,11 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
     const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
                                     ? row.variety
                                     : row.variety + " -> " + row.variety_after;
-    table.add_row({std::to_string(row.index + 1), variety, describe_use(hop, units),
-                   fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
-                   format_mass(row.grams_before, units), format_mass(row.grams_after, units),
-                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
-                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule)),
-                   lot_cell(row)});
+    table.add_row(
+        {std::to_string(row.index + 1), variety, describe_use(hop, units), fmt::format("{:.2f} %", row.alpha_before),
+         fmt::format("{:.2f} %", row.alpha_after), format_mass(row.grams_before, units),
+         format_mass(row.grams_after, units), dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
+         dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule)), lot_cell(row)});
   }
   table.add_rule();
   table.add_row({"", "total", "", "", "", "", "", fmt::format("{:.1f} IBU", result.before.total_ibu),

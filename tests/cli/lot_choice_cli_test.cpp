@@ -29,8 +29,8 @@ bine::test::CliRun with_catalog(std::vector<std::string> args) {
 /// `rebalance RECIPE --stock STOCK --on 2026-12-01 --json EXTRA...`, which must succeed.
 nlohmann::json rebalance_json(const std::string& recipe, const std::string& stock,
                               const std::vector<std::string>& extra = {}) {
-  std::vector<std::string> args{"rebalance", fixture(recipe), "--stock", fixture(stock), "--on", "2026-12-01",
-                                "--json"};
+  std::vector<std::string> args{"rebalance", fixture(recipe), "--stock", fixture(stock),
+                                "--on",      "2026-12-01",    "--json"};
   args.insert(args.end(), extra.begin(), extra.end());
   const auto run = with_catalog(args);
   INFO(run.err);
@@ -96,7 +96,8 @@ TEST_CASE("rebalance splits an addition larger than any lot, and the parts give 
   CHECK(whole == doctest::Approx(36.91).epsilon(1e-3));
   CHECK(tinseth_60(20.0, 8.0) + tinseth_60(16.0, 10.0) == doctest::Approx(whole).epsilon(1e-12));
   // The JSON rounds IBU to 0.001.
-  CHECK(rows[0]["ibu_after"].get<double>() + rows[1]["ibu_after"].get<double>() == doctest::Approx(whole).epsilon(1e-4));
+  CHECK(rows[0]["ibu_after"].get<double>() + rows[1]["ibu_after"].get<double>() ==
+        doctest::Approx(whole).epsilon(1e-4));
   CHECK(json["total_ibu_after"].get<double>() == doctest::Approx(whole).epsilon(1e-4));
   CHECK(json["shortfalls"].empty());
 
@@ -135,7 +136,8 @@ TEST_CASE("rebalance leaves a stale lot out unless --allow-stale") {
   // so 15 x 8.0 / 3.32 = 36.14 g, weighed 36.1 g.
   const auto stale = rebalance_json("lots-15g.json", "lots-stale-stock.json", {"--allow-stale"});
   CHECK(stale["additions"][0]["lot"] == "FB-STALE");
-  CHECK(stale["additions"][0]["alpha_after"].get<double>() == doctest::Approx(12.0 * std::pow(2.0, -334.0 / 180.0)).epsilon(2e-3));
+  CHECK(stale["additions"][0]["alpha_after"].get<double>() ==
+        doctest::Approx(12.0 * std::pow(2.0, -334.0 / 180.0)).epsilon(2e-3));
   CHECK(stale["additions"][0]["grams_after"].get<double>() == doctest::Approx(36.1));
   REQUIRE(stale["lots"].size() == 1);
   CHECK(stale["lots"][0]["stale"] == true);
@@ -153,8 +155,8 @@ TEST_CASE("rebalance weighs an addition that names a lot from that lot, whatever
 TEST_CASE("ibu --stock reads a lot-only addition, its variety and alpha from the stock") {
   // lots-lot-only.json: 25 g of lot FB-NEW, 60 min, no variety and no alpha: Fixture Bitter at the
   // lot's 10.0 % (unaged: no storage). Tinseth: 1.0528 x 0.2191 x 0.10 x 25 x 50 = 28.8 IBU.
-  const auto run = with_catalog({"ibu", fixture("lots-lot-only.json"), "--stock", fixture("lots-stock.json"), "--on",
-                                 "2026-12-01", "--json"});
+  const auto run = with_catalog(
+      {"ibu", fixture("lots-lot-only.json"), "--stock", fixture("lots-stock.json"), "--on", "2026-12-01", "--json"});
   INFO(run.err);
   REQUIRE(run.status == 0);
   const auto json = nlohmann::json::parse(run.out);
@@ -168,7 +170,8 @@ TEST_CASE("ibu --stock reads a lot-only addition, its variety and alpha from the
   CHECK(line_count(without.err) == 1);
   CHECK(without.err.find("/hops/0/lot: \"FB-NEW\" names a lot without a variety") != std::string::npos);
   // catalog check accepts it with the stock file, and refuses it without.
-  const auto checked = with_catalog({"catalog", "check", fixture("lots-lot-only.json"), "--stock", fixture("lots-stock.json")});
+  const auto checked =
+      with_catalog({"catalog", "check", fixture("lots-lot-only.json"), "--stock", fixture("lots-stock.json")});
   INFO(checked.err);
   CHECK(checked.status == 0);
   const auto unchecked = with_catalog({"catalog", "check", fixture("lots-lot-only.json")});
@@ -187,8 +190,8 @@ TEST_CASE("rebalance --lot-order with an unknown value is exit 2 with one line")
 TEST_CASE("rebalance never says the stock covers every addition when an addition found no lot") {
   // lots-unstocked.json: 15 g of Fixture Bitter (FB-OLD has 20 g) and a whirlpool of Fixture Aroma,
   // of which the store holds no lot: the whirlpool is kept as written and named.
-  const std::vector<std::string> args{"rebalance", fixture("lots-unstocked.json"), "--stock", fixture("lots-stock.json"),
-                                      "--on", "2026-12-01"};
+  const std::vector<std::string> args{
+      "rebalance", fixture("lots-unstocked.json"), "--stock", fixture("lots-stock.json"), "--on", "2026-12-01"};
   const auto text = with_catalog(args);
   INFO(text.err);
   REQUIRE(text.status == 0);

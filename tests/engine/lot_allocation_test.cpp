@@ -95,10 +95,10 @@ double tinseth_ibu(double grams, double alpha_percent, double minutes, double li
 TEST_CASE("lots are taken oldest packaging first, and what earlier additions took is gone for later ones") {
   // B-OLD packaged 2025-06-01 (20 g), B-NEW 2026-01-01 (100 g). Addition 1, 15 g: all from B-OLD
   // (older), 5 g left. Addition 2, 15 g: 5 g from B-OLD, then 10 g from B-NEW (hand arithmetic).
-  const auto cellar = cellar_of({lot("B-NEW", "Bitter", 8.0, 100, "2026-01-01"),
-                                 lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01")});
-  const auto recipe = recipe_of(
-      {addition("Bitter", 15, 10.0, HopUse::boil, 60), addition("Bitter", 15, 10.0, HopUse::boil, 10)});
+  const auto cellar =
+      cellar_of({lot("B-NEW", "Bitter", 8.0, 100, "2026-01-01"), lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01")});
+  const auto recipe =
+      recipe_of({addition("Bitter", 15, 10.0, HopUse::boil, 60), addition("Bitter", 15, 10.0, HopUse::boil, 10)});
   const auto allocation = bine::allocate_lots(recipe, cellar, by_grams(recipe), bine::allocation_of(cellar));
   REQUIRE(allocation.additions.size() == 2);
   REQUIRE(allocation.additions[0].parts.size() == 1);
@@ -115,9 +115,9 @@ TEST_CASE("lots are taken oldest packaging first, and what earlier additions too
 
 TEST_CASE("lots are taken most on hand first with --lot-order most") {
   // B-OLD has 20 g, B-NEW 100 g: most on hand is B-NEW, so the 15 g come from it (hand arithmetic).
-  const auto cellar = cellar_of({lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01"),
-                                 lot("B-NEW", "Bitter", 8.0, 100, "2026-01-01")},
-                                bine::LotOrder::most);
+  const auto cellar =
+      cellar_of({lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01"), lot("B-NEW", "Bitter", 8.0, 100, "2026-01-01")},
+                bine::LotOrder::most);
   const auto recipe = recipe_of({addition("Bitter", 15, 10.0, HopUse::boil, 60)});
   const auto allocation = bine::allocate_lots(recipe, cellar, by_grams(recipe), bine::allocation_of(cellar));
   REQUIRE(allocation.additions[0].parts.size() == 1);
@@ -130,8 +130,8 @@ TEST_CASE("a boil addition split across two lots of different alpha holds its Ti
   // gives half the alpha (20 x 10 = 200 of 40 x 10 = 400 g.%); the other 200 g.% come from B-NEW at
   // 8 %: 200 / 8 = 25 g. Tinseth is linear in W x AA, so 20 g at 10 % + 25 g at 8 % give the IBU of
   // 40 g at 10 % (hand arithmetic; formula above).
-  const auto cellar = cellar_of({lot("B-NEW", "Bitter", 8.0, 500, "2026-01-01"),
-                                 lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01")});
+  const auto cellar =
+      cellar_of({lot("B-NEW", "Bitter", 8.0, 500, "2026-01-01"), lot("B-OLD", "Bitter", 10.0, 20, "2025-06-01")});
   const auto recipe = recipe_of({addition("Bitter", 40, 10.0, HopUse::boil, 60)});
   const auto stocked = bine::rebalance_from_stock(recipe, cellar, test_catalog(), {}, bine::Weighing::exact);
   const auto& rows = stocked.result.additions;
@@ -184,8 +184,8 @@ TEST_CASE("a late addition split across lots holds the oil it delivers") {
 TEST_CASE("an addition that names a lot takes it, whatever the order") {
   // B-NEW is named though B-OLD is older: 30 g at 10 % -> 30 x 10 / 8 = 37.5 g at 8 %
   // (same IBU: W x AA held, docs/methods.md#linearity).
-  const auto cellar = cellar_of({lot("B-OLD", "Bitter", 10.0, 500, "2025-06-01"),
-                                 lot("B-NEW", "Bitter", 8.0, 500, "2026-01-01")});
+  const auto cellar =
+      cellar_of({lot("B-OLD", "Bitter", 10.0, 500, "2025-06-01"), lot("B-NEW", "Bitter", 8.0, 500, "2026-01-01")});
   auto hop = addition("Bitter", 30, 10.0, HopUse::boil, 60);
   hop.lot = "b-new";  // codes compare folded
   const auto stocked = bine::rebalance_from_stock(recipe_of({hop}), cellar, test_catalog(), {}, bine::Weighing::exact);
@@ -256,8 +256,8 @@ TEST_CASE("an addition no lot can cover is short on its last lot, for every batc
   // Two batches of 40 g from B-OLD (30 g) and B-NEW (20 g): per batch each gives half its amount,
   // 15 g + 10 g = 25 g, so 15 g per batch are short and go on B-NEW, the last in order:
   // B-NEW gives 10 + 15 = 25 g per batch, 50 g for both, 30 g more than its 20 g (hand arithmetic).
-  const auto cellar = cellar_of({lot("B-NEW", "Bitter", 10.0, 20, "2026-01-01"),
-                                 lot("B-OLD", "Bitter", 10.0, 30, "2025-06-01")});
+  const auto cellar =
+      cellar_of({lot("B-NEW", "Bitter", 10.0, 20, "2026-01-01"), lot("B-OLD", "Bitter", 10.0, 30, "2025-06-01")});
   const auto recipe = recipe_of({addition("Bitter", 40, 10.0, HopUse::boil, 60)});
   const auto stocked = bine::rebalance_from_stock(recipe, cellar, test_catalog(), {}, bine::Weighing::exact, 2.0);
   REQUIRE(stocked.result.shortfalls.size() == 1);

@@ -1,10 +1,10 @@
 // Rebalancing recipes to new lots: the rules of rebalance.cpp checked by hand arithmetic and the
 // docs/methods.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
 #include "engine/rebalance.hpp"
-#include "engine/stock_rebalance.hpp"
 
 #include <doctest/doctest.h>
 
+#include "engine/stock_rebalance.hpp"
 #include "model/errors.hpp"
 
 namespace {
@@ -162,9 +162,9 @@ TEST_CASE("lots from stock: a dated lot before an undated one, alpha aged to bre
   big.storage = bine::Storage{-18.0, bine::Package::vacuum};
   stock.lots = {small, big};
   const auto recipe = recipe_of({addition("Bitter", 30, 7.0, HopUse::boil, 60)});
-  const auto stocked = bine::rebalance_from_stock(
-      recipe, bine::age_cellar(stock, test_catalog(), *bine::parse_date("2026-12-01")), test_catalog(), {},
-      bine::Weighing::exact);
+  const auto stocked =
+      bine::rebalance_from_stock(recipe, bine::age_cellar(stock, test_catalog(), *bine::parse_date("2026-12-01")),
+                                 test_catalog(), {}, bine::Weighing::exact);
   const auto& lots = stocked.lots;
   REQUIRE(lots.size() == 1);
   CHECK(lots[0].lot_code == "B-big");
