@@ -83,6 +83,11 @@ ReplacementLot replacement_from(const CellarLot& c, std::size_t count, std::stri
 /// Nothing is computed from an alpha below what any hop keeps (the loaders' bound): such a lot would
 /// need tonnes to bitter, or round to no IBU at all.
 void refuse_spent(const CellarLot& c, const Cellar& cellar) {
+  // Only a lot the recipe names can get here without a certificate alpha (lots_in_order needs one).
+  if (!c.alpha_today)
+    throw InputError(fmt::format("{}: /lots/{}/alpha_acid: lot {} of {} is named by the recipe but has no alpha acid, "
+                                 "and the catalog gives none for {} (give the lot's certificate alpha acid %)",
+                                 cellar.source_file, c.index, c.code, c.lot.variety, c.lot.variety));
   if (*c.alpha_today >= limits::alpha_acid.min) return;
   throw Infeasible(
       fmt::format("{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): "
@@ -110,9 +115,12 @@ void take_lots(const Cellar& cellar, StockRebalance& out, std::vector<std::size_
       if (position[part.lot] != cellar.lots.size()) continue;
       const CellarLot& c = cellar.lots[part.lot];
       refuse_spent(c, cellar);
-      if (c.basis != AlphaBasis::aged)
+      if (c.basis == AlphaBasis::certificate)
         notes.push_back(
             fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", c.code));
+      else if (c.basis == AlphaBasis::catalog_midpoint)
+        notes.push_back(fmt::format("lot {} has no alpha acid; the catalog midpoint {:.2f} % of {} is used", c.code,
+                                    *c.alpha_today, c.lot.variety));
       position[part.lot] = out.lots.size();
       const std::size_t count = lots_in_order(cellar, c.lot.variety, settings).size();
       out.lots.push_back(replacement_from(c, count, why_chosen(a.named, count, settings.order)));

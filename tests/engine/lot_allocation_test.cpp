@@ -268,3 +268,22 @@ TEST_CASE("an addition no lot can cover is short on its last lot, for every batc
   CHECK(stocked.draws[0].code == "B-OLD");
   CHECK(stocked.draws[0].grams == doctest::Approx(30.0));
 }
+
+TEST_CASE("a named lot without alpha acid, of a variety the catalog has no range for, is an input error") {
+  // Nothing gives its alpha on the brew day, so nothing can be weighed from it.
+  bine::Lot unknown;
+  unknown.lot = "U-1";
+  unknown.variety = "Unlisted";
+  unknown.on_hand_g = 500;
+  const auto cellar = cellar_of({unknown});
+  REQUIRE_FALSE(cellar.lots[0].alpha_today.has_value());
+  auto hop = addition("Unlisted", 30, 7.0, HopUse::boil, 60);
+  hop.lot = "U-1";
+  try {
+    bine::rebalance_from_stock(recipe_of({hop}), cellar, test_catalog(), {}, bine::Weighing::exact);
+    FAIL("expected InputError");
+  } catch (const bine::InputError& e) {
+    REQUIRE(e.lines().size() == 1);
+    CHECK(e.lines()[0].find("stock.json: /lots/0/alpha_acid: lot U-1 of Unlisted is named by the recipe") == 0);
+  }
+}
