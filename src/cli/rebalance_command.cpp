@@ -207,8 +207,10 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-dec.json\n"
       "  bine rebalance their-recipe.xml --stock stock.json --write new.xml\n"
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --html brew-day.html\n"
+      "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --lot-order most\n"
       "Boil and first-wort additions hold their IBU; whirlpool and dry-hop additions hold their oil (else\n"
-      "grams) and the largest boil addition absorbs the IBU change.");
+      "grams) and the largest boil addition absorbs the IBU change. From stock, an addition is weighed from\n"
+      "the lot it names, else oldest packaging first, split across lots where one has too little.");
   commands.add(rebalance, [&globals, options](const Console& console) {
     run_rebalance(console, globals, parse_rebalance_args(*options));
   });

@@ -85,9 +85,10 @@ ReplacementLot replacement_from(const CellarLot& c, std::size_t count, std::stri
 void refuse_spent(const CellarLot& c, const Cellar& cellar) {
   // Only a lot the recipe names can get here without a certificate alpha (lots_in_order needs one).
   if (!c.alpha_today)
-    throw InputError(fmt::format("{}: /lots/{}/alpha_acid: lot {} of {} is named by the recipe but has no alpha acid, "
-                                 "and the catalog gives none for {} (give the lot's certificate alpha acid %)",
-                                 cellar.source_file, c.index, c.code, c.lot.variety, c.lot.variety));
+    throw InputError(
+        fmt::format("{}: /lots/{}/alpha_acid: lot {} of {} is named by the recipe but has no alpha acid, "
+                    "and the catalog gives none for {} (give the lot's certificate alpha acid %)",
+                    cellar.source_file, c.index, c.code, c.lot.variety, c.lot.variety));
   if (*c.alpha_today >= limits::alpha_acid.min) return;
   throw Infeasible(
       fmt::format("{}: lot {} of {} has aged to {:.2f} % alpha acid by {} ({:.1f} % at packaging, {} days): "
