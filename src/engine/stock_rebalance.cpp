@@ -117,8 +117,10 @@ void take_lots(const Cellar& cellar, StockRebalance& out, std::vector<std::size_
       const CellarLot& c = cellar.lots[part.lot];
       refuse_spent(c, cellar);
       if (c.basis == AlphaBasis::certificate)
-        notes.push_back(
-            fmt::format("lot {} has no packaged date or storage; its certificate alpha is used unaged", c.code));
+        notes.push_back(fmt::format("lot {} gives no {}; its certificate alpha is used unaged", c.code,
+                                    !c.lot.packaged && !c.lot.storage ? "packaged date or storage"
+                                    : !c.lot.packaged                 ? "packaged date"
+                                                                      : "storage"));
       else if (c.basis == AlphaBasis::catalog_midpoint)
         notes.push_back(fmt::format("lot {} has no alpha acid; the catalog midpoint {:.2f} % of {} is used", c.code,
                                     *c.alpha_today, c.lot.variety));
