@@ -7,14 +7,19 @@
 #include <memory>
 #include <set>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/option_values.hpp"
+#include "engine/stock_rebalance.hpp"
 #include "engine/stock_view.hpp"
+#include "io/file_io.hpp"
 #include "io/limits.hpp"
+#include "io/recipe_file.hpp"
 #include "io/stock_ledger.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
+#include "report/bitterness_report.hpp"
 #include "report/stock_report.hpp"
 
 namespace bine::cli {
@@ -36,6 +41,13 @@ struct ReceiveOptions {
 
 struct AdjustOptions {
   std::string lot, to, reason;
+};
+
+struct UseOptions {
+  std::string recipe;
+  std::string batches;
+  CellarOptions cellar;
+  BitternessOptions bitterness;
 };
 
 struct HistoryOptions {
@@ -185,6 +197,91 @@ void run_adjust(const Console& console, const GlobalOptions& globals, const Adju
   report_change(console, ledger, ledger.commit(std::move(entry)), globals);
 }
 
+// ---- use ------------------------------------------------------------------------------------------
+
+struct UseArgs {
+  std::string recipe;
+  std::size_t batches = 1;
+  CellarChoice cellar;
+  BitternessSettings settings;
+};
+
+UseArgs parse_use_args(const UseOptions& options) {
+  OptionReader reader;
+  UseArgs args;
+  args.recipe = options.recipe;
+  args.batches = reader.count("--batches", options.batches, limits::batches, 1).value_or(1);
+  args.cellar = read_cellar_options(reader, options.cellar);
+  args.settings = read_bitterness_options(reader, options.bitterness);
+  reader.throw_if_any();
+  return args;
+}
+
+/// A recipe the stock cannot serve whole changes nothing: exit 3 naming every lot short (grams
+/// missing) and every addition no lot was found for; a lot without an amount cannot be deducted.
+void refuse_incomplete(const StockRebalance& used, const Recipe& recipe, const Stock& stock, UnitSystem units) {
+  std::vector<std::string> problems;
+  for (const auto& code : used.result.lots_without_amount)
+    for (std::size_t i = 0; i < stock.lots.size(); ++i)
+      if (lot_code(stock, i) == code)
+        problems.push_back(
+            fmt::format("{}: /lots/{}/on_hand: lot {} gives no amount on hand, so nothing can be "
+                        "deducted from it (record a count with stock adjust)",
+                        stock.source_file, i, code));
+  if (!problems.empty()) throw InputError(problems);
+  for (const auto& s : used.result.shortfalls)
+    problems.push_back(fmt::format("lot {} ({}): short {} (needs {}, has {})", s.lot, s.variety,
+                                   format_mass(s.needed_g - s.on_hand_g, units), format_mass(s.needed_g, units),
+                                   format_mass(s.on_hand_g, units)));
+  for (const std::size_t index : used.result.without_lot) {
+    const HopAddition& hop = recipe.hops[index];
+    problems.push_back(fmt::format("addition {} ({}, {}): no usable lot in {}", index + 1,
+                                   hop.variety.empty() ? hop.lot : hop.variety, describe_use(hop, units),
+                                   stock.source_file));
+  }
+  if (!problems.empty())
+    throw Infeasible(fmt::format("{}: the stock cannot serve the recipe, nothing was deducted: {}", stock.source_file,
+                                 fmt::join(problems, "; ")),
+                     {Remedy::add_stock});
+}
+
+void run_use(const Console& console, const GlobalOptions& globals, const UseArgs& args,
+             const std::string& stock_option) {
+  const UnitSystem units = globals.unit_system();
+  const DataSet data = load_data(globals, console);
+  const RecipeFile file = read_recipe_file(args.recipe, BeerXmlReadOptions{});
+  const std::string recipe_sha256 = sha256_hex(read_text_file(args.recipe));
+  // From here the lock is held: the lots are chosen from the stock as it is, and written back before
+  // another bine may read it.
+  StockLedger ledger(stock_file_or_env(stock_option));
+  Stock stock = ledger.stock();
+  if (stock.name.empty()) stock.name = ledger.stock_file().string();
+  const Cellar cellar = age_cellar(stock, data.catalog, args.cellar.on.date, args.cellar.settings);
+  const StockRebalance used = rebalance_from_stock(file.recipe, cellar, data.catalog, args.settings,
+                                                   Weighing::as_weighed, static_cast<double>(args.batches));
+  refuse_incomplete(used, used.recipe, stock, units);
+  JournalEntry entry;
+  entry.command = "use";
+  entry.recipe = file.recipe.name.empty() ? args.recipe : file.recipe.name;
+  entry.recipe_file = args.recipe;
+  entry.recipe_sha256 = recipe_sha256;
+  entry.batches = args.batches;
+  entry.on = format_date(cellar.on);
+  for (const LotDraw& draw : used.draws) {
+    if (draw.grams <= 0.0) continue;
+    const double before = stock.lots[draw.lot].on_hand_g.value_or(0.0);
+    entry.changes.push_back(LotChange{
+        LotChangeKind::amount, draw.lot, draw.code, draw.variety, before, ledger_grams(before - draw.grams), {}});
+  }
+  console.out << fmt::format("{} x{} on {}{}, weighed per batch:\n", entry.recipe, args.batches, entry.on,
+                             args.cellar.on.from_clock ? " (today; pass --on DATE to reproduce)" : "");
+  for (const auto& row : used.result.additions)
+    console.out << fmt::format("  addition {} {} ({}): {} from lot {}\n", row.index + 1, row.variety,
+                               describe_use(used.recipe.hops[row.index], units), format_mass(row.grams_after, units),
+                               row.lot);
+  report_change(console, ledger, ledger.commit(std::move(entry)), globals);
+}
+
 // ---- history and undo -----------------------------------------------------------------------------
 
 void run_history(const Console& console, const GlobalOptions& globals, const HistoryOptions& options,
@@ -245,6 +342,7 @@ constexpr std::string_view kStockFooter =
     "  bine stock list --stock stock.json --on 2026-12-01\n"
     "  bine stock --stock stock.json receive --lot TW-26-031 --variety Tidewell --amount \"5 kg\" --alpha 7.4 \\\n"
     "      --packaged 2026-10-02 --stored \"-2 C,vacuum\"\n"
+    "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01\n"
     "  bine stock --stock stock.json adjust TW-25-044 --to \"2.2 kg\" --reason \"counted on the shelf\"\n"
     "  bine stock --stock stock.json history TW-25-044\n"
     "  bine stock --stock stock.json undo";
@@ -293,6 +391,24 @@ void setup_receive(CLI::App* stock, const GlobalOptions& globals, CommandTable& 
   });
 }
 
+void setup_use(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
+               const std::shared_ptr<std::string>& stock_option) {
+  auto o = std::make_shared<UseOptions>();
+  auto* use = stock->add_subcommand("use", "take what a recipe weighs out of the stock, lot by lot (journalled)");
+  use->add_option("RECIPE", o->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
+  use->add_option("--batches", o->batches, "batches brewed (default 1)");
+  add_cellar_options(use, o->cellar, true);
+  add_bitterness_options(use, o->bitterness);
+  use->footer(
+      "The lots and grams are those rebalance --stock gives for the same options: the lot an addition names,\n"
+      "else oldest packaging first, split across lots where one has too little. A shortfall changes nothing.\n"
+      "Example:\n"
+      "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01 --batches 2");
+  commands.add(use, [&globals, o, stock_option](const Console& console) {
+    run_use(console, globals, parse_use_args(*o), *stock_option);
+  });
+}
+
 void setup_changes(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
                    const std::shared_ptr<std::string>& stock_option) {
   auto adjust_options = std::make_shared<AdjustOptions>();
@@ -322,13 +438,14 @@ void setup_changes(CLI::App* stock, const GlobalOptions& globals, CommandTable& 
 
 void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto stock_option = std::make_shared<std::string>();
-  auto* stock = app.add_subcommand("stock", "keep the cold store: list, receive, adjust, undo, history");
+  auto* stock = app.add_subcommand("stock", "keep the cold store: list, receive, use, adjust, undo, history");
   stock->add_option("--stock", *stock_option, "the stock file (default: $BINE_STOCK)");
   stock->require_subcommand(1);
   stock->fallthrough();
   stock->footer(std::string(kStockFooter));
   setup_list(stock, globals, commands, stock_option);
   setup_receive(stock, globals, commands, stock_option);
+  setup_use(stock, globals, commands, stock_option);
   setup_changes(stock, globals, commands, stock_option);
 }
 

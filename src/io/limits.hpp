@@ -45,5 +45,6 @@ inline constexpr Bounds alpha_tolerance{0.0, 50.0, "a certificate alpha toleranc
 inline constexpr Bounds blend_varieties{1.0, 6.0, "varieties in a blend"};
 inline constexpr Bounds substitutes_listed{1.0, 100.0, "substitutes listed"};
 inline constexpr Bounds stale_below{0.0, 100.0, "a share of the certificate alpha (%)"};
+inline constexpr Bounds batches{1.0, 1000.0, "batches"};
 
 }  // namespace bine::limits
