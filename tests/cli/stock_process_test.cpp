@@ -88,6 +88,32 @@ TEST_CASE("stock receive: 50 processes at once on one stock file all land (the l
   CHECK(lines.back()["stock_after"] == bine::sha256_hex(slurp(stock)));
 }
 
+TEST_CASE("stock use: 50 processes of 10 g at once on a 1 kg lot leave exactly 500 g and 50 journal entries") {
+  const bine::test::TempDir dir;
+  const auto stock = dir.path() / "stock.json";
+  write_one_lot_stock(stock);
+  const auto recipe = dir.path() / "dry-hop.json";
+  std::ofstream(recipe) << R"({"name": "10 g dry hop", "batch_volume": "20 L", "original_gravity": "1.050",
+    "boil_time": "60 min", "hops": [{"variety": "Fernlight", "amount": "10 g", "use": "dry-hop", "time": "4 d"}]})";
+  std::vector<pid_t> children;
+  for (int i = 0; i < 50; ++i)
+    children.push_back(start_bine({"stock", "--stock", stock.string(), "use", recipe.string(), "--on", "2026-03-02"}));
+  int failures = 0;
+  for (const pid_t child : children) failures += wait_for(child) != 0;
+  CHECK(failures == 0);
+  // Hand arithmetic: 1000 g - 50 x 10 g = 500 g (a dry hop without oil data holds its grams).
+  const std::string text = json::parse(slurp(stock))["lots"][0]["on_hand"].get<std::string>();
+  CHECK(text == "500 g");
+  const auto lines = journal_lines(stock);
+  REQUIRE(lines.size() == 50);
+  for (std::size_t i = 0; i < lines.size(); ++i) {
+    CHECK(lines[i]["command"] == "use");
+    CHECK(lines[i]["changes"][0]["before_g"].get<double>() == doctest::Approx(1000.0 - 10.0 * static_cast<double>(i)));
+    if (i > 0) CHECK(lines[i]["stock_before"] == lines[i - 1]["stock_after"]);
+  }
+  CHECK(lines.back()["stock_after"] == bine::sha256_hex(slurp(stock)));
+}
+
 namespace {
 
 double on_hand_g(const std::filesystem::path& stock) {
