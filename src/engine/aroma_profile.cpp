@@ -132,8 +132,8 @@ Eigen::VectorXd parse_aroma_spec(std::string_view spec, const Lexicon& lexicon, 
                                    axis_name, value_text));
     const std::string& axis = lexicon.axes()[*index].name;
     if (!given_as[*index].empty())
-      throw InputError(fmt::format("{}: \"{}\" and \"{}\" both set the {} axis (give it once)", where,
-                                   given_as[*index], axis_name, axis));
+      throw InputError(fmt::format("{}: \"{}\" and \"{}\" both set the {} axis (give it once)", where, given_as[*index],
+                                   axis_name, axis));
     given_as[*index] = std::string(axis_name);
     if (by_tag && read_as)
       read_as->push_back(fmt::format("{}: {}={} read as {}={} (\"{}\" is a {} tag of the lexicon)", where, axis_name,

@@ -53,9 +53,8 @@ DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>
   for (const auto& file : files) {
     catalogs.push_back(load_catalog(file, data.lexicon));
     const Catalog& loaded = catalogs.back();
-    data.sources.push_back(
-        {loaded.names.empty() ? file.stem().string() : loaded.names.front(),
-         is_shipped(file) ? "shipped " + file.filename().string() : file.string(), loaded.demo});
+    data.sources.push_back({loaded.names.empty() ? file.stem().string() : loaded.names.front(),
+                            is_shipped(file) ? "shipped " + file.filename().string() : file.string(), loaded.demo});
   }
   data.catalog = merge_catalogs(catalogs);
   return data;

@@ -11,8 +11,8 @@ namespace bine {
 
 /// One catalog a command's figures came from, for the line every output carries.
 struct CatalogSource {
-  std::string name;  // the catalog's own name
-  std::string file;  // as loaded
+  std::string name;   // the catalog's own name
+  std::string file;   // as loaded
   bool demo = false;  // invented demo data
 };
 
