@@ -101,3 +101,50 @@ TEST_CASE("an axis given twice in a target, by name or by tag, is refused with o
     CHECK(run.out.empty());
   }
 }
+
+TEST_CASE("a recipe variety no catalog knows: refused with the closest name unless the recipe gives the values") {
+  const bine::test::TempDir dir;
+  std::ifstream in(bine::test::example("pale-ale.json"));
+  nlohmann::json recipe = nlohmann::json::parse(in);
+  recipe["hops"][0]["variety"] = "Keelstne";  // the demo catalog has Keelstone
+  const fs::path with_alpha = dir.path() / "with-alpha.json";
+  std::ofstream(with_alpha) << recipe.dump();
+  // The recipe gives this boil addition's alpha acid, all ibu needs: it runs, and says what it noticed.
+  const auto runs = run_cli({"ibu", with_alpha.string()});
+  REQUIRE(runs.status == 0);
+  CHECK(runs.out.find("\"Keelstne\" is not in the loaded catalogs (did you mean Keelstone?)") != std::string::npos);
+  // Without the alpha the catalog would have to supply it: exit 2, one line, the file, field and hint.
+  recipe["hops"][0].erase("alpha_acid");
+  const fs::path without = dir.path() / "without-alpha.json";
+  std::ofstream(without) << recipe.dump();
+  const auto refused = run_cli({"ibu", without.string()});
+  CHECK(refused.status == 2);
+  CHECK(refused.out.empty());
+  CHECK(refused.err.find(without.string() + ": /hops/0/alpha_acid: is missing") != std::string::npos);
+  CHECK(refused.err.find("did you mean Keelstone?") != std::string::npos);
+}
+
+TEST_CASE("a stock lot of a variety no catalog knows stops every stock-reading command with the closest name") {
+  const bine::test::TempDir dir;
+  std::ifstream in(bine::test::example("stock.json"));
+  nlohmann::json stock = nlohmann::json::parse(in);
+  const std::string real = stock["lots"][0]["variety"];
+  const std::string typo = real.substr(0, real.size() - 1);
+  stock["lots"][0]["variety"] = typo;
+  const fs::path file = dir.path() / "stock.json";
+  std::ofstream(file) << stock.dump();
+  const std::vector<std::vector<std::string>> commands = {
+      {"stock", "list", file.string(), "--on", "2026-12-01"},
+      {"swap", "Tidewell", "--stock", file.string(), "--on", "2026-12-01"},
+      {"rebalance", bine::test::example("pale-ale.json"), "--stock", file.string(), "--on", "2026-12-01"},
+      {"blend", "--target", "citrus=4", "--recipe", bine::test::example("pale-ale.json"), "--stock", file.string(),
+       "--on", "2026-12-01"}};
+  for (const auto& args : commands) {
+    CAPTURE(args[0]);
+    const auto run = run_cli(args);
+    CHECK(run.status == 2);
+    CHECK(run.out.empty());
+    CHECK(run.err.find(file.string() + ": /lots/0/variety: \"" + typo + "\"") != std::string::npos);
+    CHECK(run.err.find("did you mean " + real) != std::string::npos);
+  }
+}
