@@ -118,9 +118,12 @@ void run_age(const Console& console, const GlobalOptions& globals, AgeArgs args)
         page_meta(data ? &*data : nullptr, "", "",
                   "certificate alpha, packaging date and storage; stability from " + args.query.stability_source));
   });
-  print_result(
-      console, args.json, [&] { return age_to_json(args.query, aged); },
-      [&](std::ostream& out) { render_age(out, args.query, aged, globals.unit_system()); });
+  const auto document = [&] { return age_to_json(args.query, aged); };
+  const auto text = [&](std::ostream& out) { render_age(out, args.query, aged, globals.unit_system()); };
+  if (data)
+    print_result(console, args.json, *data, document, text);  // the stability came from a catalog
+  else
+    print_result(console, args.json, document, text);
 }
 
 }  // namespace

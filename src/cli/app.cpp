@@ -29,7 +29,8 @@ void add_global_options(CLI::App& app, GlobalOptions& globals) {
   app.add_option("--data", globals.data.folder,
                  "descriptor-data folder (default: $BINE_DATA, else the installed or source-tree data)");
   app.add_option("--catalog", globals.catalogs,
-                 "a catalog file of your own, merged with the shipped ones (repeatable)");
+                 "a catalog file of your own (repeatable); it replaces the shipped demo catalog, which is mixed "
+                 "in only when named: --catalog demo");
   app.add_option("--units", globals.units, "units for text output: metric (g, L, C) or us (oz, gal, F)")
       ->check(CLI::IsMember({"metric", "us"}));
   app.add_flag("--timings", globals.timings, "print phase timings to stderr");

@@ -128,7 +128,8 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   return args;
 }
 
-BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
+/// The blend's target; `read_as` receives a line for each lexicon tag read as its axis.
+BlendTarget target_from(const BlendArgs& o, const DataSet& data, std::vector<std::string>& read_as) {
   if (!o.like.empty()) {
     const Variety& variety = require_variety(data.catalog, o.like, "--like");
     const AromaProfile profile = aroma_profile(variety, data.lexicon);
@@ -137,7 +138,7 @@ BlendTarget target_from(const BlendArgs& o, const DataSet& data) {
     return target_like(profile.intensity);
   }
   std::vector<bool> named;
-  const Eigen::VectorXd intensity = parse_aroma_spec(o.target, data.lexicon, "--target", &named);
+  const Eigen::VectorXd intensity = parse_aroma_spec(o.target, data.lexicon, "--target", &named, &read_as);
   return target_from_spec(intensity, named, o.others);
 }
 
@@ -205,7 +206,8 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   const std::optional<Recipe> recipe = file ? std::optional(recipe_with_lots(file->recipe, cellar)) : std::nullopt;
   // 2. The target, the candidates, and the plan: what the recipe keeps, the IBU, the late amount.
   BlendRequest request;
-  request.target = target_from(args, data);
+  std::vector<std::string> target_notes;
+  request.target = target_from(args, data, target_notes);
   CandidateSet candidates =
       blend_candidates(data.catalog, data.lexicon, cellar ? &*cellar : nullptr, args.like, args.cellar.allow_stale);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
@@ -223,6 +225,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   // 4. Render and write.
   std::vector<std::string> notes = blend_notes(args, request, candidates.notes, result);
   if (file) notes.insert(notes.begin(), file->notes.begin(), file->notes.end());
+  notes.insert(notes.begin(), target_notes.begin(), target_notes.end());
   if (cellar) notes.insert(notes.begin(), brew_day_line(args.cellar));
   BlendReportContext context{&data.lexicon,      &request,     recipe ? recipe->name : std::string(),
                              cellar.has_value(), std::nullopt, std::move(notes)};
@@ -233,7 +236,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   if (!args.write.empty() && recipe)
     write_recipe_file(args.write, *file, blended_recipe(*recipe, request.plan, result), &data.catalog);
   print_result(
-      console, args.json, [&] { return blend_to_json(result, context); },
+      console, args.json, data, [&] { return blend_to_json(result, context); },
       [&](std::ostream& out) { render_blend_text(out, result, context, units); });
 }
 

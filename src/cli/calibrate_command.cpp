@@ -100,7 +100,7 @@ void run_calibrate(const Console& console, const GlobalOptions& globals, const C
     context.profile_file = args.out;
   }
   print_result(
-      console, args.json, [&] { return calibration_to_json(calibration, context, profile); },
+      console, args.json, data, [&] { return calibration_to_json(calibration, context, profile); },
       [&](std::ostream& out) { render_calibration(out, calibration, context, profile); });
 }
 

@@ -23,7 +23,7 @@ struct CatalogOptions {
 void run_list(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   const DataSet data = load_data(globals, console);
   print_result(
-      console, options.json, [&] { return catalog_to_json(data.catalog); },
+      console, options.json, data, [&] { return catalog_to_json(data.catalog); },
       [&](std::ostream& out) { render_catalog_list(out, data.catalog, data.lexicon); });
 }
 
@@ -31,7 +31,7 @@ void run_show(const Console& console, const GlobalOptions& globals, const Catalo
   const DataSet data = load_data(globals, console);
   const Variety& variety = require_variety(data.catalog, options.name, "catalog show");
   print_result(
-      console, options.json, [&] { return variety_to_json(variety); },
+      console, options.json, data, [&] { return variety_to_json(variety); },
       [&](std::ostream& out) { render_variety(out, variety, data.lexicon); });
 }
 

@@ -7,6 +7,7 @@
 #include <ostream>
 #include <string>
 
+#include "io/data_dir.hpp"
 #include "report/timings.hpp"
 
 namespace bine::cli {
@@ -24,5 +25,10 @@ struct Console {
 /// the text rendering.
 void print_result(const Console& console, bool json, const std::function<nlohmann::json()>& document,
                   const std::function<void(std::ostream&)>& text);
+/// The same for a command whose figures come from catalogs: the JSON object gains "catalogs_used"
+/// (name, file, demo) and the text ends with the catalogs-used line, so every output says where its
+/// numbers came from and marks demo data.
+void print_result(const Console& console, bool json, const DataSet& data,
+                  const std::function<nlohmann::json()>& document, const std::function<void(std::ostream&)>& text);
 
 }  // namespace bine::cli

@@ -18,10 +18,9 @@ html::PageMeta page_meta(const DataSet* data, const std::string& recipe, const s
   html::PageMeta meta;
   meta.written_on = format_date(today());
   meta.version = BINE_VERSION;
-  std::string names;
   if (data)
-    for (const auto& name : data->catalog.names) names += (names.empty() ? "" : ", ") + name;
-  if (!names.empty()) meta.sources.push_back({"catalogs", names, data->catalog.demo});
+    for (const CatalogSource& source : data->sources)
+      meta.sources.push_back({"catalog", source.name + " (" + source.file + ")", source.demo});
   if (!recipe.empty()) meta.sources.push_back({"recipe", recipe, false});
   if (!stock.empty()) meta.sources.push_back({"stock", stock, false});
   if (!given.empty()) meta.sources.push_back({"command line", given, false});

@@ -82,7 +82,7 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   write_html(args.html,
              [&] { return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe)); });
   print_result(
-      console, args.json, [&] { return bitterness_to_json(recipe, bitterness, &intervals); },
+      console, args.json, data, [&] { return bitterness_to_json(recipe, bitterness, &intervals); },
       [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system(), &intervals); });
 }
 

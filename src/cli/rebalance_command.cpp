@@ -177,7 +177,7 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
     return rebalance_html(recipe, context, result, globals.unit_system(), page_meta(&data, args.recipe, args.stock));
   });
   print_result(
-      console, args.json, [&] { return rebalance_to_json(recipe, context, result); },
+      console, args.json, data, [&] { return rebalance_to_json(recipe, context, result); },
       [&](std::ostream& out) { render_rebalance(out, recipe, context, result, globals.unit_system()); });
 }
 

@@ -98,7 +98,7 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
     view = view_stock(ledger.stock(), data.catalog, on->date, stale_below.value_or(75.0) / 100.0);
   }
   print_result(
-      console, options.json, [&] { return stock_list_to_json(*view); },
+      console, options.json, data, [&] { return stock_list_to_json(*view); },
       [&](std::ostream& out) {
         render_stock_list(out, *view, globals.unit_system());
         if (on->from_clock) out << "(listed for today; pass --on DATE to repeat the list)\n";

@@ -196,8 +196,6 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
     return find_substitutes(data.catalog, data.lexicon, args.request);
   }();
   if (result.from_stock) result.notes.push_back(brew_day_line(args.cellar));
-  if (data.catalog.demo)
-    result.notes.push_back("the shipped catalog is invented demo data: load your own with --catalog FILE for brewing");
   // 3. Into the recipe, when asked; then list only the substitutes the brewer asked to see.
   std::optional<RecipeSwapReport> swapped;
   if (!args.recipe.empty()) {
@@ -214,7 +212,7 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   write_html(args.html,
              [&] { return swap_html(result, globals.unit_system(), pairs, page_meta(&data, "", args.stock)); });
   print_result(
-      console, args.json,
+      console, args.json, data,
       [&] {
         nlohmann::json out = swap_to_json(result, pairs);
         if (swapped) out["recipe_swap"] = recipe_swap_to_json(*swapped);

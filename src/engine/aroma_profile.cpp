@@ -87,9 +87,10 @@ AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon) {
 }
 
 Eigen::VectorXd parse_aroma_spec(std::string_view spec, const Lexicon& lexicon, std::string_view where,
-                                 std::vector<bool>* named) {
+                                 std::vector<bool>* named, std::vector<std::string>* read_as) {
   Eigen::VectorXd target = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(lexicon.size()));
   if (named) named->assign(lexicon.size(), false);
+  std::vector<std::string> given_as(lexicon.size());  // the name each axis was given by
   bool any = false;
   std::size_t start = 0;
   while (start <= spec.size()) {
@@ -110,9 +111,13 @@ Eigen::VectorXd parse_aroma_spec(std::string_view spec, const Lexicon& lexicon, 
     std::string_view value_text = item.substr(eq + 1);
     while (!axis_name.empty() && axis_name.back() == ' ') axis_name.remove_suffix(1);
     while (!value_text.empty() && value_text.front() == ' ') value_text.remove_prefix(1);
-    const auto index = lexicon.axis_index(axis_name);
+    auto index = lexicon.axis_index(axis_name);
+    const bool by_tag = !index && lexicon.axis_for_tag(axis_name).has_value();
+    if (by_tag) index = lexicon.axis_for_tag(axis_name);
     if (!index) {
-      std::string hint = did_you_mean(axis_name, lexicon.axis_names());
+      std::vector<std::string> known = lexicon.axis_names();
+      for (auto& tag : lexicon.all_tags()) known.push_back(std::move(tag));
+      std::string hint = did_you_mean(axis_name, known);
       if (hint.empty()) {
         hint = "axes are";
         for (const auto& name : lexicon.axis_names()) hint += " " + name;
@@ -125,6 +130,14 @@ Eigen::VectorXd parse_aroma_spec(std::string_view spec, const Lexicon& lexicon, 
         value > 5.0)
       throw InputError(fmt::format("{}: {}=\"{}\" is not an intensity (expected a number from 0 to 5)", where,
                                    axis_name, value_text));
+    const std::string& axis = lexicon.axes()[*index].name;
+    if (!given_as[*index].empty())
+      throw InputError(fmt::format("{}: \"{}\" and \"{}\" both set the {} axis (give it once)", where, given_as[*index],
+                                   axis_name, axis));
+    given_as[*index] = std::string(axis_name);
+    if (by_tag && read_as)
+      read_as->push_back(fmt::format("{}: {}={} read as {}={} (\"{}\" is a {} tag of the lexicon)", where, axis_name,
+                                     value_text, axis, value_text, axis_name, axis));
     target[static_cast<Eigen::Index>(*index)] = value;
     if (named) (*named)[*index] = true;
     any = true;

@@ -34,10 +34,12 @@ AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon);
 /// that compound, summed per axis, and scaled so the strongest axis is 3. Empty when no oils.
 Eigen::VectorXd aroma_from_oils(const Variety& variety, const Lexicon& lexicon);
 
-/// Parses a target profile such as "floral=4,citrus=4,tropical=1" into axis intensities.
-/// Throws InputError naming `where` for an unknown axis (with did-you-mean) or a value outside 0-5.
-/// `named` receives true for each axis the spec names.
+/// Parses a target profile such as "floral=4,citrus=4,tropical=1" into axis intensities. A name
+/// may also be one of the lexicon's tags ("lemon=4" is citrus=4); `read_as` (if given) then receives
+/// one line per tag saying which axis it was read as. Throws InputError naming `where` for a name
+/// that is neither an axis nor a tag (with did-you-mean), an axis given twice (directly or through
+/// a tag) or a value outside 0-5. `named` receives true for each axis the spec names.
 Eigen::VectorXd parse_aroma_spec(std::string_view spec, const Lexicon& lexicon, std::string_view where,
-                                 std::vector<bool>* named = nullptr);
+                                 std::vector<bool>* named = nullptr, std::vector<std::string>* read_as = nullptr);
 
 }  // namespace bine

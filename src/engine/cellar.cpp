@@ -124,7 +124,21 @@ CellarLot lot_on_brew_day(const Lot& lot, std::size_t index, const Variety* vari
   return c;
 }
 
+void require_known_varieties(const Stock& stock, const Catalog& catalog) {
+  std::vector<std::string> problems;
+  for (std::size_t i = 0; i < stock.lots.size(); ++i) {
+    const std::string& name = stock.lots[i].variety;
+    if (find_variety(catalog, name) == nullptr)
+      problems.push_back(
+          fmt::format("{}: /lots/{}/variety: \"{}\" is not in the loaded catalogs ({}): its stability "
+                      "is needed to age the lot",
+                      stock.source_file, i, name, variety_hint(catalog, name)));
+  }
+  if (!problems.empty()) throw InputError(problems, {Remedy::add_catalog});
+}
+
 Cellar age_cellar(const Stock& stock, const Catalog& catalog, Date on, const CellarSettings& settings) {
+  require_known_varieties(stock, catalog);
   Cellar cellar;
   cellar.name = stock.name.empty() ? stock.source_file : stock.name;
   cellar.source_file = stock.source_file;

@@ -81,7 +81,12 @@ struct Cellar {
 CellarLot lot_on_brew_day(const Lot& lot, std::size_t index, const Variety* variety, Date on,
                           const CellarSettings& settings = {});
 
-/// Every lot of `stock` aged to `on`. Throws InputError naming each lot packaged after `on`.
+/// Throws InputError naming each lot whose variety the catalog does not know (with the closest
+/// names): its stability, which ages it, would otherwise be a guess.
+void require_known_varieties(const Stock& stock, const Catalog& catalog);
+
+/// Every lot of `stock` aged to `on`; require_known_varieties first. Throws InputError naming each lot packaged after
+/// `on`.
 Cellar age_cellar(const Stock& stock, const Catalog& catalog, Date on, const CellarSettings& settings = {});
 
 /// A catalog-only candidate's alpha: the midpoint of the variety's range, with the note that says so.

@@ -41,6 +41,11 @@ RecipeBitterness recipe_bitterness(const Recipe& recipe, const Catalog& catalog,
     if (hop.use == HopUse::whirlpool) result.has_whirlpool = true;
 
     const Variety* variety = hop.variety.empty() ? nullptr : find_variety(catalog, hop.variety);
+    if (variety == nullptr && !hop.variety.empty() && (hop.alpha_acid || hop.use == HopUse::dry_hop))
+      result.notes.push_back(
+          fmt::format("addition {}: \"{}\" is not in the loaded catalogs ({}); the recipe's own "
+                      "values used",
+                      i + 1, hop.variety, variety_hint(catalog, hop.variety)));
     if (hop.alpha_acid) {
       line.alpha_percent = *hop.alpha_acid;
       line.alpha_source = AlphaSource::recipe;
@@ -55,9 +60,10 @@ RecipeBitterness recipe_bitterness(const Recipe& recipe, const Catalog& catalog,
       line.alpha_source = AlphaSource::none;  // 0 IBU whatever the alpha
     } else {
       problems.push_back(
-          fmt::format("{}: /hops/{}/alpha_acid: is missing and {} (give the alpha acid % the recipe was written for)",
+          fmt::format("{}: /hops/{}/alpha_acid: is missing and {}: give the alpha acid % the recipe was written for",
                       recipe.source_file, i,
-                      variety == nullptr ? fmt::format("\"{}\" is not a catalog variety", line.variety)
+                      variety == nullptr ? fmt::format("\"{}\" is not in the loaded catalogs ({})", line.variety,
+                                                       variety_hint(catalog, line.variety))
                                          : fmt::format("the catalog has no alpha acid for {}", variety->name)));
       continue;
     }

@@ -53,6 +53,7 @@ long days_to_share(const StorageHistory& history, double share) {
 }
 
 StockView view_stock(const Stock& stock, const Catalog& catalog, Date on, double stale_below) {
+  require_known_varieties(stock, catalog);
   StockView view;
   view.name = stock.name.empty() ? stock.source_file : stock.name;
   view.on = on;

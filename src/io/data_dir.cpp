@@ -1,5 +1,7 @@
 #include "io/data_dir.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 
 #include "io/loaders.hpp"
@@ -31,16 +33,44 @@ DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>
   DataSet data;
   data.data_dir = resolve_data_dir(choice);
   data.lexicon = load_lexicon(data.data_dir / "lexicon.json");
-  std::vector<fs::path> files;
+  std::vector<fs::path> shipped;
   std::error_code ec;
   for (const auto& entry : fs::directory_iterator(data.data_dir / "catalog", ec))
-    if (entry.path().extension() == ".json") files.push_back(entry.path());
-  std::sort(files.begin(), files.end());
-  for (const auto& file : user_catalogs) files.emplace_back(file);
+    if (entry.path().extension() == ".json") shipped.push_back(entry.path());
+  std::sort(shipped.begin(), shipped.end());
+  std::vector<fs::path> files = user_catalogs.empty() ? shipped : std::vector<fs::path>{};
+  for (const auto& given : user_catalogs) {
+    const fs::path path(given);
+    const auto named = std::find_if(shipped.begin(), shipped.end(), [&](const fs::path& file) {
+      return !path.has_parent_path() && !path.has_extension() && file.stem() == path;
+    });
+    files.push_back(named != shipped.end() ? *named : path);
+  }
+  const auto is_shipped = [&](const fs::path& file) {
+    return std::find(shipped.begin(), shipped.end(), file) != shipped.end();
+  };
   std::vector<Catalog> catalogs;
-  for (const auto& file : files) catalogs.push_back(load_catalog(file, data.lexicon));
+  for (const auto& file : files) {
+    catalogs.push_back(load_catalog(file, data.lexicon));
+    const Catalog& loaded = catalogs.back();
+    data.sources.push_back({loaded.names.empty() ? file.stem().string() : loaded.names.front(),
+                            is_shipped(file) ? "shipped " + file.filename().string() : file.string(), loaded.demo});
+  }
   data.catalog = merge_catalogs(catalogs);
   return data;
+}
+
+std::string catalogs_used_line(const DataSet& data) {
+  std::string line = "Catalogs used: ";
+  for (std::size_t i = 0; i < data.sources.size(); ++i) {
+    const CatalogSource& source = data.sources[i];
+    line += fmt::format("{}{} ({}{})", i == 0 ? "" : "; ", source.name, source.file,
+                        source.demo ? "; invented demo data, not real varieties: load your own with --catalog FILE "
+                                      "for brewing"
+                                    : "");
+  }
+  if (data.sources.empty()) line += "none";
+  return line + ".";
 }
 
 }  // namespace bine

@@ -9,10 +9,18 @@
 
 namespace bine {
 
+/// One catalog a command's figures came from, for the line every output carries.
+struct CatalogSource {
+  std::string name;   // the catalog's own name
+  std::string file;   // as loaded
+  bool demo = false;  // invented demo data
+};
+
 struct DataSet {
   std::filesystem::path data_dir;
   Lexicon lexicon;
-  Catalog catalog;  // the data dir's catalogs, then --catalog files, merged
+  Catalog catalog;                     // the catalogs below, merged
+  std::vector<CatalogSource> sources;  // in load order
 };
 
 /// Where the brewer named a data folder, for messages: `folder` and the words that named it
@@ -27,7 +35,13 @@ struct DataFolderChoice {
 /// folder has no lexicon.json. Reads no environment variable (the command line does, once).
 std::filesystem::path resolve_data_dir(const DataFolderChoice& choice);
 
-/// Loads the lexicon, every catalog under DATA/catalog (sorted by name), then the user catalogs.
+/// Loads the lexicon and the catalogs: without `user_catalogs`, every catalog shipped under
+/// DATA/catalog (sorted by name); with them, only those. An entry that is the bare name of a shipped
+/// catalog (no folder, no extension: "demo") means that shipped catalog, so the demo data is mixed
+/// into the brewer's own only when asked for by name.
 DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs);
+
+/// "Catalogs used: A (file; invented demo data ...); B (file)." for the end of a text output.
+std::string catalogs_used_line(const DataSet& data);
 
 }  // namespace bine

@@ -21,11 +21,14 @@ std::vector<std::string> variety_names(const Catalog& catalog) {
   return names;
 }
 
+std::string variety_hint(const Catalog& catalog, std::string_view name) {
+  std::string hint = did_you_mean(name, variety_names(catalog));
+  return hint.empty() ? "see 'bine catalog list'" : hint;
+}
+
 const Variety& require_variety(const Catalog& catalog, std::string_view name, std::string_view where) {
   if (const Variety* variety = find_variety(catalog, name)) return *variety;
-  std::string hint = did_you_mean(name, variety_names(catalog));
-  if (hint.empty()) hint = "see 'bine catalog list'";
-  throw InputError(fmt::format("{}: unknown variety \"{}\" ({})", where, name, hint));
+  throw InputError(fmt::format("{}: unknown variety \"{}\" ({})", where, name, variety_hint(catalog, name)));
 }
 
 const Lot* find_lot(const Stock& stock, std::string_view code) {

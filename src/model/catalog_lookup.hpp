@@ -1,5 +1,6 @@
 #pragma once
 // Finding varieties and lots by the names brewers type.
+#include <string>
 #include <string_view>
 #include <vector>
 
@@ -12,6 +13,8 @@ const Variety* find_variety(const Catalog& catalog, std::string_view name);
 /// As find_variety, but throws InputError "`where`: unknown variety "X" (did you mean ...?)".
 const Variety& require_variety(const Catalog& catalog, std::string_view name, std::string_view where);
 std::vector<std::string> variety_names(const Catalog& catalog);
+/// For a name not in the catalog: "did you mean A or B?", else "see 'bine catalog list'".
+std::string variety_hint(const Catalog& catalog, std::string_view name);
 
 /// The lot with this code (folded comparison), or nullptr.
 const Lot* find_lot(const Stock& stock, std::string_view code);

@@ -44,9 +44,14 @@ TEST_CASE("ibu text: table with units, hot-wort caution once, ends with the BU:G
   const auto first = result.out.find("Caution: whirlpool");
   REQUIRE(first != std::string::npos);
   CHECK(result.out.find("Caution: whirlpool", first + 1) == std::string::npos);
-  // 15.7 / 50 = 0.31: between sweet and balanced.
-  const std::string tail = result.out.substr(result.out.rfind('\n', result.out.size() - 2) + 1);
-  CHECK(tail.find("BU:GU 0.31, between sweet and balanced") != std::string::npos);
+  // 15.7 / 50 = 0.31: between sweet and balanced. The reading is the last figure; only the line naming
+  // the catalogs used follows it.
+  const auto reading = result.out.find("BU:GU 0.31, between sweet and balanced");
+  const auto used = result.out.find("\nCatalogs used: ");
+  REQUIRE(reading != std::string::npos);
+  REQUIRE(used != std::string::npos);
+  CHECK(reading < used);
+  CHECK(result.out.find("IBU", reading) > used);
 }
 
 TEST_CASE("ibu --units us prints oz, gal and F, and JSON stays canonical") {

@@ -15,11 +15,17 @@
 #include "cli/temp_dir.hpp"
 
 using bine::test::fixture;
-using bine::test::run_cli;
 using bine::test::slurp;
 using nlohmann::json;
 
 namespace {
+
+/// `bine --catalog <the fixture's varieties> ARGS`, in-process. The catalog names the stock's
+/// invented varieties and gives none of them a stability, so every lot ages at the fair class.
+bine::test::CliRun run_cli(std::vector<std::string> args) {
+  args.insert(args.begin(), {"--catalog", fixture("stock-ledger-catalog.json")});
+  return bine::test::run_cli(args);
+}
 
 /// A copy of the fixture stock in a scratch folder, with its journal beside it.
 struct ScratchStock {
@@ -62,7 +68,7 @@ TEST_CASE("stock list: alpha today, share left, HSI state, stale flag, days unti
   REQUIRE(run.status == 0);
   const json out = json::parse(run.out);
   REQUIRE(out["lots"].size() == 3);
-  // Fernlight is not in the catalog: the fair class, 65 % left after 180 days at 20 C open
+  // Fernlight has no stability in the fixture catalog: the fair class, 65 % left after 180 days at 20 C open
   // (common practice), so k = -ln(0.65) / 180 per day (Garetz 1994 first-order loss).
   // FL-1: 60 days at 5 C vacuum, TF = 2^((5 - 20) / 15) = 0.5, SF = 0.5 (from memory):
   // remaining exp(-k x 0.25 x 60) = 0.96474, alpha 9.647 %; below 75 % after
@@ -113,7 +119,7 @@ TEST_CASE("stock list: alpha today, share left, HSI state, stale flag, days unti
 TEST_CASE("stock list: a lot with an HSI ages at its variety's rate exactly as one without (HSI is a state)") {
   bine::test::TempDir dir;
   const auto file = dir.path() / "hsi.json";
-  // Two lots of one variety not in the catalog (fair class), same alpha, date and storage; only
+  // Two lots of one variety without a stability in the catalog (fair class), same alpha, date and storage; only
   // one carries an HSI. The HSI is what the sample had lost when analysed, already in its certificate
   // alpha, never a storage rate (Garetz 1994; docs/methods.md#hsi).
   write(file, R"({"lots": [

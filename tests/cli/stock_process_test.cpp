@@ -97,11 +97,12 @@ TEST_CASE("stock use: 50 processes of 10 g at once on a 1 kg lot leave exactly 5
     "boil_time": "60 min", "hops": [{"variety": "Fernlight", "amount": "10 g", "use": "dry-hop", "time": "4 d"}]})";
   std::vector<pid_t> children;
   for (int i = 0; i < 50; ++i)
-    children.push_back(start_bine({"stock", "--stock", stock.string(), "use", recipe.string(), "--on", "2026-03-02"}));
+    children.push_back(start_bine({"--catalog", std::string(BINE_TEST_DIR) + "/fixtures/stock-ledger-catalog.json",
+                                   "stock", "--stock", stock.string(), "use", recipe.string(), "--on", "2026-03-02"}));
   int failures = 0;
   for (const pid_t child : children) failures += wait_for(child) != 0;
   CHECK(failures == 0);
-  // Hand arithmetic: 1000 g - 50 x 10 g = 500 g (a dry hop without oil data holds its grams).
+  // Hand arithmetic: 1000 g - 50 x 10 g = 500 g (the lot gives no oil, so the dry hop holds its grams).
   const std::string text = json::parse(slurp(stock))["lots"][0]["on_hand"].get<std::string>();
   CHECK(text == "500 g");
   const auto lines = journal_lines(stock);

@@ -2,13 +2,14 @@
 // from the lots rebalance --stock chooses (docs/methods.md#lot-choice), journalled, and nothing
 // changed when the stock falls short.
 //
-// The stock on 2026-03-02 (Garetz storage loss; Fernlight is in no catalog, so the fair class, 65 %
-// left after 180 days at 20 C, k = ln(100 / 65) / 180 per day):
+// The stock on 2026-03-02 (Garetz storage loss; Fernlight's test catalog, stock-ledger-catalog.json,
+// gives no stability, so the fair class, 65 % left after 180 days at 20 C, k = ln(100 / 65) / 180
+// per day):
 //   FL-1: packaged 2026-01-01, 5 C vacuum, 1 kg: 60 days at TF = 2^(-15/15) = 0.5, SF = 0.5 leave
 //         0.65^(60 x 0.25 / 180) = 96.5 %: fresh.
 //   FL-2: packaged 2025-08-14, 20 C open, 500 g: 200 days leave 0.65^(200 / 180) = 62.0 %: stale
 //         below 75 %, so left out unless --allow-stale.
-// The recipe (use-dry-hop.json) is one dry hop of 10 g with no oil data, so it holds its grams.
+// The recipe (use-dry-hop.json) is one dry hop of 10 g; the lots give no oil, so it holds its grams.
 #include <doctest/doctest.h>
 
 #include <filesystem>
@@ -45,8 +46,9 @@ struct ScratchStock {
 };
 
 bine::test::CliRun use(const ScratchStock& stock, std::vector<std::string> extra) {
-  std::vector<std::string> args{"stock", "--stock",   stock.file.string(), "use", fixture("use-dry-hop.json"),
-                                "--on",  "2026-03-02"};
+  std::vector<std::string> args{
+      "--catalog", fixture("stock-ledger-catalog.json"), "stock", "--stock",   stock.file.string(),
+      "use",       fixture("use-dry-hop.json"),          "--on",  "2026-03-02"};
   args.insert(args.end(), extra.begin(), extra.end());
   return run_cli(args);
 }
@@ -106,8 +108,9 @@ TEST_CASE("stock use refuses an addition the stock holds no lot for, and bad --b
   const ScratchStock stock;
   const std::string before = slurp(stock.file);
   // lots-15g.json bitters with Fixture Bitter, of which stock-ledger.json holds no lot.
-  const auto missing = run_cli({"--catalog", fixture("h3-catalog.json"), "stock", "--stock", stock.file.string(), "use",
-                                fixture("lots-15g.json"), "--on", "2026-03-02"});
+  const auto missing =
+      run_cli({"--catalog", fixture("h3-catalog.json"), "--catalog", fixture("stock-ledger-catalog.json"), "stock",
+               "--stock", stock.file.string(), "use", fixture("lots-15g.json"), "--on", "2026-03-02"});
   CHECK(missing.status == 3);
   CHECK(missing.err.find("addition 1 (Fixture Bitter, boil 60 min): no usable lot in") != std::string::npos);
   const auto zero = use(stock, {"--batches", "0"});

@@ -87,7 +87,8 @@ TEST_CASE("a renamed copy given with --catalog is the first substitute, bitterin
     copy["name"] = "Keelstone Twin";
     std::ofstream(mine) << nlohmann::json{{"catalog", {{"name", "mine"}}}, {"varieties", {copy}}}.dump();
   }
-  const auto run = run_cli({"--catalog", mine.string(), "swap", "keelstone", "--for", "bittering", "--json"});
+  const auto run =
+      run_cli({"--catalog", "demo", "--catalog", mine.string(), "swap", "keelstone", "--for", "bittering", "--json"});
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
   const auto& best = doc.at("substitutes")[0];

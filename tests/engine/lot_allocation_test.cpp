@@ -27,8 +27,10 @@ bine::Catalog test_catalog() {
   aroma.name = "Aroma";
   aroma.alpha_acid = bine::Range{4.0, 6.0};
   aroma.total_oil = bine::Range{1.0, 2.0};
+  bine::Variety rangeless;  // known, but with no alpha range
+  rangeless.name = "Rangeless";
   bine::Catalog catalog;
-  catalog.varieties = {bitter, aroma};
+  catalog.varieties = {bitter, aroma, rangeless};
   return catalog;
 }
 
@@ -273,17 +275,17 @@ TEST_CASE("a named lot without alpha acid, of a variety the catalog has no range
   // Nothing gives its alpha on the brew day, so nothing can be weighed from it.
   bine::Lot unknown;
   unknown.lot = "U-1";
-  unknown.variety = "Unlisted";
+  unknown.variety = "Rangeless";
   unknown.on_hand_g = 500;
   const auto cellar = cellar_of({unknown});
   REQUIRE_FALSE(cellar.lots[0].alpha_today.has_value());
-  auto hop = addition("Unlisted", 30, 7.0, HopUse::boil, 60);
+  auto hop = addition("Rangeless", 30, 7.0, HopUse::boil, 60);
   hop.lot = "U-1";
   try {
     bine::rebalance_from_stock(recipe_of({hop}), cellar, test_catalog(), {}, bine::Weighing::exact);
     FAIL("expected InputError");
   } catch (const bine::InputError& e) {
     REQUIRE(e.lines().size() == 1);
-    CHECK(e.lines()[0].find("stock.json: /lots/0/alpha_acid: lot U-1 of Unlisted is named by the recipe") == 0);
+    CHECK(e.lines()[0].find("stock.json: /lots/0/alpha_acid: lot U-1 of Rangeless is named by the recipe") == 0);
   }
 }

@@ -59,14 +59,9 @@ TEST_CASE("with stock only lots on hand of catalog varieties are ranked") {
   empty.lot = "EMPTY-1";
   empty.on_hand_g = 0.0;
   stock.lots.push_back(empty);
-  bine::Lot unknown = stock.lots.front();
-  unknown.lot = "UNKNOWN-1";
-  unknown.variety = "No Such Hop";
-  stock.lots.push_back(unknown);
   std::set<std::string> stocked;
   for (const auto& lot : stock.lots)
-    if (lot.on_hand_g && *lot.on_hand_g > 0.0 && lot.variety != "No Such Hop" && lot.variety != "Tidewell")
-      stocked.insert(lot.lot);
+    if (lot.on_hand_g && *lot.on_hand_g > 0.0 && lot.variety != "Tidewell") stocked.insert(lot.lot);
 
   bine::SwapRequest request;
   request.missing = "Tidewell";
@@ -83,9 +78,25 @@ TEST_CASE("with stock only lots on hand of catalog varieties are ranked") {
     seen.insert(s.lot->lot);
   }
   CHECK(seen == stocked);  // every stocked lot is ranked when --top is large enough
-  bool noted = false;
-  for (const auto& note : result.notes) noted |= note.find("UNKNOWN-1") != std::string::npos;
-  CHECK(noted);
+}
+
+TEST_CASE("a stock lot of a variety no loaded catalog knows is refused with the closest names") {
+  const bine::DataSet data = demo_data();
+  bine::Stock stock = bine::load_stock(BINE_TEST_DIR "/../descriptor-data/examples/stock.json");
+  bine::Lot typo = stock.lots.front();
+  typo.lot = "TYPO-1";
+  typo.variety = "Tidewel";  // one letter short of the demo catalog's Tidewell
+  stock.lots.push_back(typo);
+  const std::string where = "/lots/" + std::to_string(stock.lots.size() - 1) + "/variety";
+  try {
+    const bine::Cellar cellar = bine::age_cellar(stock, data.catalog, *bine::parse_date("2026-12-01"));
+    FAIL("age_cellar accepted a lot of an unknown variety among " << cellar.lots.size() << " lots");
+  } catch (const bine::InputError& error) {
+    const std::string message = error.what();
+    CHECK(message.find(where) != std::string::npos);
+    CHECK(message.find("\"Tidewel\"") != std::string::npos);
+    CHECK(message.find("did you mean Tidewell") != std::string::npos);
+  }
 }
 
 TEST_CASE("amount factors by hand") {
