@@ -9,12 +9,14 @@
 #include <set>
 
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "engine/stock_view.hpp"
 #include "io/limits.hpp"
 #include "io/stock_ledger.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
+#include "report/html_reports.hpp"
 #include "report/stock_report.hpp"
 
 namespace bine::cli {
@@ -25,6 +27,8 @@ struct ListOptions {
   std::string on;
   std::string stale_below;
   bool json = false;
+  bool csv = false;
+  std::string html;
 };
 
 /// A lot with less than this share of its certificate alpha is stale.
@@ -83,7 +87,10 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
   const auto on = reader.brew_day(options.on);
   const auto stale_below =
       reader.optional_quantity("--stale-below", options.stale_below, Dimension::percent, kStaleBelow);
+  const std::string conflict = csv_conflict(options.json, options.csv, options.html);
+  reader.require(conflict.empty(), conflict);
   reader.throw_if_any();
+  const Printed printed = printed_as(options.json, options.csv, options.html);
   const std::string file = stock_file_from(options.stock.empty() ? stock_option : options.stock);
   const DataSet data = load_data(globals, console);
   std::optional<StockView> view;
@@ -91,8 +98,11 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
     const StockLedger ledger(file, true);  // completes an interrupted change before the list is read
     view = view_stock(ledger.stock(), data.catalog, on->date, stale_below.value_or(75.0) / 100.0);
   }
+  if (printed == Printed::csv && on->from_clock)
+    print_notes(console, {"listed for today; pass --on DATE to repeat the list"});
+  write_html(options.html, [&] { return stock_html(*view, globals.unit_system(), page_meta(&data, "", file)); });
   print_result(
-      console, options.json, data, [&] { return stock_list_to_json(*view); },
+      console, printed, data, [&] { return stock_list_to_json(*view); }, [&] { return stock_list_to_csv(*view); },
       [&](std::ostream& out) {
         render_stock_list(out, *view, globals.unit_system());
         if (on->from_clock) out << "(listed for today; pass --on DATE to repeat the list)\n";
@@ -265,11 +275,17 @@ void setup_list(CLI::App* stock, const GlobalOptions& globals, CommandTable& com
   list->add_option("--stale-below", options->stale_below,
                    "a lot with less than this share of its certificate alpha is stale (default 75%)");
   list->add_flag("--json", options->json, "print JSON");
+  list->add_flag("--csv", options->csv,
+                 "print one CSV table for spreadsheets: a row per lot, units in the headers, canonical units "
+                 "(save it: > lots.csv)");
+  add_html_option(list, options->html);
   list->footer(
       "Examples:\n"
       "  bine stock list stock.json --on 2026-12-01\n"
       "  BINE_STOCK=stock.json bine --units us stock list --stale-below 80\n"
-      "  bine stock list stock.json --json");
+      "  bine stock list stock.json --json\n"
+      "  bine stock list stock.json --on 2026-12-01 --csv\n"
+      "  bine stock list stock.json --on 2026-12-01 --html cold-store.html");
   commands.add(list, [&globals, options, stock_option](const Console& console) {
     run_list(console, globals, *options, *stock_option);
   });

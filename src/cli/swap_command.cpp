@@ -33,6 +33,7 @@ struct SwapOptions {
   std::string top;
   bool pairs = false;
   bool json = false;
+  bool csv = false;
   std::string html;
   std::string recipe;
   std::string pick;
@@ -44,7 +45,7 @@ struct SwapArgs {
   SwapRequest request;  // without catalog data; the cellar is attached once loaded
   CellarChoice cellar;
   std::string stock;
-  bool json = false;
+  Printed printed = Printed::text;
   std::string html;
   std::size_t shown = 5;  // substitutes listed (the request may rank more, for --pick and --pair)
   std::string recipe;
@@ -74,8 +75,12 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
   OptionReader reader;
   SwapArgs args;
   args.stock = options.stock;
-  args.json = options.json;
   args.html = options.html;
+  const std::string conflict = csv_conflict(options.json, options.csv, options.html);
+  reader.require(conflict.empty(), conflict);
+  reader.require(!options.csv || options.recipe.empty(),
+                 "--csv: not with --recipe (the CSV lists the substitutes only; expected --json for the recipe "
+                 "swap as well)");
   args.request.missing = options.variety;
   args.request.pairs = options.pairs;
   if (const auto purpose = swap_purpose_from(options.purpose))
@@ -90,6 +95,7 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
       options.cellar.on.empty() || !options.stock.empty(),
       fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.cellar.on));
   reader.throw_if_any();
+  args.printed = printed_as(options.json, options.csv, options.html);
   return args;
 }
 
@@ -211,13 +217,15 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   const bool pairs = args.request.pairs;
   write_html(args.html,
              [&] { return swap_html(result, globals.unit_system(), pairs, page_meta(&data, "", args.stock)); });
+  if (args.printed == Printed::csv) print_notes(console, result.notes);
   print_result(
-      console, args.json, data,
+      console, args.printed, data,
       [&] {
         nlohmann::json out = swap_to_json(result, pairs);
         if (swapped) out["recipe_swap"] = recipe_swap_to_json(*swapped);
         return out;
       },
+      [&] { return swap_to_csv(result, pairs); },
       [&](std::ostream& out) {
         render_swap(out, result, globals.unit_system(), pairs);
         if (swapped) render_recipe_swap(out, *swapped, globals.unit_system());
@@ -236,6 +244,9 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("--top", options->top, "how many substitutes to list (1-100, default 5)");
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
+  swap->add_flag("--csv", options->csv,
+                 "print one CSV table for spreadsheets: a row per substitute (kind \"substitute\") and, with "
+                 "--pairs, two per blend (kind \"blend\"); units in the headers; notes on stderr");
   add_html_option(swap, options->html);
   swap->add_option("--recipe", options->recipe,
                    "put the substitute into this recipe: late additions by the oil factor, boil additions by "
@@ -256,6 +267,7 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs\n"
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --stale-below 80%\n"
       "  bine swap Keelstone --for bittering --top 3 --json\n"
+      "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs --csv\n"
       "  bine --units us swap Tidewell --html tidewell.html\n"
       "  bine swap Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-swap.json\n"
       "  bine swap Tidewell --recipe pale-ale.json --pair 1");

@@ -5,6 +5,7 @@
 
 #include "engine/blend.hpp"
 #include "engine/recipe_bitterness.hpp"
+#include "engine/stock_view.hpp"
 #include "engine/substitutes.hpp"
 #include "model/hops.hpp"
 #include "model/quantity.hpp"
@@ -35,5 +36,9 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
 
 /// bine age --html: a lot's alpha on the day asked, from its certificate and its storage.
 std::string age_html(const AgeQuery& query, const AgedAlpha& aged, UnitSystem units, const html::PageMeta& meta);
+
+/// bine stock list --html: every lot's alpha on the day listed (a chart against the certificate),
+/// share left, HSI state, stale flag, days until stale and amount; what each variety has on hand.
+std::string stock_html(const StockView& view, UnitSystem units, const html::PageMeta& meta);
 
 }  // namespace bine
