@@ -27,24 +27,24 @@ Cell until_stale_cell(const StockLine& line, std::size_t i) {
 }
 
 std::string lots_table(const StockView& view, UnitSystem units) {
-  html::Table table("Every lot, alpha aged to the day listed",
-                    {{"lot", false, true},
-                     {"variety"},
-                     {"alpha today", true},
-                     {"alpha left", true},
-                     {"HSI", true},
-                     {"stale"},
-                     {"until stale", true},
-                     {"on hand", true}});
+  html::Table table("Every lot, alpha aged to the day listed", {{"lot", false, true},
+                                                                {"variety"},
+                                                                {"alpha today", true},
+                                                                {"alpha left", true},
+                                                                {"HSI", true},
+                                                                {"stale"},
+                                                                {"until stale", true},
+                                                                {"on hand", true}});
   for (std::size_t i = 0; i < view.lots.size(); ++i) {
     const StockLine& line = view.lots[i];
-    table.add_row({line.code, line.lot.variety,
-                   line.alpha_today ? html::number_cell(*line.alpha_today, 2, " %", lot_pointer(i, "alpha_today"))
-                                    : Cell("unknown"),
-                   line.aged ? html::number_cell(line.remaining, 0, " %", lot_pointer(i, "remaining"), 100.0) : Cell("-"),
-                   hsi_cell(line, i), line.stale ? "STALE" : "no", until_stale_cell(line, i),
-                   line.lot.on_hand_g ? html::mass_cell(*line.lot.on_hand_g, units, lot_pointer(i, "on_hand_g"))
-                                      : Cell("not given")});
+    table.add_row(
+        {line.code, line.lot.variety,
+         line.alpha_today ? html::number_cell(*line.alpha_today, 2, " %", lot_pointer(i, "alpha_today"))
+                          : Cell("unknown"),
+         line.aged ? html::number_cell(line.remaining, 0, " %", lot_pointer(i, "remaining"), 100.0) : Cell("-"),
+         hsi_cell(line, i), line.stale ? "STALE" : "no", until_stale_cell(line, i),
+         line.lot.on_hand_g ? html::mass_cell(*line.lot.on_hand_g, units, lot_pointer(i, "on_hand_g"))
+                            : Cell("not given")});
   }
   return table.str();
 }
@@ -85,8 +85,7 @@ std::string alpha_chart(const StockView& view) {
                           {*line.lot.alpha_acid, *line.alpha_today},
                           {fmt::format("{:.2f} %", *line.lot.alpha_acid), fmt::format("{:.2f} %", *line.alpha_today)},
                           {"", lot_pointer(i, "alpha_today")}});
-    chart.description +=
-        fmt::format(" {} {:.2f} % and {:.2f} %;", label, *line.lot.alpha_acid, *line.alpha_today);
+    chart.description += fmt::format(" {} {:.2f} % and {:.2f} %;", label, *line.lot.alpha_acid, *line.alpha_today);
   }
   return chart.rows.empty() ? std::string() : html::bar_chart(chart);
 }
@@ -112,10 +111,13 @@ std::string stock_html(const StockView& view, UnitSystem units, const html::Page
   content.title = fmt::format("Cold store on {}: {}", format_date(view.on), view.name);
   std::size_t stale = 0;
   for (const StockLine& line : view.lots) stale += line.stale ? 1 : 0;
-  content.summary = fmt::format("{} lots, {} of them stale (below {:.0f} % of the certificate alpha, or an oxidised HSI).",
-                                view.lots.size(), stale, 100.0 * view.stale_below);
-  content.sections.push_back({"Lots", alpha_chart(view) + lots_table(view, units)});
+  content.summary =
+      fmt::format("{} lots, {} of them stale (below {:.0f} % of the certificate alpha, or an oxidised HSI).",
+                  view.lots.size(), stale, 100.0 * view.stale_below);
+  content.sections.push_back({"Lots", lots_table(view, units)});
   content.sections.push_back({"Per variety", totals_table(view, units)});
+  if (std::string chart = alpha_chart(view); !chart.empty())
+    content.sections.push_back({"Alpha acid per lot", std::move(chart)});
   content.notes = stock_notes(view);
   content.cautions = html::boxed({std::string(dogs_caution())});
   return html::page(content, meta);

@@ -108,25 +108,10 @@ nlohmann::json stock_list_to_json(const StockView& view) {
 }
 
 std::string stock_list_to_csv(const StockView& view) {
-  CsvSheet sheet({"lot",
-                  "variety",
-                  "form",
-                  "certificate alpha (%)",
-                  "packaged",
-                  "stored at (C)",
-                  "package",
-                  "days stored (days)",
-                  "alpha today (%)",
-                  "aged",
-                  "alpha left (fraction of certificate)",
-                  "stability (% of alpha left after 6 months at 20 C)",
-                  "stability from",
-                  "HSI",
-                  "HSI loss (%)",
-                  "stale",
-                  "stale reason",
-                  "days until stale (days)",
-                  "on hand (g)"});
+  CsvSheet sheet({"lot", "variety", "form", "certificate alpha (%)", "packaged", "stored at (C)", "package",
+                  "days stored (days)", "alpha today (%)", "aged", "alpha left (fraction of certificate)",
+                  "stability (% of alpha left after 6 months at 20 C)", "stability from", "HSI", "HSI loss (%)",
+                  "stale", "stale reason", "days until stale (days)", "on hand (g)"});
   const auto rounded_or_null = [](const std::optional<double>& value, int decimals) {
     return value ? std::optional<double>(rounded(*value, decimals)) : std::nullopt;
   };

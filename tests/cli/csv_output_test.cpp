@@ -112,17 +112,21 @@ TEST_CASE("catalog list --csv: a row per variety the JSON lists, ranges as min a
   CHECK(sheet.at(q, "catalog file") == fixture("csv-out-catalog.json"));
 }
 
-TEST_CASE("swap --csv: a row per substitute the JSON lists, two per blend, figures equal to the JSON") {
-  const std::vector<std::string> args{
-      "--catalog", fixture("csv-out-catalog.json"), "swap", "Fixture Twin", "--top", "6", "--pairs"};
+/// `swap QUERY --pairs` as CSV and as JSON over the shipped and the fixture catalog: the same rows,
+/// the same figures. Returns the CSV read back and the JSON.
+std::pair<Sheet, json> swap_both_ways(const std::string& query) {
+  const std::vector<std::string> args{"--catalog", fixture("csv-out-catalog.json"), "swap", query, "--top", "6",
+                                      "--pairs"};
   auto csv_args = args, json_args = args;
   csv_args.push_back("--csv");
   json_args.push_back("--json");
   const auto csv = run_cli(csv_args);
   const auto doc_run = run_cli(json_args);
-  INFO(csv.err);
+  INFO(query << ": " << csv.err);
   REQUIRE(csv.status == 0);
   REQUIRE(doc_run.status == 0);
+  // The notes the text prints under its tables (the demo catalog) go to stderr.
+  CHECK(has(csv.err, "bine: note: the shipped catalog is invented demo data"));
   const json doc = json::parse(doc_run.out);
   const Sheet sheet(csv.out);
   const json& subs = doc["substitutes"];
@@ -148,12 +152,18 @@ TEST_CASE("swap --csv: a row per substitute the JSON lists, two per blend, figur
       check_same(sheet, row, "g per g replaced (g/g)", pairs[p]["grams_per_gram"][k]);
       check_same(sheet, row, "similarity (0-100)", pairs[p]["similarity"]);
     }
+  return {sheet, doc};
+}
+
+TEST_CASE("swap --csv: a row per substitute the JSON lists, two per blend, figures equal to the JSON") {
+  const auto [twin, twin_doc] = swap_both_ways("Fixture Twin");
   // The quoted variety has the same aroma as Fixture Twin, so it ranks first. Its amount factor by
   // hand arithmetic: oil midpoints 1.5 / 2.0 mL/100 g (fixture ranges 1.4-1.6 and 1.9-2.1) = 0.75 g/g.
-  CHECK(sheet.at(0, "variety") == kQuoted);
-  CHECK(sheet.number(0, "g per g replaced (g/g)") == doctest::Approx(0.75));
-  // The notes the text prints under its tables (the demo catalog) go to stderr.
-  CHECK(has(csv.err, "bine: note: the shipped catalog is invented demo data"));
+  CHECK(twin.at(0, "variety") == kQuoted);
+  CHECK(twin.number(0, "g per g replaced (g/g)") == doctest::Approx(0.75));
+  // A query whose best blends beat its best single substitute: the blend rows are checked too.
+  const auto [far, far_doc] = swap_both_ways("Fixture Far Off");
+  CHECK_FALSE(far_doc["pairs"].empty());
 }
 
 TEST_CASE("swap --csv from stock: lot codes with commas and quotes, alpha on the brew day by hand") {
@@ -183,8 +193,9 @@ TEST_CASE("swap --csv from stock: lot codes with commas and quotes, alpha on the
 }
 
 TEST_CASE("stock list --csv: a row per lot the JSON lists, figures equal to the JSON, units in the headers") {
-  const std::vector<std::string> args{"--catalog", fixture("csv-out-catalog.json"), "stock", "list",
-                                      fixture("csv-out-stock.json"), "--on", "2026-03-02"};
+  const std::vector<std::string> args{"--catalog", fixture("csv-out-catalog.json"), "stock",
+                                      "list",      fixture("csv-out-stock.json"),   "--on",
+                                      "2026-03-02"};
   auto csv_args = args, json_args = args;
   csv_args.push_back("--csv");
   json_args.push_back("--json");
