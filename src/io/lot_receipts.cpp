@@ -85,14 +85,26 @@ void check_new_codes(const std::vector<ReceivedLot>& lots, const Stock& stock, D
   std::map<std::string, std::string> seen;  // folded code -> where
   for (std::size_t i = 0; i < stock.lots.size(); ++i)
     if (!stock.lots[i].lot.empty())
-      seen.emplace(fold_name(stock.lots[i].lot), fmt::format("{} as lot {}", stock.source_file, i + 1));
+      seen.emplace(fold_name(stock.lots[i].lot), fmt::format("in {} as lot {}", stock.source_file, i + 1));
   for (const ReceivedLot& received : lots) {
     if (trim_space(received.lot.lot).empty()) continue;
-    const auto [it, inserted] = seen.emplace(fold_name(received.lot.lot), received.where);
+    const auto [it, inserted] = seen.emplace(fold_name(received.lot.lot), "at " + received.where + " of this file");
     if (!inserted)
-      diagnostics.add(received.where, fmt::format("lot {}: already in {} (expected a new lot code; to correct an "
+      diagnostics.add(received.where, fmt::format("lot {}: already {} (expected a new lot code; to correct an "
                                                   "amount use stock adjust)",
                                                   shown_value(received.lot.lot), it->second));
+  }
+}
+
+/// The CSV's rows, the bad ones read past so that every problem in the file is listed at once;
+/// when no row is good, the reader's own account of the bad rows.
+HopRecords read_csv_rows(std::string_view text, const std::string& file) {
+  CsvImportOptions every_row;
+  every_row.skip_bad = true;
+  try {
+    return read_hop_csv(text, file, every_row);
+  } catch (const InputError&) {
+    return read_hop_csv(text, file, CsvImportOptions{});  // throws, naming each bad cell
   }
 }
 
@@ -106,12 +118,8 @@ std::vector<ReceivedLot> read_lot_receipts(std::string_view text, const std::str
     const Stock given = parse_stock(text, file);  // names file, JSON pointer and value of a bad field
     for (std::size_t i = 0; i < given.lots.size(); ++i) lots.push_back({given.lots[i], fmt::format("/lots/{}", i)});
   } else {
-    // A bad cell is named "line L, column C (HEADER): VALUE ... (expected ...)" by the reader; the
-    // bad rows are read past (skip_bad) only so that every problem in the file is listed at once.
-    CsvImportOptions every_row;
-    every_row.skip_bad = true;
-    const HopRecords records =
-        looks_like_xml(text) ? read_hop_beerxml(text, file) : read_hop_csv(text, file, every_row);
+    // A bad cell is named "line L, column C (HEADER): VALUE ... (expected ...)" by the reader.
+    const HopRecords records = looks_like_xml(text) ? read_hop_beerxml(text, file) : read_csv_rows(text, file);
     for (const std::string& skipped : records.skipped) diagnostics.add_file(skipped);
     lots = from_hop_records(records, diagnostics);
   }

@@ -357,3 +357,23 @@ TEST_CASE("stock receive --from a stock file (JSON): its own storage kept, --sto
   CHECK(both.err ==
         "bine: error: --lot: not with --from " + file + " (the file gives every lot; expected one or the other)\n");
 }
+
+TEST_CASE("stock receive --from: a file whose every row is bad still names each cell, and a code twice is named") {
+  ScratchStock stock;
+  const auto only_bad = stock.dir.path() / "only-bad.csv";
+  write(only_bad, "Lot,Variety,Alpha (%),Amount (kg),Packaged\nB-1,Fernlight,lots,1,2026-02-01\n");
+  const auto bad =
+      run_cli({"stock", "--stock", stock.path(), "receive", "--from", only_bad.string(), "--stored", "-2 C,vacuum"});
+  CHECK(bad.status == 2);
+  CHECK(bad.err.find(only_bad.string() + ": line 2, column 3 (\"Alpha (%)\"): \"lots\"") != std::string::npos);
+  const auto twice = stock.dir.path() / "twice.csv";
+  write(twice,
+        "Lot,Variety,Alpha (%),Amount (kg),Packaged\nT-1,Fernlight,9,1,2026-02-01\nt-1,Fernlight,9,1,2026-02-01\n");
+  const auto again =
+      run_cli({"stock", "--stock", stock.path(), "receive", "--from", twice.string(), "--stored", "-2 C,vacuum"});
+  CHECK(again.status == 2);
+  CHECK(again.err == "bine: error: " + twice.string() +
+                         ": line 3: lot \"t-1\": already at line 2 of this file (expected a new lot code; to correct "
+                         "an amount use stock adjust)\n");
+  CHECK(stock.document()["lots"].size() == 3);
+}
