@@ -22,8 +22,6 @@ struct CatalogOptions {
 void run_list(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   const Printed printed = printed_as(options.json, options.csv);
   const DataSet data = load_data(globals, console);
-  if (printed == Printed::csv && data.catalog.demo)
-    print_notes(console, {"the list includes the invented demo catalog: not real varieties or measurements"});
   print_result(
       console, printed, data, [&] { return catalog_to_json(data.catalog); },
       [&] { return catalog_to_csv(data.catalog, data.lexicon); },

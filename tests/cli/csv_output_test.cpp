@@ -64,7 +64,8 @@ bool has(const std::string& text, const std::string& needle) { return text.find(
 }  // namespace
 
 TEST_CASE("catalog list --csv: a row per variety the JSON lists, ranges as min and max, quoted names whole") {
-  const std::vector<std::string> args{"--catalog", fixture("csv-out-catalog.json"), "catalog", "list"};
+  const std::vector<std::string> args{"--catalog", "demo", "--catalog", fixture("csv-out-catalog.json"),
+                                      "catalog",   "list"};
   auto csv_args = args, json_args = args;
   csv_args.push_back("--csv");
   json_args.push_back("--json");
@@ -77,8 +78,8 @@ TEST_CASE("catalog list --csv: a row per variety the JSON lists, ranges as min a
   const Sheet sheet(csv.out);
   CHECK(has(csv.out, "\r\n"));  // RFC 4180 line ends
   REQUIRE(sheet.table.rows.size() == doc["varieties"].size());
-  // The shipped catalog is invented demo data: said on stderr, so the output stays one table.
-  CHECK(has(csv.err, "bine: note: the list includes the invented demo catalog"));
+  // The catalogs used, the shipped demo marked as invented: said on stderr, so the output stays one table.
+  CHECK(has(csv.err, "bine: note: Catalogs used: bine demo catalog (shipped demo.json; invented demo data"));
   const std::vector<std::pair<std::string, std::string>> ranges{{"alpha_acid", "alpha acid"},
                                                                 {"beta_acid", "beta acid"},
                                                                 {"cohumulone", "cohumulone"},
@@ -115,8 +116,8 @@ TEST_CASE("catalog list --csv: a row per variety the JSON lists, ranges as min a
 /// `swap QUERY --pairs` as CSV and as JSON over the shipped and the fixture catalog: the same rows,
 /// the same figures. Returns the CSV read back and the JSON.
 std::pair<Sheet, json> swap_both_ways(const std::string& query) {
-  const std::vector<std::string> args{"--catalog", fixture("csv-out-catalog.json"), "swap", query, "--top", "6",
-                                      "--pairs"};
+  const std::vector<std::string> args{"--catalog", "demo", "--catalog", fixture("csv-out-catalog.json"), "swap", query,
+                                      "--top",     "6",    "--pairs"};
   auto csv_args = args, json_args = args;
   csv_args.push_back("--csv");
   json_args.push_back("--json");
@@ -125,8 +126,8 @@ std::pair<Sheet, json> swap_both_ways(const std::string& query) {
   INFO(query << ": " << csv.err);
   REQUIRE(csv.status == 0);
   REQUIRE(doc_run.status == 0);
-  // The notes the text prints under its tables (the demo catalog) go to stderr.
-  CHECK(has(csv.err, "bine: note: the shipped catalog is invented demo data"));
+  // The notes the text prints under its tables (the catalogs used, demo marked) go to stderr.
+  CHECK(has(csv.err, "bine: note: Catalogs used: bine demo catalog (shipped demo.json; invented demo data"));
   const json doc = json::parse(doc_run.out);
   const Sheet sheet(csv.out);
   const json& subs = doc["substitutes"];
@@ -236,7 +237,8 @@ TEST_CASE("stock list --csv: a row per lot the JSON lists, figures equal to the 
   CHECK(sheet.at(0, "days until stale (days)") == "521");
   CHECK(sheet.at(1, "aged") == "false");  // no packaged date or storage
   CHECK(sheet.at(1, "alpha left (fraction of certificate)").empty());
-  CHECK(csv.err.empty());  // --on given: no "listed for today" note
+  CHECK_FALSE(has(csv.err, "listed for today"));  // --on given
+  CHECK(has(csv.err, "bine: note: Catalogs used: csv output fixtures (invented for tests)"));
 }
 
 TEST_CASE("--csv with --json or --html: one line naming both, exit 2, no page written") {
