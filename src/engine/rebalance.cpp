@@ -271,9 +271,11 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
   for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
     const AdditionLine& b = result.before.additions[k];
     const AdditionLine& a = result.after.additions[k];
+    const ReplacementLot* lot = lot_of[b.index];
     result.additions.push_back(RebalancedAddition{b.index, b.variety, a.variety, b.use, b.grams, a.grams,
                                                   b.alpha_percent, a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
-                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index]});
+                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index],
+                                                  lot != nullptr ? std::optional(lot->alpha_origin) : std::nullopt});
   }
   check_total_held(result, lot_of);
   result.recipe_after = std::move(w.after);
@@ -284,6 +286,20 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
         "late additions hold the oil they deliver; where the recipe records no total_oil it is taken as written "
         "for the catalog midpoint of the variety's total oil");
   return result;
+}
+
+RebalanceIntervals rebalance_intervals(const RebalanceResult& result, const Catalog& catalog,
+                                       double tolerance_percent) {
+  RebalanceIntervals intervals;
+  intervals.before = recipe_intervals(result.before, catalog, tolerance_percent);
+  std::vector<IbuTerm> terms;
+  for (std::size_t k = 0; k < result.after.additions.size(); ++k) {
+    terms.push_back(recipe_term(result.after.additions[k], catalog));
+    if (k < result.additions.size() && result.additions[k].lot_alpha)
+      terms.back().origin = *result.additions[k].lot_alpha;
+  }
+  intervals.after = term_intervals(terms, result.after.settings, tolerance_percent);
+  return intervals;
 }
 
 namespace {
@@ -308,6 +324,7 @@ ReplacementLot replacement_from(const std::string& variety, const CellarLot& c, 
   lot.alpha_note = c.alpha_note;
   lot.hsi_note = c.hsi_note;
   lot.aged = c.basis == AlphaBasis::aged;
+  lot.alpha_origin = lot_alpha_origin(c, nullptr);  // lots are taken with a certificate alpha only
   lot.stale = c.stale;
   lot.stale_reason = c.stale_reason;
   return lot;

@@ -7,6 +7,7 @@
 
 #include "engine/bitterness.hpp"
 #include "engine/cellar.hpp"
+#include "engine/ibu_interval.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/hops.hpp"
 
@@ -34,6 +35,7 @@ struct ReplacementLot {
   bool stale = false;            // allowed in although stale
   std::string stale_reason;
   std::size_t lots_of_variety = 1;  // lots of this variety in stock; the largest is chosen
+  AlphaOrigin alpha_origin;         // how alpha_percent is known (default: a certificate or a value given)
 };
 
 /// What happened to one addition.
@@ -54,6 +56,7 @@ struct RebalancedAddition {
   std::optional<double> oil_before;  // mL/100 g the recipe was written for (catalog midpoint)
   std::optional<double> oil_after;
   RebalanceRule rule = RebalanceRule::unchanged;
+  std::optional<AlphaOrigin> lot_alpha;  // how the new lot's alpha is known; none: kept as written
 };
 
 struct Shortfall {
@@ -74,6 +77,15 @@ struct RebalanceResult {
   std::vector<Shortfall> shortfalls;
   std::vector<std::string> notes;
 };
+
+/// The 90 % intervals of the recipe as written and as rebalanced (docs/methods.md#ibu-intervals).
+struct RebalanceIntervals {
+  IbuIntervals before;
+  IbuIntervals after;
+};
+/// Each addition as written from its alpha as the recipe gives it (catalog midpoints over their range),
+/// as rebalanced from its new lot's alpha (`lot_alpha`), with the profile's factor uncertainty.
+RebalanceIntervals rebalance_intervals(const RebalanceResult& result, const Catalog& catalog, double tolerance_percent);
 
 /// True when some addition of `recipe` is of `variety` (folded comparison).
 bool recipe_uses_variety(const Recipe& recipe, std::string_view variety);

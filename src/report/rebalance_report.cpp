@@ -41,7 +41,13 @@ std::string lot_line(const ReplacementLot& lot, UnitSystem units) {
 }  // namespace
 
 void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
-                              UnitSystem units) {
+                              UnitSystem units, const RebalanceIntervals* intervals) {
+  // The interval of addition row k (or of the total, without k) as written or as rebalanced.
+  const auto range = [&](bool after, std::optional<std::size_t> k) -> const IbuRange* {
+    if (intervals == nullptr) return nullptr;
+    const IbuIntervals& which = after ? intervals->after : intervals->before;
+    return k ? &which.additions[*k] : &which.total;
+  };
   TextTable table({{"#", Align::right},
                    {"variety"},
                    {"use"},
@@ -52,7 +58,8 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
                    {"IBU before", Align::right},
                    {"after", Align::right},
                    {"rule"}});
-  for (const auto& row : result.additions) {
+  for (std::size_t k = 0; k < result.additions.size(); ++k) {
+    const RebalancedAddition& row = result.additions[k];
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
     const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
@@ -61,13 +68,18 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
     table.add_row({std::to_string(row.index + 1), variety, describe_use(hop, units),
                    fmt::format("{:.2f} %", row.alpha_before), fmt::format("{:.2f} %", row.alpha_after),
                    format_mass(row.grams_before, units), format_mass(row.grams_after, units),
-                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
-                   dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule))});
+                   dry ? "-" : ibu_figure(row.ibu_before, range(false, k)),
+                   dry ? "-" : ibu_figure(row.ibu_after, range(true, k)), std::string(to_string(row.rule))});
   }
   table.add_rule();
-  table.add_row({"", "total", "", "", "", "", "", fmt::format("{:.1f} IBU", result.before.total_ibu),
-                 fmt::format("{:.1f} IBU", result.after.total_ibu), ""});
+  table.add_row({"", "total", "", "", "", "", "", ibu_figure(result.before.total_ibu, range(false, std::nullopt)),
+                 ibu_figure(result.after.total_ibu, range(true, std::nullopt)), ""});
   table.render(out);
+  if (intervals != nullptr)
+    out << "  "
+        << interval_legend(result.after.settings.brewhouse.has_value(), intervals->before.aged || intervals->after.aged,
+                           intervals->before.monte_carlo || intervals->after.monte_carlo)
+        << '\n';
 
   out << '\n';
   if (result.absorber) {
@@ -75,16 +87,17 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
     const HopAddition& hop = recipe.hops[row.index];
     out << fmt::format(
         "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
-        "changed by {:+.2f} IBU), so the total holds at {:.1f} IBU.\n",
+        "changed by {:+.2f} IBU), so the total holds at {}.\n",
         row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
-        result.ibu_change_absorbed, result.after.total_ibu);
+        result.ibu_change_absorbed, ibu_figure(result.after.total_ibu, range(true, std::nullopt)));
   } else if (result.whirlpool_scaled) {
     out << fmt::format(
         "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
-        "were scaled to make it up, so the total holds at {:.1f} IBU but their aroma changes.\n",
-        -result.ibu_change_absorbed + 0.0, result.after.total_ibu);
+        "were scaled to make it up, so the total holds at {} but their aroma changes.\n",
+        -result.ibu_change_absorbed + 0.0, ibu_figure(result.after.total_ibu, range(true, std::nullopt)));
   } else {
-    out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
+    out << fmt::format("Each addition holds its own IBU; the total stays at {}.\n",
+                       ibu_figure(result.after.total_ibu, range(true, std::nullopt)));
   }
   if (result.shortfalls.empty()) {
     if (from_stock) out << "Stock covers every addition.\n";
@@ -108,7 +121,7 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
   out << '\n';
 
-  render_rebalance_changes(out, recipe, result, context.from_stock, units);
+  render_rebalance_changes(out, recipe, result, context.from_stock, units, context.intervals);
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   if (!notes.empty()) {
@@ -118,11 +131,12 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
 }
 
-nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
+nlohmann::json rebalance_changes_json(const RebalanceResult& result, const RebalanceIntervals* intervals) {
   using nlohmann::json;
   json out;
   json additions = json::array();
   for (const auto& row : result.additions) {
+    const std::size_t k = additions.size();
     json a;
     a["index"] = row.index + 1;
     a["variety"] = row.variety;
@@ -134,6 +148,10 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
     a["alpha_after"] = rounded(row.alpha_after, 4);
     a["ibu_before"] = rounded(row.ibu_before, 3);
     a["ibu_after"] = rounded(row.ibu_after, 3);
+    if (intervals != nullptr) {
+      put_interval(a, "ibu_before", intervals->before.additions[k]);
+      put_interval(a, "ibu_after", intervals->after.additions[k]);
+    }
     a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
     a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
     a["rule"] = std::string(to_string(row.rule));
@@ -142,6 +160,11 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
   out["additions"] = std::move(additions);
   out["total_ibu_before"] = rounded(result.before.total_ibu, 3);
   out["total_ibu_after"] = rounded(result.after.total_ibu, 3);
+  if (intervals != nullptr) {
+    put_interval(out, "total_ibu_before", intervals->before.total);
+    put_interval(out, "total_ibu_after", intervals->after.total);
+    out["interval"] = interval_json(intervals->before.monte_carlo || intervals->after.monte_carlo);
+  }
   out["absorbed_by"] = result.absorber ? json(result.additions[*result.absorber].index + 1) : json(nullptr);
   out["ibu_change_absorbed"] = rounded(result.ibu_change_absorbed, 3);
   out["whirlpool_scaled"] = result.whirlpool_scaled;
@@ -182,7 +205,7 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
     lots.push_back(std::move(l));
   }
   out["lots"] = std::move(lots);
-  out.update(rebalance_changes_json(result));
+  out.update(rebalance_changes_json(result, context.intervals));
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   out["notes"] = notes;

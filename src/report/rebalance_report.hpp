@@ -15,15 +15,18 @@ struct RebalanceContext {
   std::vector<ReplacementLot> lots;
   bool from_stock = false;
   Date on;
-  bool on_from_clock = false;  // --on not given: today's date from the system clock
+  bool on_from_clock = false;                     // --on not given: today's date from the system clock
+  const RebalanceIntervals* intervals = nullptr;  // the 90 % intervals, when shown
 };
 
 /// The before/after table of the additions, the sentence on who took the IBU change, and the stock
 /// shortfalls ("Stock covers every addition." when `from_stock` and none); shared with swap --recipe.
+/// With `intervals`, every IBU carries its 90 % interval.
 void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
-                              UnitSystem units);
-/// The additions, totals, absorber and shortfalls as JSON (the keys rebalance --json documents).
-nlohmann::json rebalance_changes_json(const RebalanceResult& result);
+                              UnitSystem units, const RebalanceIntervals* intervals = nullptr);
+/// The additions, totals, absorber and shortfalls as JSON (the keys rebalance --json documents); with
+/// `intervals`, KEY_low and KEY_high beside each IBU and an "interval" object.
+nlohmann::json rebalance_changes_json(const RebalanceResult& result, const RebalanceIntervals* intervals = nullptr);
 
 void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceContext& context,
                       const RebalanceResult& result, UnitSystem units);
