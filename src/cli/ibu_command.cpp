@@ -10,7 +10,6 @@
 #include "cli/recipe_file_options.hpp"
 #include "engine/ibu_interval.hpp"
 #include "engine/recipe_bitterness.hpp"
-#include "io/limits.hpp"
 #include "io/recipe_file.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/html_reports.hpp"
@@ -44,9 +43,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
-  if (auto tolerance = reader.optional_quantity("--alpha-tolerance", options.alpha_tolerance, Dimension::percent,
-                                                limits::alpha_tolerance))
-    args.alpha_tolerance = *tolerance;
+  args.alpha_tolerance = read_alpha_tolerance(reader, options.alpha_tolerance);
   reader.throw_if_any();
   return args;
 }
@@ -79,8 +76,7 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   ibu->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   add_bitterness_options(ibu, options->bitterness);
   add_recipe_file_options(ibu, options->recipe_file);
-  ibu->add_option("--alpha-tolerance", options->alpha_tolerance,
-                  "a certificate's alpha tolerance, +- % of the value, read as a 90 % range (default 5 %)");
+  add_alpha_tolerance_option(ibu, options->alpha_tolerance);
   ibu->add_flag("--json", options->json, "print JSON (canonical units)");
   add_html_option(ibu, options->html);
   ibu->footer(

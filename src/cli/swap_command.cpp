@@ -6,6 +6,7 @@
 #include <memory>
 #include <optional>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
@@ -39,6 +40,7 @@ struct SwapOptions {
   std::string pick;
   std::string pair;
   std::string write;
+  BitternessOptions bitterness;  // with --recipe: how the recipe's IBU is computed
 };
 
 struct SwapArgs {
@@ -52,6 +54,7 @@ struct SwapArgs {
   std::optional<std::size_t> pick;  // 1-based
   std::optional<std::size_t> pair;  // 1-based
   std::string write;
+  BitternessSettings settings;  // with --recipe (and --brewhouse or BINE_BREWHOUSE)
 };
 
 /// --recipe, --pick, --pair, --write: which substitute goes into which recipe.
@@ -61,6 +64,13 @@ void read_recipe_options(OptionReader& reader, const SwapOptions& options, SwapA
   reader.require(options.pick.empty() || options.pair.empty(), "--pick/--pair: give one, not both");
   reader.require(!options.recipe.empty() || (options.pick.empty() && options.pair.empty() && options.write.empty()),
                  "--pick/--pair/--write: only with --recipe FILE (the recipe to put the substitute into)");
+  const BitternessOptions& b = options.bitterness;
+  if (!options.recipe.empty())
+    args.settings = read_bitterness_options(reader, b);
+  else
+    reader.require(b.model.empty() && b.pellet_factor.empty() && b.calibration.empty() && b.brewhouse.empty(),
+                   "--model/--pellet-factor/--calibration/--brewhouse: only with --recipe FILE (the recipe whose IBU "
+                   "they compute)");
   if (!options.pick.empty()) args.pick = reader.count("--pick", options.pick, limits::substitutes_listed, 1);
   if (!options.pair.empty()) args.pair = reader.count("--pair", options.pair, limits::substitutes_listed, 1);
   if (args.pair) args.request.pairs = true;
@@ -156,7 +166,7 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
   report.missing = result.missing.name;
   report.from_stock = result.from_stock;
   const auto into = [&](const std::vector<SwapIn>& in) {
-    return swap_into_recipe(recipe, result.missing.name, in, data.catalog, BitternessSettings{}, Weighing::as_weighed);
+    return swap_into_recipe(recipe, result.missing.name, in, data.catalog, args.settings, Weighing::as_weighed);
   };
   if (result.substitutes.empty()) throw Infeasible("no substitute to put into the recipe");
   std::optional<std::size_t> chosen;
@@ -256,6 +266,7 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
                    "lot covers the recipe)");
   swap->add_option("--pair", options->pair, "with --recipe: use two-variety blend N (implies --pairs)");
   swap->add_option("--write", options->write, "with --recipe: save the recipe with the substitute (atomically)");
+  add_bitterness_options(swap, options->bitterness);
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"
@@ -270,7 +281,9 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs --csv\n"
       "  bine --units us swap Tidewell --html tidewell.html\n"
       "  bine swap Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-swap.json\n"
-      "  bine swap Tidewell --recipe pale-ale.json --pair 1");
+      "  bine swap Tidewell --recipe pale-ale.json --pair 1\n"
+      "  bine swap Tidewell --recipe pale-ale.json --brewhouse brewhouse.json\n"
+      "With --recipe, --brewhouse (else $BINE_BREWHOUSE) and the other bitterness options compute its IBU.");
   commands.add(swap,
                [&globals, options](const Console& console) { run_swap(console, globals, parse_swap_args(*options)); });
 }

@@ -19,7 +19,13 @@ const HopAddition& hop_after(const RebalanceResult& result, const RebalancedAddi
   return result.recipe_after.hops[row.index];
 }
 
-std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
+/// The interval of addition i (or of the total, without i) as rebalanced, or nullptr without intervals.
+const IbuRange* after_range(const RebalanceIntervals* intervals, std::optional<std::size_t> i) {
+  if (intervals == nullptr) return nullptr;
+  return i ? &intervals->after.additions[*i] : &intervals->after.total;
+}
+
+std::string schedule_table(const RebalanceResult& result, const RebalanceIntervals* intervals, UnitSystem units) {
   html::Table table("Weigh the new grams; alpha is each lot's on brew day", {{"#", true},
                                                                              {"variety"},
                                                                              {"lot", false, true},
@@ -37,11 +43,12 @@ std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
                    html::number_cell(row.alpha_after, 2, " %", add_pointer(i, "alpha_after")),
                    html::mass_cell(row.grams_before, units, add_pointer(i, "grams_before")),
                    html::mass_cell(row.grams_after, units, add_pointer(i, "grams_after")),
-                   html::number_cell(row.ibu_after, 1, " IBU", add_pointer(i, "ibu_after")),
+                   html::ibu_cell(row.ibu_after, after_range(intervals, i), add_pointer(i, "ibu_after")),
                    std::string(to_string(row.rule))});
   }
-  table.set_total(
-      {"", "total", "", "", "", "", "", html::number_cell(result.after.total_ibu, 1, " IBU", "/total_ibu_after"), ""});
+  table.set_total({"", "total", "", "", "", "", "",
+                   html::ibu_cell(result.after.total_ibu, after_range(intervals, std::nullopt), "/total_ibu_after"),
+                   ""});
   return table.str();
 }
 
@@ -129,20 +136,21 @@ std::string shortfalls_table(const RebalanceResult& result, UnitSystem units) {
   return table.str();
 }
 
-std::string absorber_text(const RebalanceResult& result, UnitSystem units) {
+std::string absorber_text(const RebalanceResult& result, const RebalanceIntervals* intervals, UnitSystem units) {
+  const std::string total = ibu_figure(result.after.total_ibu, after_range(intervals, std::nullopt));
   if (result.absorber) {
     const RebalancedAddition& row = result.additions[*result.absorber];
     const HopAddition& hop = hop_after(result, row);
-    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {:.1f} IBU.",
+    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {}.",
                        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
-                       result.ibu_change_absorbed, result.after.total_ibu);
+                       result.ibu_change_absorbed, total);
   }
   if (result.whirlpool_scaled)
     return fmt::format(
         "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU (their aroma "
-        "changes); the total holds at {:.1f} IBU.",
-        result.ibu_change_absorbed, result.after.total_ibu);
-  return fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.", result.after.total_ibu);
+        "changes); the total holds at {}.",
+        result.ibu_change_absorbed, total);
+  return fmt::format("Each addition holds its own IBU; the total stays at {}.", total);
 }
 
 }  // namespace
@@ -151,12 +159,16 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
                            UnitSystem units, const html::PageMeta& meta) {
   html::PageContent content;
   content.title = "Rebalanced hop schedule: " + (recipe.name.empty() ? recipe.source_file : recipe.name);
-  content.summary = fmt::format("Brew day {}{}; {}. Total {:.1f} IBU as written, {:.1f} IBU rebalanced.",
-                                format_date(context.on), context.on_from_clock ? " (today)" : "",
-                                context.from_stock ? "lots from the stock file" : "lots as given",
-                                result.before.total_ibu, result.after.total_ibu);
+  const RebalanceIntervals* intervals = context.intervals;
+  content.summary = fmt::format(
+      "Brew day {}{}; {}. Total {} as written, {} rebalanced{}.", format_date(context.on),
+      context.on_from_clock ? " (today)" : "", context.from_stock ? "lots from the stock file" : "lots as given",
+      ibu_figure(result.before.total_ibu, intervals != nullptr ? &intervals->before.total : nullptr),
+      ibu_figure(result.after.total_ibu, after_range(intervals, std::nullopt)),
+      intervals != nullptr ? " (90 % intervals)" : "");
   content.sections.push_back(
-      {"Hop schedule, as weighed", schedule_table(result, units) + html::paragraph(absorber_text(result, units))});
+      {"Hop schedule, as weighed",
+       schedule_table(result, intervals, units) + html::paragraph(absorber_text(result, intervals, units))});
   content.sections.push_back({"Bitterness", ibu_chart(result, units)});
   content.sections.push_back({"Lots", lots_table(context, units)});
   if (std::string left = stock_left(context, result, units); !left.empty())
@@ -164,6 +176,10 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
   if (!result.shortfalls.empty()) content.sections.push_back({"Shortfalls", shortfalls_table(result, units)});
   content.notes = result.notes;
   content.notes.insert(content.notes.end(), result.before.notes.begin(), result.before.notes.end());
+  if (intervals != nullptr)
+    content.notes.push_back(interval_legend(result.after.settings.brewhouse.has_value(),
+                                            intervals->before.aged || intervals->after.aged,
+                                            intervals->before.monte_carlo || intervals->after.monte_carlo));
   content.cautions = html::boxed(cautions_for(recipe));
   return html::page(content, meta);
 }

@@ -31,8 +31,8 @@ struct RecipeSwapReport {
 
 void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitSystem units);
 /// Keys: recipe, missing, swapped_in (variety, lot, share, alpha_acid, total_oil), choice, coverage
-/// (substitute, needed_g, on_hand_g, covers), written, and the rebalance keys (additions,
-/// total_ibu_before, total_ibu_after, absorbed_by, ibu_change_absorbed, whirlpool_scaled, shortfalls).
+/// (substitute, needed_g, on_hand_g, covers), written, brewhouse (the profile used, or null), and the rebalance keys
+/// (additions, total_ibu_before, total_ibu_after, absorbed_by, ibu_change_absorbed, whirlpool_scaled, shortfalls).
 nlohmann::json recipe_swap_to_json(const RecipeSwapReport& report);
 
 }  // namespace bine
