@@ -143,8 +143,10 @@ nlohmann::json interval_json(bool monte_carlo) {
 }
 
 std::string interval_legend(bool brewhouse, bool aged, bool monte_carlo) {
-  return fmt::format("(IBU (low-high) = 90 % interval from the alpha's catalog range or certificate tolerance{}{}; {})",
-                     aged ? ", the stability range of its ageing" : "", brewhouse ? " and the brewhouse factor" : "",
+  std::string sources = "the alpha's catalog range or certificate tolerance";
+  if (aged) sources += std::string(brewhouse ? ", " : " and ") + "the stability range of its ageing";
+  if (brewhouse) sources += " and the brewhouse factor";
+  return fmt::format("(IBU (low-high) = 90 % interval from {}; {})", sources,
                      monte_carlo ? "10^4 seeded draws" : "exact, linear");
 }
 
