@@ -61,8 +61,9 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
   const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance);
   // 3. Render.
-  write_html(args.html,
-             [&] { return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe)); });
+  write_html(args.html, [&] {
+    return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe), &intervals);
+  });
   print_result(
       console, args.json, data, [&] { return bitterness_to_json(recipe, bitterness, &intervals); },
       [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system(), &intervals); });

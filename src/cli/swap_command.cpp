@@ -41,6 +41,7 @@ struct SwapOptions {
   std::string pair;
   std::string write;
   BitternessOptions bitterness;  // with --recipe: how the recipe's IBU is computed
+  std::string alpha_tolerance;
 };
 
 struct SwapArgs {
@@ -55,6 +56,7 @@ struct SwapArgs {
   std::optional<std::size_t> pair;  // 1-based
   std::string write;
   BitternessSettings settings;  // with --recipe (and --brewhouse or BINE_BREWHOUSE)
+  double alpha_tolerance = kDefaultCertificateTolerancePercent;
 };
 
 /// --recipe, --pick, --pair, --write: which substitute goes into which recipe.
@@ -65,12 +67,15 @@ void read_recipe_options(OptionReader& reader, const SwapOptions& options, SwapA
   reader.require(!options.recipe.empty() || (options.pick.empty() && options.pair.empty() && options.write.empty()),
                  "--pick/--pair/--write: only with --recipe FILE (the recipe to put the substitute into)");
   const BitternessOptions& b = options.bitterness;
-  if (!options.recipe.empty())
+  if (!options.recipe.empty()) {
     args.settings = read_bitterness_options(reader, b);
-  else
-    reader.require(b.model.empty() && b.pellet_factor.empty() && b.calibration.empty() && b.brewhouse.empty(),
-                   "--model/--pellet-factor/--calibration/--brewhouse: only with --recipe FILE (the recipe whose IBU "
-                   "they compute)");
+    args.alpha_tolerance = read_alpha_tolerance(reader, options.alpha_tolerance);
+  } else {
+    reader.require(b.model.empty() && b.pellet_factor.empty() && b.calibration.empty() && b.brewhouse.empty() &&
+                       options.alpha_tolerance.empty(),
+                   "--model/--pellet-factor/--calibration/--brewhouse/--alpha-tolerance: only with --recipe FILE (the "
+                   "recipe whose IBU they compute)");
+  }
   if (!options.pick.empty()) args.pick = reader.count("--pick", options.pick, limits::substitutes_listed, 1);
   if (!options.pair.empty()) args.pair = reader.count("--pair", options.pair, limits::substitutes_listed, 1);
   if (args.pair) args.request.pairs = true;
@@ -109,19 +114,23 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
   return args;
 }
 
-/// A ranked substitute as the hop that goes into the recipe: its lot's alpha today, else the catalog
-/// midpoint; its lot's oil, else the catalog midpoint.
-SwapIn swap_in_of(const Substitute& s, double share) {
+/// A ranked substitute as the hop that goes into the recipe: its lot's alpha today (how it is known
+/// from the lot in `cellar`), else the catalog midpoint; its lot's oil, else the catalog midpoint.
+SwapIn swap_in_of(const Substitute& s, double share, const Cellar* cellar) {
   SwapIn in;
   in.share = share;
   in.hop.variety = s.variety.name;
-  if (s.alpha_today)
+  const CellarLot* lot = s.lot && cellar != nullptr ? cellar->find(s.lot->lot) : nullptr;
+  if (s.alpha_today) {
     in.hop.alpha_percent = *s.alpha_today;
-  else if (s.variety.alpha_acid)
+    if (lot != nullptr) in.hop.alpha_origin = lot_alpha_origin(*lot, &s.variety);
+  } else if (s.variety.alpha_acid) {
     in.hop.alpha_percent = s.variety.alpha_acid->mid();
-  else
+    in.hop.alpha_origin.catalog_range = std::make_pair(s.variety.alpha_acid->min, s.variety.alpha_acid->max);
+  } else {
     throw InputError(
         fmt::format("swap: {}: no alpha acid known (add an alpha_acid range to its catalog entry)", s.variety.name));
+  }
   if (s.lot && s.lot->total_oil)
     in.hop.total_oil = s.lot->total_oil;
   else if (s.variety.total_oil)
@@ -143,7 +152,7 @@ double grams_of(const RecipeSwap& swap, const SwapIn& in) {
 }
 
 /// The substitutes of --pair N, found among the ranked ones.
-std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n) {
+std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n, const Cellar* cellar) {
   if (n > result.pairs.size())
     throw Infeasible(fmt::format("--pair {}: there are {} two-variety blends that beat the best single substitute", n,
                                  result.pairs.size()));
@@ -152,7 +161,7 @@ std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n) {
   for (std::size_t k = 0; k < 2; ++k)
     for (const auto& s : result.substitutes)
       if (s.variety.name == pair.varieties[k] && (s.lot ? s.lot->lot : std::string()) == pair.lots[k]) {
-        members.push_back(swap_in_of(s, pair.shares[k]));
+        members.push_back(swap_in_of(s, pair.shares[k], cellar));
         break;
       }
   return members;
@@ -171,7 +180,7 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
   if (result.substitutes.empty()) throw Infeasible("no substitute to put into the recipe");
   std::optional<std::size_t> chosen;
   for (std::size_t i = 0; i < result.substitutes.size() && i < args.shown; ++i) {
-    const SwapIn in = swap_in_of(result.substitutes[i], 1.0);
+    const SwapIn in = swap_in_of(result.substitutes[i], 1.0, args.request.cellar);
     const RecipeSwap swap = into({in});
     report.coverage.push_back(
         {in.hop.lot_code.empty() ? in.hop.variety : fmt::format("{} ({})", in.hop.variety, in.hop.lot_code),
@@ -179,21 +188,22 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
     if (!chosen && swap.result.shortfalls.empty()) chosen = i;
   }
   if (args.pair) {
-    report.swapped_in = pair_members(result, *args.pair);
+    report.swapped_in = pair_members(result, *args.pair, args.request.cellar);
     report.choice = fmt::format("--pair {}", *args.pair);
   } else if (args.pick) {
     if (*args.pick > result.substitutes.size())
       throw Infeasible(fmt::format("--pick {}: only {} substitutes were found", *args.pick, result.substitutes.size()));
-    report.swapped_in = {swap_in_of(result.substitutes[*args.pick - 1], 1.0)};
+    report.swapped_in = {swap_in_of(result.substitutes[*args.pick - 1], 1.0, args.request.cellar)};
     report.choice = fmt::format("--pick {}", *args.pick);
   } else {
     const std::size_t index = chosen.value_or(0);
-    report.swapped_in = {swap_in_of(result.substitutes[index], 1.0)};
+    report.swapped_in = {swap_in_of(result.substitutes[index], 1.0, args.request.cellar)};
     report.choice = !result.from_stock ? "the best-ranked substitute"
                     : chosen ? fmt::format("substitute {}, the best-ranked whose lot covers the recipe", index + 1)
                              : "the best-ranked substitute; no listed lot covers the recipe";
   }
   report.swap = into(report.swapped_in);
+  report.intervals = rebalance_intervals(report.swap.result, data.catalog, args.alpha_tolerance);
   return report;
 }
 
@@ -267,6 +277,7 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("--pair", options->pair, "with --recipe: use two-variety blend N (implies --pairs)");
   swap->add_option("--write", options->write, "with --recipe: save the recipe with the substitute (atomically)");
   add_bitterness_options(swap, options->bitterness);
+  add_alpha_tolerance_option(swap, options->alpha_tolerance);
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"
@@ -283,7 +294,8 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
       "  bine swap Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-swap.json\n"
       "  bine swap Tidewell --recipe pale-ale.json --pair 1\n"
       "  bine swap Tidewell --recipe pale-ale.json --brewhouse brewhouse.json\n"
-      "With --recipe, --brewhouse (else $BINE_BREWHOUSE) and the other bitterness options compute its IBU.");
+      "With --recipe, --brewhouse (else $BINE_BREWHOUSE) and the other bitterness options compute its IBU,\n"
+      "each with its 90 % interval (alpha range or certificate tolerance, ageing, brewhouse factor).");
   commands.add(swap,
                [&globals, options](const Console& console) { run_swap(console, globals, parse_swap_args(*options)); });
 }

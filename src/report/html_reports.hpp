@@ -16,9 +16,10 @@
 
 namespace bine {
 
-/// bine ibu --html: the hop schedule as weighed, IBU per addition (chart), total with BU:GU.
+/// bine ibu --html: the hop schedule as weighed, IBU per addition (chart), total with BU:GU; with
+/// `intervals`, each IBU in the tables with its 90 % interval.
 std::string ibu_html(const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
-                     const html::PageMeta& meta);
+                     const html::PageMeta& meta, const IbuIntervals* intervals = nullptr);
 
 /// bine swap --html: ranked substitutes (lots, alpha on brew day, grams per gram), the missing
 /// variety beside each of the best three (aroma per axis; alpha, beta, cohumulone for bittering).

@@ -19,7 +19,8 @@ html::Cell time_cell(const AdditionLine& line, std::size_t i) {
                     *line.minutes >= 1440.0 ? 1.0 / 1440.0 : 1.0);
 }
 
-std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units) {
+std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, const IbuIntervals* intervals,
+                           UnitSystem units) {
   using html::Cell;
   html::Table table("Weigh out and add in this order (alpha is the value the IBU is computed with)",
                     {{"#", true},
@@ -47,12 +48,14 @@ std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, Unit
                    line.alpha_source == AlphaSource::none
                        ? Cell("-")
                        : html::number_cell(line.alpha_percent, 1, " %", addition_pointer(i, "alpha_acid")),
-                   html::number_cell(line.bitterness.ibu, 1, " IBU", addition_pointer(i, "ibu"))});
+                   line.use == HopUse::dry_hop || intervals == nullptr
+                       ? html::number_cell(line.bitterness.ibu, 1, " IBU", addition_pointer(i, "ibu"))
+                       : html::ibu_cell(line.bitterness.ibu, &intervals->additions[i], addition_pointer(i, "ibu"))});
   }
   html::Cell total = html::mass_cell(grams, units, all_grams);
   total.sum = true;
-  table.set_total(
-      {"", "total", "", "", "", "", total, "", "", html::number_cell(b.total_ibu, 1, " IBU", "/total_ibu")});
+  table.set_total({"", "total", "", "", "", "", total, "", "",
+                   html::ibu_cell(b.total_ibu, intervals != nullptr ? &intervals->total : nullptr, "/total_ibu")});
   return table.str();
 }
 
@@ -77,10 +80,11 @@ std::string ibu_chart(const RecipeBitterness& b, UnitSystem units) {
   return html::bar_chart(chart);
 }
 
-std::string totals_table(const Recipe& recipe, const RecipeBitterness& b) {
+std::string totals_table(const Recipe& recipe, const RecipeBitterness& b, const IbuIntervals* intervals) {
   using html::Cell;
   html::Table table("", {{"figure"}, {"value", true}});
-  table.add_row({"total bitterness", html::number_cell(b.total_ibu, 1, " IBU", "/total_ibu")});
+  table.add_row({"total bitterness",
+                 html::ibu_cell(b.total_ibu, intervals != nullptr ? &intervals->total : nullptr, "/total_ibu")});
   table.add_row({"original gravity", html::number_cell(recipe.original_gravity, 3, " SG", "/original_gravity")});
   table.add_row({"BU:GU (IBU per gravity point)", html::number_cell(b.bu_gu, 2, "", "/bu_gu")});
   table.add_row({"reading (common practice)", b.bu_gu_reading});
@@ -89,7 +93,8 @@ std::string totals_table(const Recipe& recipe, const RecipeBitterness& b) {
 
 }  // namespace
 
-std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units, const html::PageMeta& meta) {
+std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units, const html::PageMeta& meta,
+                     const IbuIntervals* intervals) {
   html::PageContent content;
   const std::string name = recipe.name.empty() ? recipe.source_file : recipe.name;
   content.title = "Hop schedule: " + name;
@@ -97,8 +102,8 @@ std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem
       "{} at OG {:.3f}, {} boil. {} model, pellet factor {:.2f}, calibration {:.2f}.",
       format_volume(recipe.batch_volume_l, units), recipe.original_gravity, format_minutes(recipe.boil_minutes),
       b.settings.model == IbuModel::rager ? "Rager" : "Tinseth", b.settings.pellet_factor, b.settings.calibration);
-  content.sections.push_back({"Hop schedule, as weighed", schedule_table(recipe, b, units)});
-  std::string bitterness = ibu_chart(b, units) + totals_table(recipe, b);
+  content.sections.push_back({"Hop schedule, as weighed", schedule_table(recipe, b, intervals, units)});
+  std::string bitterness = ibu_chart(b, units) + totals_table(recipe, b, intervals);
   if (recipe.hop_stand)
     bitterness += html::paragraph(fmt::format(
         "Hop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort additions.",
@@ -109,6 +114,8 @@ std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem
                                               *recipe.target_ibu, b.total_ibu - *recipe.target_ibu));
   content.sections.push_back({"Bitterness", bitterness});
   content.notes = b.notes;
+  if (intervals != nullptr)
+    content.notes.push_back(interval_legend(b.settings.brewhouse.has_value(), intervals->aged, intervals->monte_carlo));
   content.cautions = html::boxed(cautions_for(recipe));
   return html::page(content, meta);
 }

@@ -42,7 +42,8 @@ void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitS
                      report.choice);
   if (const BitternessSettings& settings = report.swap.result.before.settings; settings.brewhouse)
     out << brewhouse_line(settings) << ".\n\n";
-  render_rebalance_changes(out, recipe, report.swap.result, report.from_stock, units);
+  render_rebalance_changes(out, recipe, report.swap.result, report.from_stock, units,
+                           report.intervals ? &*report.intervals : nullptr);
   out << "Late additions take the oil factor, boil additions the alpha factor; the bittering charge holds the total.\n";
   render_coverage(out, report, units);
   if (!report.written.empty()) out << fmt::format("\nRecipe with the substitute written to {}\n", report.written);
@@ -50,7 +51,7 @@ void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitS
 
 nlohmann::json recipe_swap_to_json(const RecipeSwapReport& report) {
   using nlohmann::json;
-  json out = rebalance_changes_json(report.swap.result);
+  json out = rebalance_changes_json(report.swap.result, report.intervals ? &*report.intervals : nullptr);
   out["recipe"] = report.swap.split.name;
   out["missing"] = report.missing;
   json in = json::array();

@@ -26,7 +26,8 @@ struct RecipeSwapReport {
   std::string choice;  // why this substitute: "--pick 2", "the best-ranked substitute whose lot covers ..."
   std::vector<LotCoverage> coverage;
   bool from_stock = false;
-  std::string written;  // the file written with --write, if any
+  std::string written;                          // the file written with --write, if any
+  std::optional<RebalanceIntervals> intervals;  // the 90 % intervals of its IBU, when shown
 };
 
 void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitSystem units);

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 #include "cli/run_in_process.hpp"
 #include "cli/temp_dir.hpp"
@@ -13,9 +14,19 @@
 using bine::test::example;
 using bine::test::run_cli;
 
+namespace {
+/// The demo blend: floral and citrus for the pale ale from the example stock on 2026-12-01, plus `extra`.
+bine::test::CliRun stock_blend(std::vector<std::string> extra) {
+  std::vector<std::string> args{
+      "blend", "--target",  "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock", example("stock.json"),
+      "--on",  "2026-12-01"};
+  args.insert(args.end(), extra.begin(), extra.end());
+  return run_cli(args);
+}
+}  // namespace
+
 TEST_CASE("bine blend from stock holds the recipe's 38 IBU and stays within stock") {
-  const auto run = run_cli({"blend", "--target", "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock",
-                            example("stock.json"), "--on", "2026-12-01", "--json"});
+  const auto run = stock_blend({"--json"});
   INFO(run.err);
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
@@ -99,8 +110,7 @@ TEST_CASE("bine blend: infeasible requests exit 3, bad options exit 2") {
 }
 
 TEST_CASE("blend --json: every IBU figure within its 90 % interval, the parts and kept additions in the total") {
-  const auto run = run_cli({"blend", "--target", "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock",
-                            example("stock.json"), "--on", "2026-12-01", "--json"});
+  const auto run = stock_blend({"--json"});
   INFO(run.err);
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
@@ -118,14 +128,13 @@ TEST_CASE("blend --json: every IBU figure within its 90 % interval, the parts an
   within(doc, "total_ibu");
   CHECK(doc["interval"]["monte_carlo"] == true);
   CHECK(doc["interval"]["coverage"].get<double>() == 0.9);
-  // A sum of independent uncertain terms is relatively narrower than its widest term (hand arithmetic:
-  // sqrt(sum sd_i^2) < sum sd_i), so the total's interval is narrower than the sum of its parts'.
+  // Independent terms: the sum's spread sqrt(sum sd_i^2) is below sum sd_i (hand arithmetic), so the
+  // total's interval is narrower than the widths of its parts added up.
   double widths = doc["bittering"]["ibu_high"].get<double>() - doc["bittering"]["ibu_low"].get<double>();
   widths += doc["ibu"]["kept_high"].get<double>() - doc["ibu"]["kept_low"].get<double>();
   widths += doc["ibu"]["late_high"].get<double>() - doc["ibu"]["late_low"].get<double>();
   CHECK(doc["total_ibu_high"].get<double>() - doc["total_ibu_low"].get<double>() < widths);
-  const auto text = run_cli({"blend", "--target", "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock",
-                             example("stock.json"), "--on", "2026-12-01"});
+  const auto text = stock_blend({});
   REQUIRE(text.status == 0);
   CHECK(text.out.find("the stability range of its ageing; 10^4 seeded draws") != std::string::npos);
 }

@@ -160,9 +160,30 @@ TEST_CASE("swap --recipe: a missing or bad brewhouse profile is one error line n
   const auto alone = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Lost", "--brewhouse",
                               fixture("iv-brewhouse.json")});
   CHECK(alone.status == 2);
-  CHECK(alone.err.find("--brewhouse: only with --recipe FILE") != std::string::npos);
+  CHECK(alone.err.find("--brewhouse/--alpha-tolerance: only with --recipe FILE") != std::string::npos);
   ::setenv("BINE_BREWHOUSE", fixture("iv-no-such-profile.json").c_str(), 1);
   const auto listed = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Lost"});
   ::unsetenv("BINE_BREWHOUSE");
   CHECK(listed.status == 0);
+}
+
+TEST_CASE("swap --recipe: the IBU it holds with 90 % intervals, a catalog substitute over its alpha range") {
+  // Fixture Standin from the catalog: alpha 9.0-11.0 %, midpoint 10 %. Its whirlpool part (22.5 g, see
+  // the first case) is linear in alpha, so its interval is that IBU x 9/10 to x 11/10; the recipe's
+  // own whirlpool, 30 g at 7 % as written, is +-5 % (the certificate tolerance) around its IBU
+  // (docs/methods.md#ibu-intervals; hand arithmetic).
+  const auto run = swap({"--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json doc = json::parse(run.out)["recipe_swap"];
+  const json& whirlpool = doc["additions"][1];
+  const double after = tinseth(22.5, 10.0, stand_minutes());
+  CHECK(whirlpool["ibu_after_low"].get<double>() == doctest::Approx(after * 0.9).epsilon(1e-4));
+  CHECK(whirlpool["ibu_after_high"].get<double>() == doctest::Approx(after * 1.1).epsilon(1e-4));
+  const double before = tinseth(30.0, 7.0, stand_minutes());
+  CHECK(whirlpool["ibu_before_low"].get<double>() == doctest::Approx(before * 0.95).epsilon(1e-4));
+  CHECK(whirlpool["ibu_before_high"].get<double>() == doctest::Approx(before * 1.05).epsilon(1e-4));
+  CHECK(doc["total_ibu_after_low"].get<double>() < doc["total_ibu_after"].get<double>());
+  CHECK(doc["total_ibu_after"].get<double>() < doc["total_ibu_after_high"].get<double>());
+  CHECK(doc["interval"]["monte_carlo"] == false);
 }
