@@ -17,7 +17,8 @@
 namespace bine {
 
 /// bine ibu --html: the hop schedule as weighed, IBU per addition (chart), total with BU:GU; with
-/// `intervals`, each IBU in the tables with its 90 % interval.
+/// `intervals`, the total bitterness with its 90 % interval (the ten-column schedule has no room for
+/// one per addition at 800 px: the text and JSON give them).
 std::string ibu_html(const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
                      const html::PageMeta& meta, const IbuIntervals* intervals = nullptr);
 

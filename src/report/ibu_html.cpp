@@ -19,8 +19,7 @@ html::Cell time_cell(const AdditionLine& line, std::size_t i) {
                     *line.minutes >= 1440.0 ? 1.0 / 1440.0 : 1.0);
 }
 
-std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, const IbuIntervals* intervals,
-                           UnitSystem units) {
+std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units) {
   using html::Cell;
   html::Table table("Weigh out and add in this order (alpha is the value the IBU is computed with)",
                     {{"#", true},
@@ -48,14 +47,12 @@ std::string schedule_table(const Recipe& recipe, const RecipeBitterness& b, cons
                    line.alpha_source == AlphaSource::none
                        ? Cell("-")
                        : html::number_cell(line.alpha_percent, 1, " %", addition_pointer(i, "alpha_acid")),
-                   line.use == HopUse::dry_hop || intervals == nullptr
-                       ? html::number_cell(line.bitterness.ibu, 1, " IBU", addition_pointer(i, "ibu"))
-                       : html::ibu_cell(line.bitterness.ibu, &intervals->additions[i], addition_pointer(i, "ibu"))});
+                   html::number_cell(line.bitterness.ibu, 1, " IBU", addition_pointer(i, "ibu"))});
   }
   html::Cell total = html::mass_cell(grams, units, all_grams);
   total.sum = true;
-  table.set_total({"", "total", "", "", "", "", total, "", "",
-                   html::ibu_cell(b.total_ibu, intervals != nullptr ? &intervals->total : nullptr, "/total_ibu")});
+  table.set_total(
+      {"", "total", "", "", "", "", total, "", "", html::number_cell(b.total_ibu, 1, " IBU", "/total_ibu")});
   return table.str();
 }
 
@@ -102,7 +99,7 @@ std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem
       "{} at OG {:.3f}, {} boil. {} model, pellet factor {:.2f}, calibration {:.2f}.",
       format_volume(recipe.batch_volume_l, units), recipe.original_gravity, format_minutes(recipe.boil_minutes),
       b.settings.model == IbuModel::rager ? "Rager" : "Tinseth", b.settings.pellet_factor, b.settings.calibration);
-  content.sections.push_back({"Hop schedule, as weighed", schedule_table(recipe, b, intervals, units)});
+  content.sections.push_back({"Hop schedule, as weighed", schedule_table(recipe, b, units)});
   std::string bitterness = ibu_chart(b, units) + totals_table(recipe, b, intervals);
   if (recipe.hop_stand)
     bitterness += html::paragraph(fmt::format(
