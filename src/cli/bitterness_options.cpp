@@ -5,6 +5,7 @@
 #include <cmath>
 #include <cstdlib>
 
+#include "engine/ibu_interval.hpp"
 #include "io/brewhouse_profile.hpp"
 #include "io/limits.hpp"
 #include "model/errors.hpp"
@@ -51,6 +52,16 @@ void add_bitterness_options(CLI::App* command, BitternessOptions& options) {
   command->add_option("--brewhouse", options.brewhouse,
                       "brewhouse profile from bine calibrate (default: $BINE_BREWHOUSE): its model, pellet factor "
                       "and factors");
+}
+
+void add_alpha_tolerance_option(CLI::App* command, std::string& tolerance) {
+  command->add_option("--alpha-tolerance", tolerance,
+                      "a certificate's alpha tolerance, +- % of the value, read as a 90 % range (default 5 %)");
+}
+
+double read_alpha_tolerance(OptionReader& reader, const std::string& tolerance) {
+  return reader.optional_quantity("--alpha-tolerance", tolerance, Dimension::percent, limits::alpha_tolerance)
+      .value_or(kDefaultCertificateTolerancePercent);
 }
 
 BitternessSettings read_model_options(OptionReader& reader, const BitternessOptions& options) {

@@ -21,6 +21,11 @@ void add_model_options(CLI::App* command, BitternessOptions& options);
 /// Adds --model, --pellet-factor, --calibration and --brewhouse to `command`.
 void add_bitterness_options(CLI::App* command, BitternessOptions& options);
 
+/// Adds --alpha-tolerance (a certificate's alpha tolerance for the IBU intervals) to `command`.
+void add_alpha_tolerance_option(CLI::App* command, std::string& tolerance);
+/// The tolerance --alpha-tolerance gives, in % of the value (default kDefaultCertificateTolerancePercent).
+double read_alpha_tolerance(OptionReader& reader, const std::string& tolerance);
+
 /// The model and pellet factor the options give; problems go to `reader`.
 BitternessSettings read_model_options(OptionReader& reader, const BitternessOptions& options);
 /// The settings the options give, with the brewhouse profile's model, pellet factor and factors when

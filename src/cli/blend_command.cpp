@@ -14,6 +14,7 @@
 #include "engine/aroma_profile.hpp"
 #include "engine/blend.hpp"
 #include "engine/blend_plan.hpp"
+#include "engine/ibu_interval.hpp"
 #include "engine/lot_allocation.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
@@ -34,6 +35,7 @@ struct BlendOptions {
   std::string recipe;
   RecipeFileOptions recipe_file;
   BitternessOptions bitterness;
+  std::string alpha_tolerance;
   std::string stock;
   CellarOptions cellar;
   std::string max_varieties;
@@ -58,6 +60,7 @@ struct BlendArgs {
   std::string recipe;
   BeerXmlReadOptions recipe_file;
   BitternessSettings settings;
+  double alpha_tolerance = kDefaultCertificateTolerancePercent;
   std::string stock;
   CellarChoice cellar;
   std::size_t max_varieties = 3;
@@ -106,6 +109,7 @@ BlendArgs parse_blend_args(const BlendOptions& o) {
   args.recipe = o.recipe;
   args.recipe_file = read_recipe_file_options(reader, o.recipe_file);
   args.settings = read_bitterness_options(reader, o.bitterness);
+  args.alpha_tolerance = read_alpha_tolerance(reader, o.alpha_tolerance);
   args.stock = o.stock;
   args.json = o.json;
   args.html = o.html;
@@ -230,6 +234,8 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   BlendReportContext context{&data.lexicon,      &request,     recipe ? recipe->name : std::string(),
                              cellar.has_value(), std::nullopt, std::move(notes)};
   if (cellar) context.on = cellar->on;
+  const BlendIntervals intervals = blend_intervals(request, result, args.alpha_tolerance);
+  context.intervals = &intervals;
   // The blended recipe is checked by the recipe loader's bounds before anything is shown or written.
   if (recipe) checked_recipe_text(blended_recipe(*recipe, request.plan, result), "the blended recipe");
   write_html(args.html, [&] { return blend_html(result, context, units, page_meta(&data, args.recipe, args.stock)); });
@@ -251,6 +257,7 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
                     "recipe file (bine JSON or BeerXML): volume, gravity, IBU; its late hops are replaced");
   add_recipe_file_options(blend, options->recipe_file);
   add_bitterness_options(blend, options->bitterness);
+  add_alpha_tolerance_option(blend, options->alpha_tolerance);
   blend->add_option("--stock", options->stock,
                     "stock file: blend only lots on hand, within their amounts, aged to the brew day");
   add_cellar_options(blend, options->cellar, true);
@@ -284,7 +291,8 @@ void setup_blend_command(CLI::App& app, const GlobalOptions& globals, CommandTab
       "1oz/gal\n"
       "With --no-bittering only the whirlpool share of the late hops bitters: a whirlpool at 80 C gives a few\n"
       "IBU per 100 g in 20 L, so ask for an IBU the whirlpool can reach (or raise --split).\n"
-      "The blend's aroma is the oil-weighted mean of its hops' profiles (a linear first approximation).");
+      "The blend's aroma is the oil-weighted mean of its hops' profiles (a linear first approximation).\n"
+      "Every IBU comes with its 90 % interval (alpha range or certificate, ageing, brewhouse factor).");
   commands.add(
       blend, [&globals, options](const Console& console) { run_blend(console, globals, parse_blend_args(*options)); });
 }

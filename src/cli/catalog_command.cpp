@@ -15,15 +15,18 @@ namespace {
 
 struct CatalogOptions {
   bool json = false;
+  bool csv = false;
   std::string name;
   std::vector<std::string> files;
   std::string stock;  // check: where the lots recipes name are looked up (besides stock files checked)
 };
 
 void run_list(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
+  const Printed printed = printed_as(options.json, options.csv);
   const DataSet data = load_data(globals, console);
   print_result(
-      console, options.json, data, [&] { return catalog_to_json(data.catalog); },
+      console, printed, data, [&] { return catalog_to_json(data.catalog); },
+      [&] { return catalog_to_csv(data.catalog, data.lexicon); },
       [&](std::ostream& out) { render_catalog_list(out, data.catalog, data.lexicon); });
 }
 
@@ -91,11 +94,16 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
   catalog->footer(
       "Examples:\n"
       "  bine catalog list\n"
+      "  bine catalog list --csv\n"
       "  bine catalog show \"clairiere douce\"\n"
       "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json");
 
   auto* list = catalog->add_subcommand("list", "list every variety (shipped and --catalog files)");
   list->add_flag("--json", options->json, "print JSON: {\"varieties\": [...]}");
+  list->add_flag("--csv", options->csv,
+                 "print one CSV table for spreadsheets: a row per variety, units in the headers, "
+                 "ranges as min and max columns (save it: > varieties.csv)");
+  list->footer("Examples:\n  bine catalog list\n  bine catalog list --csv");
   commands.add(list, [&globals, options](const Console& console) { run_list(console, globals, *options); });
 
   auto* show = catalog->add_subcommand("show", "show one variety in full");

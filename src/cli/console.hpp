@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <ostream>
 #include <string>
+#include <vector>
 
 #include "io/data_dir.hpp"
 #include "report/timings.hpp"
@@ -30,5 +31,27 @@ void print_result(const Console& console, bool json, const std::function<nlohman
 /// numbers came from and marks demo data.
 void print_result(const Console& console, bool json, const DataSet& data,
                   const std::function<nlohmann::json()>& document, const std::function<void(std::ostream&)>& text);
+
+/// What a command prints on its output: text tables (the default), one JSON document (--json) or
+/// one CSV table for spreadsheets (--csv).
+enum class Printed { text, json, csv };
+
+/// Why --csv cannot go with the other output options given, or empty when it can: --csv goes with
+/// neither --json nor a page (`html` names the --html file, empty when none), since a spreadsheet
+/// table is the whole output.
+std::string csv_conflict(bool json, bool csv, const std::string& html = "");
+
+/// The output --json and --csv choose; throws InputError with csv_conflict's line.
+Printed printed_as(bool json, bool csv, const std::string& html = "");
+
+/// Prints a command's result as `printed` says: the JSON document, the CSV table (as `table`
+/// writes it) or the text rendering.
+void print_result(const Console& console, Printed printed, const DataSet& data,
+                  const std::function<nlohmann::json()>& document, const std::function<std::string()>& table,
+                  const std::function<void(std::ostream&)>& text);
+
+/// In CSV output the notes a text report prints under its tables go to err, one "bine: note:" line
+/// each, so the output stays one table.
+void print_notes(const Console& console, const std::vector<std::string>& notes);
 
 }  // namespace bine::cli

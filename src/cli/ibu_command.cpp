@@ -12,7 +12,6 @@
 #include "engine/ibu_interval.hpp"
 #include "engine/lot_allocation.hpp"
 #include "engine/recipe_bitterness.hpp"
-#include "io/limits.hpp"
 #include "io/recipe_file.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/html_reports.hpp"
@@ -50,9 +49,7 @@ IbuArgs parse_ibu_args(const IbuOptions& options) {
   args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
-  if (auto tolerance = reader.optional_quantity("--alpha-tolerance", options.alpha_tolerance, Dimension::percent,
-                                                limits::alpha_tolerance))
-    args.alpha_tolerance = *tolerance;
+  args.alpha_tolerance = read_alpha_tolerance(reader, options.alpha_tolerance);
   args.cellar = read_cellar_options(reader, options.cellar);
   reader.throw_if_any();
   args.stock = stock_file_if_given(options.stock);
@@ -79,8 +76,9 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
   const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance);
   // 3. Render.
-  write_html(args.html,
-             [&] { return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe)); });
+  write_html(args.html, [&] {
+    return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe), &intervals);
+  });
   print_result(
       console, args.json, data, [&] { return bitterness_to_json(recipe, bitterness, &intervals); },
       [&](std::ostream& out) { render_bitterness(out, recipe, bitterness, globals.unit_system(), &intervals); });
@@ -94,8 +92,7 @@ void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable
   ibu->add_option("RECIPE", options->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   add_bitterness_options(ibu, options->bitterness);
   add_recipe_file_options(ibu, options->recipe_file);
-  ibu->add_option("--alpha-tolerance", options->alpha_tolerance,
-                  "a certificate's alpha tolerance, +- % of the value, read as a 90 % range (default 5 %)");
+  add_alpha_tolerance_option(ibu, options->alpha_tolerance);
   ibu->add_option("--stock", options->stock,
                   "look up the lots the recipe names in this stock file (default: $BINE_STOCK, if set)");
   add_cellar_options(ibu, options->cellar, false);

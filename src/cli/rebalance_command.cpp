@@ -12,6 +12,7 @@
 #include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "cli/recipe_file_options.hpp"
+#include "engine/ibu_interval.hpp"
 #include "engine/rebalance.hpp"
 #include "engine/stock_rebalance.hpp"
 #include "io/file_io.hpp"
@@ -33,6 +34,7 @@ struct RebalanceOptions {
   std::string stock;
   CellarOptions cellar;
   BitternessOptions bitterness;
+  std::string alpha_tolerance;
   bool json = false;
   std::string write;
   std::string html;
@@ -51,6 +53,7 @@ struct RebalanceArgs {
   std::string stock;
   CellarChoice cellar;
   BitternessSettings settings;
+  double alpha_tolerance = kDefaultCertificateTolerancePercent;
   bool json = false;
   std::string write;
   std::string html;
@@ -101,6 +104,7 @@ RebalanceArgs parse_rebalance_args(const RebalanceOptions& options) {
   args.write = options.write;
   args.html = options.html;
   args.settings = read_bitterness_options(reader, options.bitterness);
+  args.alpha_tolerance = read_alpha_tolerance(reader, options.alpha_tolerance);
   args.recipe_file = read_recipe_file_options(reader, options.recipe_file);
   if (options.lots.empty() == options.stock.empty())
     reader.add(options.lots.empty()
@@ -166,6 +170,8 @@ void run_rebalance(const Console& console, const GlobalOptions& globals, const R
     result = rebalance(recipe, context.lots, data.catalog, args.settings, Weighing::as_weighed);
   }
   result.notes.insert(result.notes.begin(), file.notes.begin(), file.notes.end());
+  const RebalanceIntervals intervals = rebalance_intervals(result, data.catalog, args.alpha_tolerance);
+  context.intervals = &intervals;
   // 3. Check the result by the recipe loader's bounds (nothing is shown or written otherwise), save
   //    it if asked, then render.
   checked_recipe_text(result.recipe_after, "the rebalanced recipe");
@@ -193,6 +199,7 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
   rebalance->add_option("--stock", options->stock, "take the lots from this stock file (named lots, else --lot-order)");
   add_cellar_options(rebalance, options->cellar, true);
   add_bitterness_options(rebalance, options->bitterness);
+  add_alpha_tolerance_option(rebalance, options->alpha_tolerance);
   add_recipe_file_options(rebalance, options->recipe_file);
   rebalance->add_flag("--json", options->json, "print JSON (canonical units)");
   rebalance
@@ -210,7 +217,9 @@ void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, Comman
       "  bine rebalance pale-ale.json --stock stock.json --on 2026-12-01 --lot-order most\n"
       "Boil and first-wort additions hold their IBU; whirlpool and dry-hop additions hold their oil (else\n"
       "grams) and the largest boil addition absorbs the IBU change. From stock, an addition is weighed from\n"
-      "the lot it names, else oldest packaging first, split across lots where one has too little.");
+      "the lot it names, else oldest packaging first, split across lots where one has too little. Every IBU\n"
+      "comes with its 90 % interval (alpha range, certificate tolerance, the stability range of stock lots'\n"
+      "ageing, brewhouse factor); a split addition's parts each have theirs.");
   commands.add(rebalance, [&globals, options](const Console& console) {
     run_rebalance(console, globals, parse_rebalance_args(*options));
   });

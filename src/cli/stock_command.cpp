@@ -10,16 +10,19 @@
 #include "cli/bitterness_options.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
+#include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
 #include "engine/stock_rebalance.hpp"
 #include "engine/stock_view.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
+#include "io/lot_receipts.hpp"
 #include "io/recipe_file.hpp"
 #include "io/stock_ledger.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
 #include "report/bitterness_report.hpp"
+#include "report/html_reports.hpp"
 #include "report/stock_report.hpp"
 
 namespace bine::cli {
@@ -30,13 +33,16 @@ struct ListOptions {
   std::string on;
   std::string stale_below;
   bool json = false;
+  bool csv = false;
+  std::string html;
 };
 
 /// A lot with less than this share of its certificate alpha is stale.
 constexpr Bounds kStaleBelow{1.0, 99.0, "a stale share"};
 
 struct ReceiveOptions {
-  std::string lot, variety, amount, alpha, packaged, stored, form = "pellet", beta, oil, hsi;
+  std::string lot, variety, amount, alpha, packaged, stored, form, beta, oil, hsi;
+  std::string from;  // a receipt file: the lots come from it
 };
 
 struct AdjustOptions {
@@ -89,7 +95,10 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
   const auto on = reader.brew_day(options.on);
   const auto stale_below =
       reader.optional_quantity("--stale-below", options.stale_below, Dimension::percent, kStaleBelow);
+  const std::string conflict = csv_conflict(options.json, options.csv, options.html);
+  reader.require(conflict.empty(), conflict);
   reader.throw_if_any();
+  const Printed printed = printed_as(options.json, options.csv, options.html);
   const std::string file = stock_file_or_env(options.stock.empty() ? stock_option : options.stock);
   const DataSet data = load_data(globals, console);
   std::optional<StockView> view;
@@ -97,8 +106,11 @@ void run_list(const Console& console, const GlobalOptions& globals, const ListOp
     const StockLedger ledger(file, true);  // completes an interrupted change before the list is read
     view = view_stock(ledger.stock(), data.catalog, on->date, stale_below.value_or(75.0) / 100.0);
   }
+  if (printed == Printed::csv && on->from_clock)
+    print_notes(console, {"listed for today; pass --on DATE to repeat the list"});
+  write_html(options.html, [&] { return stock_html(*view, globals.unit_system(), page_meta(&data, "", file)); });
   print_result(
-      console, options.json, data, [&] { return stock_list_to_json(*view); },
+      console, printed, data, [&] { return stock_list_to_json(*view); }, [&] { return stock_list_to_csv(*view); },
       [&](std::ostream& out) {
         render_stock_list(out, *view, globals.unit_system());
         if (on->from_clock) out << "(listed for today; pass --on DATE to repeat the list)\n";
@@ -124,52 +136,107 @@ std::optional<Storage> read_stored(OptionReader& reader, const std::string& text
   return Storage{*temperature, *package};
 }
 
-/// The lot record --lot ... --stored give, in the stock file's format (canonical units).
-nlohmann::ordered_json read_receipt(const ReceiveOptions& o, double& grams) {
+/// A lot as the stock file stores it (canonical units, the amount in grams as the ledger keeps it).
+nlohmann::ordered_json lot_record(const Lot& lot) {
+  nlohmann::ordered_json record;
+  record["variety"] = lot.variety;
+  record["lot"] = lot.lot;
+  record["form"] = std::string(to_string(lot.form));
+  if (lot.alpha_acid) record["alpha_acid"] = *lot.alpha_acid;
+  if (lot.beta_acid) record["beta_acid"] = *lot.beta_acid;
+  if (lot.total_oil) record["total_oil"] = *lot.total_oil;
+  if (lot.hsi) record["hsi"] = *lot.hsi;
+  if (lot.packaged) record["packaged"] = format_date(*lot.packaged);
+  if (lot.storage)
+    record["storage"] = {{"temperature", lot.storage->temperature_c},
+                         {"package", std::string(to_string(lot.storage->package))}};
+  record["on_hand"] = fmt::format("{} g", ledger_grams(lot.on_hand_g.value_or(0.0)));
+  return record;
+}
+
+/// The lot --lot ... --stored give.
+Lot read_receipt(const ReceiveOptions& o) {
   OptionReader reader;
-  reader.require(!trim_space(o.lot).empty(), "--lot: empty (expected the lot code on the certificate)");
-  reader.require(!trim_space(o.variety).empty(), "--variety: empty (expected the variety's name)");
-  const auto amount = reader.quantity("--amount", o.amount, Dimension::mass, limits::stock_mass);
-  const auto alpha = reader.quantity("--alpha", o.alpha, Dimension::percent, limits::alpha_acid);
-  const auto beta = reader.optional_quantity("--beta", o.beta, Dimension::percent, limits::beta_acid);
-  const auto oil = reader.optional_quantity("--oil", o.oil, Dimension::oil_content, limits::total_oil);
-  const auto hsi = reader.optional_quantity("--hsi", o.hsi, Dimension::number, limits::hsi);
-  const auto packaged = reader.date("--packaged", o.packaged);
-  const auto storage = read_stored(reader, o.stored);
-  const auto form = form_from(o.form);
+  const auto given = [&](const std::string& value, std::string_view option, std::string_view what) {
+    reader.require(
+        !trim_space(value).empty(),
+        fmt::format("{}: not given or empty (expected {}, or --from FILE for the lots of a file)", option, what));
+  };
+  if (o.lot.empty() && o.variety.empty() && o.amount.empty() && o.alpha.empty() && o.packaged.empty() &&
+      o.stored.empty())
+    throw InputError(
+        "receive: no lot given (expected --lot, --variety, --amount, --alpha, --packaged and --stored, or --from "
+        "FILE for the lots of a file)");
+  given(o.lot, "--lot", "the lot code on the certificate");
+  given(o.variety, "--variety", "the variety's name");
+  Lot lot;
+  lot.on_hand_g = reader.quantity("--amount", o.amount, Dimension::mass, limits::stock_mass);
+  lot.alpha_acid = reader.quantity("--alpha", o.alpha, Dimension::percent, limits::alpha_acid);
+  lot.beta_acid = reader.optional_quantity("--beta", o.beta, Dimension::percent, limits::beta_acid);
+  lot.total_oil = reader.optional_quantity("--oil", o.oil, Dimension::oil_content, limits::total_oil);
+  lot.hsi = reader.optional_quantity("--hsi", o.hsi, Dimension::number, limits::hsi);
+  lot.packaged = reader.date("--packaged", o.packaged);
+  lot.storage = read_stored(reader, o.stored);
+  const auto form = form_from(o.form.empty() ? "pellet" : o.form);
   if (!form) reader.add(fmt::format("--form: \"{}\": unknown (expected pellet, whole or powder)", o.form));
   reader.throw_if_any();
-  grams = ledger_grams(*amount);
-  nlohmann::ordered_json record;
-  record["variety"] = std::string(trim_space(o.variety));
-  record["lot"] = std::string(trim_space(o.lot));
-  record["form"] = std::string(to_string(*form));
-  record["alpha_acid"] = *alpha;
-  if (beta) record["beta_acid"] = *beta;
-  if (oil) record["total_oil"] = *oil;
-  if (hsi) record["hsi"] = *hsi;
-  record["packaged"] = format_date(*packaged);
-  record["storage"] = {{"temperature", storage->temperature_c}, {"package", std::string(to_string(storage->package))}};
-  record["on_hand"] = fmt::format("{} g", grams);
-  return record;
+  lot.variety = std::string(trim_space(o.variety));
+  lot.lot = std::string(trim_space(o.lot));
+  lot.form = *form;
+  return lot;
+}
+
+/// --from FILE: the lot options are not given (the file gives every lot); --stored may be, for
+/// the lots the file gives no storage.
+std::optional<Storage> read_from_options(const ReceiveOptions& o) {
+  OptionReader reader;
+  const std::vector<std::pair<std::string_view, const std::string*>> per_lot{
+      {"--lot", &o.lot},     {"--variety", &o.variety},   {"--amount", &o.amount},
+      {"--alpha", &o.alpha}, {"--packaged", &o.packaged}, {"--form", &o.form},
+      {"--beta", &o.beta},   {"--oil", &o.oil},           {"--hsi", &o.hsi}};
+  for (const auto& [option, value] : per_lot)
+    reader.require(value->empty(), fmt::format("{}: not with --from {} (the file gives every lot; expected one or "
+                                               "the other)",
+                                               option, o.from));
+  std::optional<Storage> storage;
+  if (!o.stored.empty()) storage = read_stored(reader, o.stored);
+  reader.throw_if_any();
+  return storage;
+}
+
+/// The lot the options give, refused when its code is already in the stock.
+std::vector<Lot> new_lot(const Lot& lot, const Stock& stock) {
+  for (std::size_t i = 0; i < stock.lots.size(); ++i)
+    if (fold_name(stock.lots[i].lot) == fold_name(lot.lot))
+      throw InputError(
+          fmt::format("--lot: \"{}\": already in {} as lot {} ({}) (expected a new lot code; to "
+                      "correct its amount use stock adjust)",
+                      lot.lot, stock.source_file, i + 1, stock.lots[i].variety));
+  return {lot};
+}
+
+/// Every lot of the --from file (checked whole before any goes in).
+std::vector<Lot> file_lots(const std::string& file, const std::optional<Storage>& storage, const Stock& stock) {
+  std::vector<Lot> lots;
+  for (ReceivedLot& received : read_lot_receipts(read_text_file(file), file, storage, stock))
+    lots.push_back(std::move(received.lot));
+  return lots;
 }
 
 void run_receive(const Console& console, const GlobalOptions& globals, const ReceiveOptions& options,
                  const std::string& stock_option) {
-  double grams = 0.0;
-  const nlohmann::ordered_json record = read_receipt(options, grams);
+  // The options are read before the stock is opened, so a bad one is named first.
+  const bool from_file = !options.from.empty();
+  const std::optional<Lot> single = from_file ? std::nullopt : std::optional<Lot>(read_receipt(options));
+  const std::optional<Storage> storage = from_file ? read_from_options(options) : std::nullopt;
   StockLedger ledger(stock_file_or_env(stock_option));
   const Stock& stock = ledger.stock();
-  for (std::size_t i = 0; i < stock.lots.size(); ++i)
-    if (fold_name(stock.lots[i].lot) == fold_name(record["lot"].get<std::string>()))
-      throw InputError(
-          fmt::format("--lot: \"{}\": already in {} as lot {} ({}) (expected a new lot code; to "
-                      "correct its amount use stock adjust)",
-                      options.lot, stock.source_file, i + 1, stock.lots[i].variety));
   JournalEntry entry;
   entry.command = "receive";
-  entry.changes.push_back(LotChange{LotChangeKind::added, stock.lots.size(), record["lot"].get<std::string>(),
-                                    record["variety"].get<std::string>(), 0.0, grams, record});
+  if (from_file) entry.reason = "from " + options.from;
+  for (const Lot& lot : from_file ? file_lots(options.from, storage, stock) : new_lot(*single, stock))
+    entry.changes.push_back(LotChange{LotChangeKind::added, stock.lots.size() + entry.changes.size(), lot.lot,
+                                      lot.variety, 0.0, ledger_grams(lot.on_hand_g.value_or(0.0)), lot_record(lot)});
   report_change(console, ledger, ledger.commit(std::move(entry)), globals);
 }
 
@@ -357,11 +424,17 @@ void setup_list(CLI::App* stock, const GlobalOptions& globals, CommandTable& com
   list->add_option("--stale-below", options->stale_below,
                    "a lot with less than this share of its certificate alpha is stale (default 75%)");
   list->add_flag("--json", options->json, "print JSON");
+  list->add_flag("--csv", options->csv,
+                 "print one CSV table for spreadsheets: a row per lot, units in the headers, canonical units "
+                 "(save it: > lots.csv)");
+  add_html_option(list, options->html);
   list->footer(
       "Examples:\n"
       "  bine stock list stock.json --on 2026-12-01\n"
       "  BINE_STOCK=stock.json bine --units us stock list --stale-below 80\n"
-      "  bine stock list stock.json --json");
+      "  bine stock list stock.json --json\n"
+      "  bine stock list stock.json --on 2026-12-01 --csv\n"
+      "  bine stock list stock.json --on 2026-12-01 --html cold-store.html");
   commands.add(list, [&globals, options, stock_option](const Console& console) {
     run_list(console, globals, *options, *stock_option);
   });
@@ -370,22 +443,30 @@ void setup_list(CLI::App* stock, const GlobalOptions& globals, CommandTable& com
 void setup_receive(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
                    const std::shared_ptr<std::string>& stock_option) {
   auto o = std::make_shared<ReceiveOptions>();
-  auto* receive = stock->add_subcommand("receive", "put a new lot in the stock file (journalled)");
-  receive->add_option("--lot", o->lot, "the lot code on the certificate")->required();
-  receive->add_option("--variety", o->variety, "the variety")->required();
-  receive->add_option("--amount", o->amount, "amount received, with its unit (\"5 kg\", \"11 lb\")")->required();
-  receive->add_option("--alpha", o->alpha, "alpha acid % on the certificate")->required();
-  receive->add_option("--packaged", o->packaged, "packaging date, YYYY-MM-DD")->required();
-  receive->add_option("--stored", o->stored, "\"TEMP,PACKAGE\" such as \"-2 C,vacuum\" (vacuum|sealed|open)")
-      ->required();
+  auto* receive = stock->add_subcommand("receive", "put new lots in the stock file, one or a file's (journalled)");
+  receive->add_option("--lot", o->lot, "the lot code on the certificate (required without --from)");
+  receive->add_option("--variety", o->variety, "the variety (required without --from)");
+  receive->add_option("--amount", o->amount, "amount received, with its unit (\"5 kg\", \"11 lb\"; required)");
+  receive->add_option("--alpha", o->alpha, "alpha acid % on the certificate (required without --from)");
+  receive->add_option("--packaged", o->packaged, "packaging date, YYYY-MM-DD (required without --from)");
+  receive->add_option("--stored", o->stored,
+                      "\"TEMP,PACKAGE\" such as \"-2 C,vacuum\" (vacuum|sealed|open); with --from, for the lots "
+                      "the file gives no storage");
   receive->add_option("--form", o->form, "pellet (default), whole or powder");
   receive->add_option("--beta", o->beta, "beta acid % on the certificate");
   receive->add_option("--oil", o->oil, "total oil, mL/100 g");
   receive->add_option("--hsi", o->hsi, "Hop Storage Index on the certificate");
+  receive
+      ->add_option("--from", o->from,
+                   "every lot of this file: a CSV of certificates (headers as bine import reads them), "
+                   "BeerXML hop records or a stock file (JSON); one bad lot and nothing is received")
+      ->check(output_file_name());
   receive->footer(
-      "Example:\n"
+      "Examples:\n"
       "  bine stock --stock stock.json receive --lot KS-26-002 --variety Keelstone --amount \"5 kg\" --alpha 12.1 \\\n"
-      "      --packaged 2026-10-20 --stored \"-2 C,vacuum\" --oil 1.8");
+      "      --packaged 2026-10-20 --stored \"-2 C,vacuum\" --oil 1.8\n"
+      "  bine stock --stock stock.json receive --from certificates.csv --stored \"-2 C,vacuum\"\n"
+      "The lots of a --from file go in as one journal entry (one undo takes them all out again).");
   commands.add(receive, [&globals, o, stock_option](const Console& console) {
     run_receive(console, globals, *o, *stock_option);
   });

@@ -6,6 +6,7 @@
 #include <memory>
 #include <optional>
 
+#include "cli/bitterness_options.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
@@ -33,24 +34,29 @@ struct SwapOptions {
   std::string top;
   bool pairs = false;
   bool json = false;
+  bool csv = false;
   std::string html;
   std::string recipe;
   std::string pick;
   std::string pair;
   std::string write;
+  BitternessOptions bitterness;  // with --recipe: how the recipe's IBU is computed
+  std::string alpha_tolerance;
 };
 
 struct SwapArgs {
   SwapRequest request;  // without catalog data; the cellar is attached once loaded
   CellarChoice cellar;
   std::string stock;
-  bool json = false;
+  Printed printed = Printed::text;
   std::string html;
   std::size_t shown = 5;  // substitutes listed (the request may rank more, for --pick and --pair)
   std::string recipe;
   std::optional<std::size_t> pick;  // 1-based
   std::optional<std::size_t> pair;  // 1-based
   std::string write;
+  BitternessSettings settings;  // with --recipe (and --brewhouse or BINE_BREWHOUSE)
+  double alpha_tolerance = kDefaultCertificateTolerancePercent;
 };
 
 /// --recipe, --pick, --pair, --write: which substitute goes into which recipe.
@@ -60,6 +66,16 @@ void read_recipe_options(OptionReader& reader, const SwapOptions& options, SwapA
   reader.require(options.pick.empty() || options.pair.empty(), "--pick/--pair: give one, not both");
   reader.require(!options.recipe.empty() || (options.pick.empty() && options.pair.empty() && options.write.empty()),
                  "--pick/--pair/--write: only with --recipe FILE (the recipe to put the substitute into)");
+  const BitternessOptions& b = options.bitterness;
+  if (!options.recipe.empty()) {
+    args.settings = read_bitterness_options(reader, b);
+    args.alpha_tolerance = read_alpha_tolerance(reader, options.alpha_tolerance);
+  } else {
+    reader.require(b.model.empty() && b.pellet_factor.empty() && b.calibration.empty() && b.brewhouse.empty() &&
+                       options.alpha_tolerance.empty(),
+                   "--model/--pellet-factor/--calibration/--brewhouse/--alpha-tolerance: only with --recipe FILE (the "
+                   "recipe whose IBU they compute)");
+  }
   if (!options.pick.empty()) args.pick = reader.count("--pick", options.pick, limits::substitutes_listed, 1);
   if (!options.pair.empty()) args.pair = reader.count("--pair", options.pair, limits::substitutes_listed, 1);
   if (args.pair) args.request.pairs = true;
@@ -74,8 +90,12 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
   OptionReader reader;
   SwapArgs args;
   args.stock = options.stock;
-  args.json = options.json;
   args.html = options.html;
+  const std::string conflict = csv_conflict(options.json, options.csv, options.html);
+  reader.require(conflict.empty(), conflict);
+  reader.require(!options.csv || options.recipe.empty(),
+                 "--csv: not with --recipe (the CSV lists the substitutes only; expected --json for the recipe "
+                 "swap as well)");
   args.request.missing = options.variety;
   args.request.pairs = options.pairs;
   if (const auto purpose = swap_purpose_from(options.purpose))
@@ -90,22 +110,27 @@ SwapArgs parse_swap_args(const SwapOptions& options) {
       options.cellar.on.empty() || !options.stock.empty(),
       fmt::format("--on: {}: only used with --stock (expected --stock FILE to age its lots)", options.cellar.on));
   reader.throw_if_any();
+  args.printed = printed_as(options.json, options.csv, options.html);
   return args;
 }
 
-/// A ranked substitute as the hop that goes into the recipe: its lot's alpha today, else the catalog
-/// midpoint; its lot's oil, else the catalog midpoint.
-SwapIn swap_in_of(const Substitute& s, double share) {
+/// A ranked substitute as the hop that goes into the recipe: its lot's alpha today (how it is known
+/// from the lot in `cellar`), else the catalog midpoint; its lot's oil, else the catalog midpoint.
+SwapIn swap_in_of(const Substitute& s, double share, const Cellar* cellar) {
   SwapIn in;
   in.share = share;
   in.hop.variety = s.variety.name;
-  if (s.alpha_today)
+  const CellarLot* lot = s.lot && cellar != nullptr ? cellar->find(s.lot->lot) : nullptr;
+  if (s.alpha_today) {
     in.hop.alpha_percent = *s.alpha_today;
-  else if (s.variety.alpha_acid)
+    if (lot != nullptr) in.hop.alpha_origin = lot_alpha_origin(*lot, &s.variety);
+  } else if (s.variety.alpha_acid) {
     in.hop.alpha_percent = s.variety.alpha_acid->mid();
-  else
+    in.hop.alpha_origin.catalog_range = std::make_pair(s.variety.alpha_acid->min, s.variety.alpha_acid->max);
+  } else {
     throw InputError(
         fmt::format("swap: {}: no alpha acid known (add an alpha_acid range to its catalog entry)", s.variety.name));
+  }
   if (s.lot && s.lot->total_oil)
     in.hop.total_oil = s.lot->total_oil;
   else if (s.variety.total_oil)
@@ -127,7 +152,7 @@ double grams_of(const RecipeSwap& swap, const SwapIn& in) {
 }
 
 /// The substitutes of --pair N, found among the ranked ones.
-std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n) {
+std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n, const Cellar* cellar) {
   if (n > result.pairs.size())
     throw Infeasible(fmt::format("--pair {}: there are {} two-variety blends that beat the best single substitute", n,
                                  result.pairs.size()));
@@ -136,7 +161,7 @@ std::vector<SwapIn> pair_members(const SwapResult& result, std::size_t n) {
   for (std::size_t k = 0; k < 2; ++k)
     for (const auto& s : result.substitutes)
       if (s.variety.name == pair.varieties[k] && (s.lot ? s.lot->lot : std::string()) == pair.lots[k]) {
-        members.push_back(swap_in_of(s, pair.shares[k]));
+        members.push_back(swap_in_of(s, pair.shares[k], cellar));
         break;
       }
   return members;
@@ -150,12 +175,12 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
   report.missing = result.missing.name;
   report.from_stock = result.from_stock;
   const auto into = [&](const std::vector<SwapIn>& in) {
-    return swap_into_recipe(recipe, result.missing.name, in, data.catalog, BitternessSettings{}, Weighing::as_weighed);
+    return swap_into_recipe(recipe, result.missing.name, in, data.catalog, args.settings, Weighing::as_weighed);
   };
   if (result.substitutes.empty()) throw Infeasible("no substitute to put into the recipe");
   std::optional<std::size_t> chosen;
   for (std::size_t i = 0; i < result.substitutes.size() && i < args.shown; ++i) {
-    const SwapIn in = swap_in_of(result.substitutes[i], 1.0);
+    const SwapIn in = swap_in_of(result.substitutes[i], 1.0, args.request.cellar);
     const RecipeSwap swap = into({in});
     report.coverage.push_back(
         {in.hop.lot_code.empty() ? in.hop.variety : fmt::format("{} ({})", in.hop.variety, in.hop.lot_code),
@@ -163,21 +188,22 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
     if (!chosen && swap.result.shortfalls.empty()) chosen = i;
   }
   if (args.pair) {
-    report.swapped_in = pair_members(result, *args.pair);
+    report.swapped_in = pair_members(result, *args.pair, args.request.cellar);
     report.choice = fmt::format("--pair {}", *args.pair);
   } else if (args.pick) {
     if (*args.pick > result.substitutes.size())
       throw Infeasible(fmt::format("--pick {}: only {} substitutes were found", *args.pick, result.substitutes.size()));
-    report.swapped_in = {swap_in_of(result.substitutes[*args.pick - 1], 1.0)};
+    report.swapped_in = {swap_in_of(result.substitutes[*args.pick - 1], 1.0, args.request.cellar)};
     report.choice = fmt::format("--pick {}", *args.pick);
   } else {
     const std::size_t index = chosen.value_or(0);
-    report.swapped_in = {swap_in_of(result.substitutes[index], 1.0)};
+    report.swapped_in = {swap_in_of(result.substitutes[index], 1.0, args.request.cellar)};
     report.choice = !result.from_stock ? "the best-ranked substitute"
                     : chosen ? fmt::format("substitute {}, the best-ranked whose lot covers the recipe", index + 1)
                              : "the best-ranked substitute; no listed lot covers the recipe";
   }
   report.swap = into(report.swapped_in);
+  report.intervals = rebalance_intervals(report.swap.result, data.catalog, args.alpha_tolerance);
   return report;
 }
 
@@ -211,13 +237,15 @@ void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs arg
   const bool pairs = args.request.pairs;
   write_html(args.html,
              [&] { return swap_html(result, globals.unit_system(), pairs, page_meta(&data, "", args.stock)); });
+  if (args.printed == Printed::csv) print_notes(console, result.notes);
   print_result(
-      console, args.json, data,
+      console, args.printed, data,
       [&] {
         nlohmann::json out = swap_to_json(result, pairs);
         if (swapped) out["recipe_swap"] = recipe_swap_to_json(*swapped);
         return out;
       },
+      [&] { return swap_to_csv(result, pairs); },
       [&](std::ostream& out) {
         render_swap(out, result, globals.unit_system(), pairs);
         if (swapped) render_recipe_swap(out, *swapped, globals.unit_system());
@@ -236,6 +264,9 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
   swap->add_option("--top", options->top, "how many substitutes to list (1-100, default 5)");
   swap->add_flag("--pairs", options->pairs, "also two-variety blends that match better than any single substitute");
   swap->add_flag("--json", options->json, "print one JSON document instead of tables");
+  swap->add_flag("--csv", options->csv,
+                 "print one CSV table for spreadsheets: a row per substitute (kind \"substitute\") and, with "
+                 "--pairs, two per blend (kind \"blend\"); units in the headers; notes on stderr");
   add_html_option(swap, options->html);
   swap->add_option("--recipe", options->recipe,
                    "put the substitute into this recipe: late additions by the oil factor, boil additions by "
@@ -245,6 +276,8 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
                    "lot covers the recipe)");
   swap->add_option("--pair", options->pair, "with --recipe: use two-variety blend N (implies --pairs)");
   swap->add_option("--write", options->write, "with --recipe: save the recipe with the substitute (atomically)");
+  add_bitterness_options(swap, options->bitterness);
+  add_alpha_tolerance_option(swap, options->alpha_tolerance);
   swap->footer(
       "Similarity 0-100 weighs aroma, oil composition and chemistry (aroma question) or alpha,\n"
       "cohumulone and beta (bittering question). The amount factor is grams of substitute per gram\n"
@@ -256,9 +289,13 @@ void setup_swap_command(CLI::App& app, const GlobalOptions& globals, CommandTabl
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs\n"
       "  bine swap Tidewell --stock stock.json --on 2026-12-01 --stale-below 80%\n"
       "  bine swap Keelstone --for bittering --top 3 --json\n"
+      "  bine swap Tidewell --stock stock.json --on 2026-12-01 --pairs --csv\n"
       "  bine --units us swap Tidewell --html tidewell.html\n"
       "  bine swap Tidewell --recipe pale-ale.json --stock stock.json --on 2026-12-01 --write pale-ale-swap.json\n"
-      "  bine swap Tidewell --recipe pale-ale.json --pair 1");
+      "  bine swap Tidewell --recipe pale-ale.json --pair 1\n"
+      "  bine swap Tidewell --recipe pale-ale.json --brewhouse brewhouse.json\n"
+      "With --recipe, --brewhouse (else $BINE_BREWHOUSE) and the other bitterness options compute its IBU,\n"
+      "each with its 90 % interval (alpha range or certificate tolerance, ageing, brewhouse factor).");
   commands.add(swap,
                [&globals, options](const Console& console) { run_swap(console, globals, parse_swap_args(*options)); });
 }

@@ -25,6 +25,7 @@ struct BlendCandidate {
   double oil_ml_per_100g = 0.0;  // lot value, else the catalog range midpoint
   double alpha_percent = 0.0;    // lot alpha on the brew day, else the catalog range midpoint
   std::string alpha_note;        // how alpha_percent was obtained
+  AlphaOrigin alpha_origin;      // how alpha_percent is known (its interval)
   HopForm form = HopForm::pellet;
   std::optional<double> on_hand_g;  // stock mode only
 };
@@ -112,6 +113,20 @@ struct BlendResult {
 /// Chooses up to max_varieties candidates and their oil shares. Throws Infeasible with the reason
 /// and what would make it feasible.
 BlendResult design_blend(const BlendRequest& request);
+
+/// The 90 % intervals of a blend's IBU figures (docs/methods.md#ibu-intervals).
+struct BlendIntervals {
+  std::vector<IbuRange> parts;        // each part's whirlpool IBU, as result.parts
+  std::optional<IbuRange> bittering;  // the bittering charge's IBU
+  IbuRange kept;                      // the boil additions kept
+  IbuRange late;                      // the whirlpool share of the blend
+  IbuRange total;
+  bool monte_carlo = false;
+  bool aged = false;
+};
+/// Each part from its candidate's alpha, the charge from its hop's, the kept additions from theirs,
+/// with the plan's brewhouse factor uncertainty; certificates within `tolerance_percent`.
+BlendIntervals blend_intervals(const BlendRequest& request, const BlendResult& result, double tolerance_percent);
 
 /// IBU from one gram of a candidate in the plan's whirlpool (linear in grams, bitterness engine).
 double whirlpool_ibu_per_gram(const BlendCandidate& candidate, const BlendPlan& plan);

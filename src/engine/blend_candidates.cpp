@@ -53,6 +53,8 @@ void add_catalog_candidates(const Catalog& catalog, const Lexicon& lexicon, cons
     const CatalogAlpha alpha = catalog_alpha(variety);
     candidate.alpha_percent = alpha.alpha_percent.value_or(0.0);
     candidate.alpha_note = alpha.note;
+    if (variety.alpha_acid)
+      candidate.alpha_origin.catalog_range = std::make_pair(variety.alpha_acid->min, variety.alpha_acid->max);
     set.candidates.push_back(std::move(candidate));
   }
 }
@@ -88,6 +90,7 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
     candidate.oil_ml_per_100g = *oil;
     candidate.alpha_percent = aged.alpha_today.value_or(0.0);
     candidate.alpha_note = aged.alpha_note;
+    candidate.alpha_origin = lot_alpha_origin(aged, variety);
     if (aged.stale) candidate.alpha_note += "; stale (" + aged.stale_reason + "), allowed";
     set.candidates.push_back(std::move(candidate));
   }

@@ -29,9 +29,11 @@ const CellarLot* lot_for(const HopAddition& hop, const Cellar* cellar) {
 }
 
 /// The alpha on the brew day of the lot the charge is drawn from, else the addition's own.
-std::optional<double> charge_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar) {
-  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today) return lot->alpha_today;
-  return addition_alpha(hop, catalog, cellar);
+std::optional<std::pair<double, AlphaOrigin>> charge_alpha(const HopAddition& hop, const Catalog& catalog,
+                                                           const Cellar* cellar) {
+  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today)
+    return std::make_pair(*lot->alpha_today, lot_alpha_origin(*lot, find_variety(catalog, lot->lot.variety)));
+  return addition_alpha_known(hop, catalog, cellar);
 }
 
 /// The charge from a variety the brewer named: its first lot in order, else the catalog's values.
@@ -50,7 +52,8 @@ BitteringHop bittering_from(const NamedVariety& named, const Catalog& catalog, c
   const auto alpha = charge_alpha(probe, catalog, cellar);
   if (!alpha)
     throw InputError(fmt::format("{}: {}: no alpha acid known", named.named_by, known.name), {Remedy::add_alpha_acid});
-  hop.alpha_percent = *alpha;
+  hop.alpha_percent = alpha->first;
+  hop.alpha_origin = alpha->second;
   return hop;
 }
 
@@ -61,7 +64,9 @@ BitteringHop bittering_as_written(const Recipe& recipe, std::size_t index, const
   BitteringHop bittering;
   bittering.variety = hop.variety;
   bittering.lot = hop.lot;
-  bittering.alpha_percent = *charge_alpha(hop, catalog, cellar);
+  const auto alpha = charge_alpha(hop, catalog, cellar);
+  bittering.alpha_percent = alpha->first;
+  bittering.alpha_origin = alpha->second;
   bittering.form = hop.form.value_or(HopForm::pellet);
   bittering.minutes = hop.minutes.value_or(recipe.boil_minutes);
   bittering.use = hop.use;
@@ -75,6 +80,7 @@ BitteringHop bittering_as_written(const Recipe& recipe, std::size_t index, const
 /// The recipe's additions as written: the IBU of each (0 for dry hops) and their late grams.
 struct RecipeAsWritten {
   std::vector<double> ibu;
+  std::vector<IbuTerm> terms;  // each addition's IBU and how its alpha is known
   double total_ibu = 0.0;
   double whirlpool_g = 0.0;
   double dry_hop_g = 0.0;
@@ -104,6 +110,7 @@ void add_late_oil(const HopAddition& hop, std::size_t index, const Catalog& cata
 RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, const Cellar* cellar, BlendPlan& plan) {
   RecipeAsWritten written;
   written.ibu.assign(recipe.hops.size(), 0.0);
+  written.terms.assign(recipe.hops.size(), IbuTerm{});
   bool have_whirlpool = false;
   std::vector<std::string> problems;
   for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
@@ -114,13 +121,14 @@ RecipeAsWritten read_additions(const Recipe& recipe, const Catalog& catalog, con
       if (!plan.dry_hop_minutes) plan.dry_hop_minutes = hop.minutes;
       continue;
     }
-    const auto alpha = addition_alpha(hop, catalog, cellar);
+    const auto alpha = addition_alpha_known(hop, catalog, cellar);
     if (!alpha) {
       problems.push_back(fmt::format("{}: /hops/{}: no alpha acid for {} (add \"alpha_acid\" to the addition)",
                                      recipe.source_file, i, hop.variety));
       continue;
     }
-    written.ibu[i] = addition_bitterness(hop, *alpha, plan.wort, plan.bitterness).ibu;
+    written.ibu[i] = addition_bitterness(hop, alpha->first, plan.wort, plan.bitterness).ibu;
+    written.terms[i] = IbuTerm{written.ibu[i], alpha->first, alpha->second, is_late_addition(hop.use, hop.minutes)};
     written.total_ibu += written.ibu[i];
     if (hop.use == HopUse::whirlpool) {
       written.whirlpool_g += hop.grams;
@@ -183,12 +191,13 @@ BitteringHop recipe_bittering(const Recipe& recipe, std::optional<std::size_t> l
 }
 
 /// Every boil and first-wort addition but the charge is kept, with its IBU.
-void keep_boil_additions(const Recipe& recipe, const std::vector<double>& ibu, BlendPlan& plan) {
+void keep_boil_additions(const Recipe& recipe, const RecipeAsWritten& written, BlendPlan& plan) {
   for (std::size_t i = 0; i < recipe.hops.size(); ++i) {
     const HopUse use = recipe.hops[i].use;
     if ((use == HopUse::boil || use == HopUse::first_wort) && plan.bittering_index != i) {
       plan.kept.push_back(i);
-      plan.ibu.kept_ibu += ibu[i];
+      plan.kept_terms.push_back(written.terms[i]);
+      plan.ibu.kept_ibu += written.ibu[i];
     }
   }
 }
@@ -246,11 +255,20 @@ LateAmount late_amount(const LateDose& dose, double volume_l) {
   return {LateAmount::Kind::grams, dose.value * volume_l};
 }
 
+std::optional<std::pair<double, AlphaOrigin>> addition_alpha_known(const HopAddition& hop, const Catalog& catalog,
+                                                                   const Cellar* cellar) {
+  const Variety* variety = find_variety(catalog, hop.variety);
+  if (hop.alpha_acid) return std::make_pair(*hop.alpha_acid, AlphaOrigin{});
+  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today)
+    return std::make_pair(*lot->alpha_today, lot_alpha_origin(*lot, variety));
+  if (variety != nullptr && variety->alpha_acid)
+    return std::make_pair(variety->alpha_acid->mid(),
+                          AlphaOrigin{std::make_pair(variety->alpha_acid->min, variety->alpha_acid->max), {}});
+  return std::nullopt;
+}
+
 std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar) {
-  if (hop.alpha_acid) return hop.alpha_acid;
-  if (const CellarLot* lot = lot_for(hop, cellar); lot != nullptr && lot->alpha_today) return lot->alpha_today;
-  if (const Variety* variety = find_variety(catalog, hop.variety); variety != nullptr && variety->alpha_acid)
-    return variety->alpha_acid->mid();
+  if (const auto known = addition_alpha_known(hop, catalog, cellar)) return known->first;
   return std::nullopt;
 }
 
@@ -269,7 +287,7 @@ BlendPlan plan_blend(const Recipe* recipe, const Catalog& catalog, const Cellar*
     plan.bittering = recipe_bittering(*recipe, largest, catalog, cellar, choices);
     plan.bittering_index = largest;
   }
-  keep_boil_additions(*recipe, written.ibu, plan);
+  keep_boil_additions(*recipe, written, plan);
   return plan;
 }
 

@@ -7,10 +7,12 @@
 #include <cstddef>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "engine/bitterness.hpp"
 #include "engine/cellar.hpp"
+#include "engine/ibu_interval.hpp"
 #include "model/hops.hpp"
 
 namespace bine {
@@ -26,6 +28,7 @@ struct BitteringHop {
   double minutes = 60.0;
   std::optional<HopUse> use;        // boil (default) or first-wort
   std::optional<double> on_hand_g;  // when the lot is in the stock
+  AlphaOrigin alpha_origin;         // how alpha_percent is known (its interval)
 };
 
 /// Where the IBU to hold comes from (the report words it).
@@ -100,6 +103,7 @@ struct BlendPlan {
   std::optional<BitteringHop> bittering;       // nullopt: no charge, late IBU must equal the room left
   std::optional<std::size_t> bittering_index;  // the recipe addition the charge replaces
   std::vector<std::size_t> kept;               // recipe additions kept (boil and first-wort, not bittering)
+  std::vector<IbuTerm> kept_terms;             // their IBU and how their alpha is known, one per kept
   double whirlpool_temperature_c = 80.0;
   double whirlpool_minutes = 20.0;
   std::optional<double> dry_hop_minutes;
@@ -109,6 +113,11 @@ struct BlendPlan {
 /// The alpha acid of a recipe addition: its own value, else its lot's (or the first lot of its variety
 /// in lot order) on the cellar's brew day, else the catalog midpoint. nullopt when none is known.
 std::optional<double> addition_alpha(const HopAddition& hop, const Catalog& catalog, const Cellar* cellar);
+
+/// The same with how the alpha is known: written (a certificate's within its tolerance), its lot's
+/// on the brew day, or the catalog midpoint over the variety's range.
+std::optional<std::pair<double, AlphaOrigin>> addition_alpha_known(const HopAddition& hop, const Catalog& catalog,
+                                                                   const Cellar* cellar);
 
 /// Plans a blend for `recipe` (or, without one, for the wort the choices describe). Throws
 /// InputError naming the recipe field, or the variety as the choices name it, when something needed

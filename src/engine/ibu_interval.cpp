@@ -23,8 +23,10 @@
 #include <optional>
 #include <random>
 
+#include "engine/cellar.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "engine/statistics.hpp"
+#include "engine/storage_loss.hpp"
 #include "model/catalog_lookup.hpp"
 
 namespace bine {
@@ -83,18 +85,28 @@ IbuRange range_of(std::vector<double> values) {
   return IbuRange{quantile_of_sorted(values, tail), quantile_of_sorted(values, 1.0 - tail)};
 }
 
-IbuIntervals exact_intervals(const std::vector<AdditionUncertainty>& additions) {
-  IbuIntervals result;
+/// The exact interval of a sum of independent normal terms: mean +- z sqrt(sum of variances).
+IbuRange exact_sum(const std::vector<AdditionUncertainty>& additions, const std::vector<std::size_t>& which) {
   double mean = 0.0;
   double variance = 0.0;
-  for (const auto& a : additions) {
-    const double m = a.ibu_per_alpha * a.alpha_percent;
-    const double sd = a.ibu_per_alpha * a.alpha_sd;
-    result.additions.push_back(IbuRange{m - z_interval() * sd, m + z_interval() * sd});
-    mean += m;
-    variance += sd * sd;
+  for (const std::size_t i : which) {
+    const auto& a = additions[i];
+    mean += a.ibu_per_alpha * a.alpha_percent;
+    variance += (a.ibu_per_alpha * a.alpha_sd) * (a.ibu_per_alpha * a.alpha_sd);
   }
-  result.total = IbuRange{mean - z_interval() * std::sqrt(variance), mean + z_interval() * std::sqrt(variance)};
+  return IbuRange{mean - z_interval() * std::sqrt(variance), mean + z_interval() * std::sqrt(variance)};
+}
+
+IbuIntervals exact_intervals(const std::vector<AdditionUncertainty>& additions,
+                             const std::vector<std::vector<std::size_t>>& subtotals) {
+  IbuIntervals result;
+  std::vector<std::size_t> all;
+  for (std::size_t i = 0; i < additions.size(); ++i) {
+    result.additions.push_back(exact_sum(additions, {i}));
+    all.push_back(i);
+  }
+  result.total = exact_sum(additions, all);
+  for (const auto& which : subtotals) result.subtotals.push_back(exact_sum(additions, which));
   return result;
 }
 
@@ -109,7 +121,8 @@ double drawn_alpha(const AdditionUncertainty& a, Draws& draws) {
 }
 
 IbuIntervals monte_carlo_intervals(const std::vector<AdditionUncertainty>& additions,
-                                   const std::vector<std::optional<FactorUncertainty>>& factors) {
+                                   const std::vector<std::optional<FactorUncertainty>>& factors,
+                                   const std::vector<std::vector<std::size_t>>& subtotals) {
   Draws draws(kMonteCarloSeed);
   std::vector<std::vector<double>> per_addition(additions.size());
   std::vector<double> totals;
@@ -135,6 +148,12 @@ IbuIntervals monte_carlo_intervals(const std::vector<AdditionUncertainty>& addit
   }
   IbuIntervals result;
   result.monte_carlo = true;
+  for (const auto& which : subtotals) {
+    std::vector<double> sums(static_cast<std::size_t>(kMonteCarloDraws), 0.0);
+    for (const std::size_t i : which)
+      for (std::size_t draw = 0; draw < sums.size(); ++draw) sums[draw] += per_addition[i][draw];
+    result.subtotals.push_back(range_of(std::move(sums)));
+  }
   for (auto& values : per_addition) result.additions.push_back(range_of(std::move(values)));
   result.total = range_of(std::move(totals));
   return result;
@@ -145,12 +164,16 @@ IbuIntervals monte_carlo_intervals(const std::vector<AdditionUncertainty>& addit
 double sd_from_90_range(double min, double max) { return (max - min) / (2.0 * z_interval()); }
 
 IbuIntervals ibu_intervals(const std::vector<AdditionUncertainty>& additions,
-                           const std::vector<std::optional<FactorUncertainty>>& factors, bool force_monte_carlo) {
+                           const std::vector<std::optional<FactorUncertainty>>& factors, bool force_monte_carlo,
+                           const std::vector<std::vector<std::size_t>>& subtotals) {
   const bool factor_uncertain =
       std::any_of(factors.begin(), factors.end(), [](const auto& f) { return f && f->standard_error > 0.0; });
   const bool aged = std::any_of(additions.begin(), additions.end(), [](const auto& a) { return a.ageing.has_value(); });
-  if (!factor_uncertain && !aged && !force_monte_carlo) return exact_intervals(additions);
-  return monte_carlo_intervals(additions, factors);
+  IbuIntervals result = !factor_uncertain && !aged && !force_monte_carlo
+                            ? exact_intervals(additions, subtotals)
+                            : monte_carlo_intervals(additions, factors, subtotals);
+  result.aged = aged;
+  return result;
 }
 
 std::vector<std::optional<FactorUncertainty>> factor_uncertainties(const BitternessSettings& settings) {
@@ -170,33 +193,60 @@ std::vector<std::optional<FactorUncertainty>> factor_uncertainties(const Bittern
   return factors;
 }
 
-AdditionUncertainty addition_uncertainty(double ibu, double alpha_percent, bool from_catalog,
-                                         std::optional<std::pair<double, double>> catalog_range, bool late,
-                                         double tolerance_percent) {
+AdditionUncertainty addition_uncertainty(const IbuTerm& term, double tolerance_percent) {
   AdditionUncertainty a;
-  a.alpha_percent = alpha_percent;
-  a.ibu_per_alpha = alpha_percent > 0.0 ? ibu / alpha_percent : 0.0;
-  if (from_catalog && catalog_range)
-    a.alpha_sd = sd_from_90_range(catalog_range->first, catalog_range->second);
+  a.alpha_percent = term.alpha_percent;
+  a.ibu_per_alpha = term.alpha_percent > 0.0 ? term.ibu / term.alpha_percent : 0.0;
+  a.factor_group = term.late ? 1 : 0;
+  if (term.origin.ageing) {
+    // The draws age the certificate's alpha: the certificate's value is the alpha in the kettle over
+    // what is left at the central stability, A / exp(-k(S) E) (Garetz 1994).
+    const AgeingUncertainty& ageing = *term.origin.ageing;
+    a.ageing = ageing;
+    a.alpha_percent =
+        term.alpha_percent / std::exp(-std::log(100.0 / ageing.stability_percent) / 180.0 * ageing.exposure_days);
+  }
+  if (term.origin.catalog_range)
+    a.alpha_sd = sd_from_90_range(term.origin.catalog_range->first, term.origin.catalog_range->second);
   else
-    a.alpha_sd = sd_from_90_range(alpha_percent * (1.0 - tolerance_percent / 100.0),
-                                  alpha_percent * (1.0 + tolerance_percent / 100.0));
-  a.factor_group = late ? 1 : 0;
+    a.alpha_sd = sd_from_90_range(a.alpha_percent * (1.0 - tolerance_percent / 100.0),
+                                  a.alpha_percent * (1.0 + tolerance_percent / 100.0));
   return a;
 }
 
-IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent) {
+AgeingUncertainty ageing_uncertainty(double stability_percent, const Storage& storage, double days) {
+  return AgeingUncertainty{stability_percent, kStabilityHalfRange,
+                           temperature_factor(storage.temperature_c) * package_factor(storage.package) * days};
+}
+
+AlphaOrigin lot_alpha_origin(const CellarLot& lot, const Variety* variety) {
+  AlphaOrigin origin;
+  if (lot.basis == AlphaBasis::aged && lot.lot.storage)
+    origin.ageing = ageing_uncertainty(lot.stability_percent, *lot.lot.storage, static_cast<double>(lot.days));
+  else if (lot.basis == AlphaBasis::catalog_midpoint && variety != nullptr && variety->alpha_acid)
+    origin.catalog_range = std::make_pair(variety->alpha_acid->min, variety->alpha_acid->max);
+  return origin;
+}
+
+IbuTerm recipe_term(const AdditionLine& line, const Catalog& catalog) {
+  IbuTerm term{line.bitterness.ibu, line.alpha_percent, {}, is_late_addition(line.use, line.minutes)};
+  const Variety* variety = find_variety(catalog, line.variety);
+  if (line.alpha_source == AlphaSource::catalog_midpoint && variety != nullptr && variety->alpha_acid)
+    term.origin.catalog_range = std::make_pair(variety->alpha_acid->min, variety->alpha_acid->max);
+  return term;
+}
+
+IbuIntervals term_intervals(const std::vector<IbuTerm>& terms, const BitternessSettings& settings,
+                            double tolerance_percent, const std::vector<std::vector<std::size_t>>& subtotals) {
   std::vector<AdditionUncertainty> additions;
-  for (const auto& line : bitterness.additions) {
-    std::optional<std::pair<double, double>> range;
-    const Variety* variety = find_variety(catalog, line.variety);
-    if (variety != nullptr && variety->alpha_acid)
-      range = std::make_pair(variety->alpha_acid->min, variety->alpha_acid->max);
-    additions.push_back(addition_uncertainty(line.bitterness.ibu, line.alpha_percent,
-                                             line.alpha_source == AlphaSource::catalog_midpoint, range,
-                                             is_late_addition(line.use, line.minutes), tolerance_percent));
-  }
-  return ibu_intervals(additions, factor_uncertainties(bitterness.settings));
+  for (const auto& term : terms) additions.push_back(addition_uncertainty(term, tolerance_percent));
+  return ibu_intervals(additions, factor_uncertainties(settings), false, subtotals);
+}
+
+IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent) {
+  std::vector<IbuTerm> terms;
+  for (const auto& line : bitterness.additions) terms.push_back(recipe_term(line, catalog));
+  return term_intervals(terms, bitterness.settings, tolerance_percent);
 }
 
 }  // namespace bine

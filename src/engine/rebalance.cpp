@@ -269,10 +269,12 @@ RebalanceResult rebalance_additions(const Recipe& recipe, const std::vector<cons
   for (std::size_t k = 0; k < result.before.additions.size(); ++k) {
     const AdditionLine& b = result.before.additions[k];
     const AdditionLine& a = result.after.additions[k];
-    result.additions.push_back(RebalancedAddition{
-        b.index, b.variety, a.variety, b.use, b.grams, a.grams, b.alpha_percent, a.alpha_percent, b.bitterness.ibu,
-        a.bitterness.ibu, w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index],
-        lot_of[b.index] != nullptr ? lot_of[b.index]->lot_code : w.after.hops[b.index].lot});
+    const ReplacementLot* lot = lot_of[b.index];
+    result.additions.push_back(RebalancedAddition{b.index, b.variety, a.variety, b.use, b.grams, a.grams,
+                                                  b.alpha_percent, a.alpha_percent, b.bitterness.ibu, a.bitterness.ibu,
+                                                  w.oil_before[b.index], w.oil_after[b.index], w.rules[b.index],
+                                                  lot != nullptr ? lot->lot_code : w.after.hops[b.index].lot, 1, 1,
+                                                  lot != nullptr ? std::optional(lot->alpha_origin) : std::nullopt});
   }
   check_total_held(result, lot_of);
   result.recipe_after = std::move(w.after);

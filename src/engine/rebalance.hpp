@@ -7,6 +7,7 @@
 
 #include "engine/bitterness.hpp"
 #include "engine/cellar.hpp"
+#include "engine/ibu_interval.hpp"
 #include "engine/recipe_bitterness.hpp"
 #include "model/hops.hpp"
 
@@ -35,6 +36,7 @@ struct ReplacementLot {
   std::string stale_reason;
   std::size_t lots_of_variety = 1;  // usable lots of this variety in stock
   std::string chosen;               // why this lot: "named in the recipe", "oldest packaging of 2 lots" ...
+  AlphaOrigin alpha_origin;         // how alpha_percent is known (default: a certificate or a value given)
 };
 
 /// What happened to one addition.
@@ -58,6 +60,7 @@ struct RebalancedAddition {
   std::string lot;       // the lot it is weighed from, if known
   std::size_t part = 1;  // a split addition: this row is part `part` of `parts` of addition `index`
   std::size_t parts = 1;
+  std::optional<AlphaOrigin> lot_alpha;  // how the new lot's alpha is known; none: kept as written
 };
 
 struct Shortfall {
@@ -81,6 +84,25 @@ struct RebalanceResult {
   std::vector<std::string> lots_without_amount;  // lots drawn on whose stock entry gives no amount on hand
   std::vector<std::string> notes;
 };
+
+/// The intervals of an addition a stock rebalance split across lots, its parts together.
+struct SplitIntervals {
+  std::size_t index = 0;  // the addition of the recipe as written
+  IbuRange before;        // the addition as written (one alpha)
+  IbuRange after;         // the sum of its parts, from the same draws as each part's
+};
+
+/// The 90 % intervals of the recipe as written and as rebalanced (docs/methods.md#ibu-intervals).
+struct RebalanceIntervals {
+  IbuIntervals before;                // one per row of RebalanceResult::additions, and the total
+  IbuIntervals after;                 // the same, as rebalanced
+  std::vector<SplitIntervals> split;  // one per split addition, in recipe order
+};
+/// Each addition as written from its alpha as the recipe gives it (catalog midpoints over their range),
+/// as rebalanced from its new lot's alpha (`lot_alpha`), with the profile's factor uncertainty. A
+/// split addition's parts are one addition as written (each part's interval its share of the
+/// addition's) and one term per lot as rebalanced.
+RebalanceIntervals rebalance_intervals(const RebalanceResult& result, const Catalog& catalog, double tolerance_percent);
 
 /// True when some addition of `recipe` is of `variety` (folded comparison).
 bool recipe_uses_variety(const Recipe& recipe, std::string_view variety);

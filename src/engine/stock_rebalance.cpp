@@ -15,7 +15,9 @@
 #include <algorithm>
 #include <cmath>
 
+#include "engine/ibu_interval.hpp"
 #include "io/limits.hpp"
+#include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 
 namespace bine {
@@ -54,8 +56,9 @@ std::string why_chosen(bool named, std::size_t count, LotOrder order) {
   return fmt::format("{} first of {} lots", order == LotOrder::oldest ? "oldest packaging" : "most on hand", count);
 }
 
-/// A stock lot as the lot rebalancing brews with.
-ReplacementLot replacement_from(const CellarLot& c, std::size_t count, std::string chosen) {
+/// A stock lot as the lot rebalancing brews with; `variety` (its catalog entry, if any) gives the range
+/// of a catalog midpoint's alpha.
+ReplacementLot replacement_from(const CellarLot& c, const Variety* variety, std::size_t count, std::string chosen) {
   ReplacementLot lot;
   lot.variety = c.lot.variety;
   lot.lot_code = c.code;
@@ -75,6 +78,7 @@ ReplacementLot replacement_from(const CellarLot& c, std::size_t count, std::stri
   lot.alpha_note = c.alpha_note;
   lot.hsi_note = c.hsi_note;
   lot.aged = c.basis == AlphaBasis::aged;
+  lot.alpha_origin = lot_alpha_origin(c, variety);  // its interval: certificate, ageing or catalog range
   lot.stale = c.stale;
   lot.stale_reason = c.stale_reason;
   return lot;
@@ -106,7 +110,7 @@ struct Origin {
 };
 
 /// The lots drawn on, as ReplacementLots (stable addresses: reserved), and the notes they need.
-void take_lots(const Cellar& cellar, StockRebalance& out, std::vector<std::size_t>& position,
+void take_lots(const Cellar& cellar, const Catalog& catalog, StockRebalance& out, std::vector<std::size_t>& position,
                std::vector<std::string>& notes) {
   const AllocationSettings settings = allocation_of(cellar, out.batches);
   position.assign(cellar.lots.size(), cellar.lots.size());
@@ -126,7 +130,8 @@ void take_lots(const Cellar& cellar, StockRebalance& out, std::vector<std::size_
                                     *c.alpha_today, c.lot.variety));
       position[part.lot] = out.lots.size();
       const std::size_t count = lots_in_order(cellar, c.lot.variety, settings).size();
-      out.lots.push_back(replacement_from(c, count, why_chosen(a.named, count, settings.order)));
+      out.lots.push_back(
+          replacement_from(c, find_variety(catalog, c.lot.variety), count, why_chosen(a.named, count, settings.order)));
     }
 }
 
@@ -196,7 +201,7 @@ StockRebalance rebalance_from_stock(const Recipe& recipe, const Cellar& cellar, 
   out.allocation = allocate_lots(out.recipe, cellar, rebalance_demands(out.recipe, written, catalog, settings),
                                  allocation_of(cellar, batches));
   std::vector<std::size_t> position;
-  take_lots(cellar, out, position, notes);
+  take_lots(cellar, catalog, out, position, notes);
   // 2. Rebalance the recipe with each split addition written part by part.
   std::vector<const ReplacementLot*> lot_of;
   std::vector<Origin> origin;

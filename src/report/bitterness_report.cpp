@@ -129,11 +129,32 @@ std::string ibu_with_interval(double ibu, const IbuRange& range) {
   return fmt::format("{:.1f} IBU ({:.{}f}-{:.{}f})", ibu, std::max(range.low, 0.0), decimals, range.high, decimals);
 }
 
+std::string ibu_figure(double ibu, const IbuRange* range) {
+  return range == nullptr ? fmt::format("{:.1f} IBU", ibu) : ibu_with_interval(ibu, *range);
+}
+
+void put_interval(nlohmann::json& object, const std::string& key, const IbuRange& range) {
+  object[key + "_low"] = rounded(std::max(range.low, 0.0), 3);
+  object[key + "_high"] = rounded(range.high, 3);
+}
+
+nlohmann::json interval_json(bool monte_carlo) {
+  return {{"coverage", kIntervalCoverage}, {"monte_carlo", monte_carlo}};
+}
+
+std::string interval_legend(bool brewhouse, bool aged, bool monte_carlo) {
+  std::string sources = "the alpha's catalog range or certificate tolerance";
+  if (aged) sources += std::string(brewhouse ? ", " : " and ") + "the stability range of its ageing";
+  if (brewhouse) sources += " and the brewhouse factor";
+  return fmt::format("(IBU (low-high) = 90 % interval from {}; {})", sources,
+                     monte_carlo ? "10^4 seeded draws" : "exact, linear");
+}
+
 void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
                        const IbuIntervals* intervals) {
   const auto ibu_text = [&](double ibu, std::optional<std::size_t> row) {
-    if (intervals == nullptr) return fmt::format("{:.1f} IBU", ibu);
-    return ibu_with_interval(ibu, row ? intervals->additions[*row] : intervals->total);
+    if (intervals == nullptr) return ibu_figure(ibu, nullptr);
+    return ibu_figure(ibu, row ? &intervals->additions[*row] : &intervals->total);
   };
   out << fmt::format("{}: {} at OG {}, {} boil; {}\n\n", recipe.name.empty() ? recipe.source_file : recipe.name,
                      format_volume(recipe.batch_volume_l, units),
@@ -168,10 +189,8 @@ void render_bitterness(std::ostream& out, const Recipe& recipe, const RecipeBitt
   out << "  (boil-eq. = minutes counted as boiling; util. = alpha acid turned into IBU, with form and "
          "calibration factors)\n";
   if (intervals != nullptr)
-    out << fmt::format(
-        "  (IBU (low-high) = 90 % interval from the alpha's catalog range or certificate tolerance{}; {})\n",
-        bitterness.settings.brewhouse ? " and the brewhouse factor" : "",
-        intervals->monte_carlo ? "10^4 seeded draws" : "exact, linear");
+    out << "  " << interval_legend(bitterness.settings.brewhouse.has_value(), intervals->aged, intervals->monte_carlo)
+        << '\n';
   if (std::any_of(bitterness.additions.begin(), bitterness.additions.end(),
                   [](const AdditionLine& line) { return line.bitterness.rate_extrapolated; }))
     out << "  ~ sits in wort below 90 C: the isomerisation rate fit (Malowicki & Shellhammer 2005) is "
@@ -238,18 +257,14 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
     a["effective_minutes"] = rounded(line.bitterness.effective_minutes, 3);
     a["utilization"] = rounded(line.bitterness.utilization, 5);
     a["ibu"] = rounded(line.bitterness.ibu, 3);
-    if (intervals != nullptr) {
-      a["ibu_low"] = rounded(intervals->additions[additions.size()].low, 3);
-      a["ibu_high"] = rounded(intervals->additions[additions.size()].high, 3);
-    }
+    if (intervals != nullptr) put_interval(a, "ibu", intervals->additions[additions.size()]);
     additions.push_back(std::move(a));
   }
   out["additions"] = std::move(additions);
   out["total_ibu"] = rounded(bitterness.total_ibu, 3);
   if (intervals != nullptr) {
-    out["total_ibu_low"] = rounded(intervals->total.low, 3);
-    out["total_ibu_high"] = rounded(intervals->total.high, 3);
-    out["interval"] = {{"coverage", kIntervalCoverage}, {"monte_carlo", intervals->monte_carlo}};
+    put_interval(out, "total_ibu", intervals->total);
+    out["interval"] = interval_json(intervals->monte_carlo);
   }
   out["bu_gu"] = rounded(bitterness.bu_gu, 4);
   out["bu_gu_reading"] = bitterness.bu_gu_reading;

@@ -22,6 +22,15 @@ nlohmann::json bitterness_to_json(const Recipe& recipe, const RecipeBitterness& 
                                   const IbuIntervals* intervals = nullptr);
 /// "38.9 IBU (35-43)": the figure with its interval, 1 decimal in the interval when it is narrower than 5 IBU.
 std::string ibu_with_interval(double ibu, const IbuRange& range);
+/// The same, or "38.9 IBU" without a range.
+std::string ibu_figure(double ibu, const IbuRange* range);
+/// Puts KEY_low and KEY_high (the interval, 3 decimals, low at least 0) beside `key` in `object`.
+void put_interval(nlohmann::json& object, const std::string& key, const IbuRange& range);
+/// {"coverage": 0.9, "monte_carlo": ...}: how the intervals of a JSON document were computed.
+nlohmann::json interval_json(bool monte_carlo);
+/// "(IBU (low-high) = 90 % interval from ...; exact, linear)": what the intervals of a text report
+/// hold (`brewhouse`: the factor's interval; `aged`: a stability range) and how they were computed.
+std::string interval_legend(bool brewhouse, bool aged, bool monte_carlo);
 
 /// "60 min", "1.5 h" stays "90 min"; days for dry-hop contact ("4 d") from 1 day up.
 std::string format_minutes(double minutes);

@@ -18,7 +18,7 @@ std::string part_name(const BlendPart& part) {
 
 std::string var_pointer(std::size_t i, std::string_view key) { return fmt::format("/varieties/{}/{}", i, key); }
 
-std::string weigh_table(const BlendResult& result, UnitSystem units) {
+std::string weigh_table(const BlendResult& result, const BlendReportContext& context, UnitSystem units) {
   html::Table table("Late hops: the whirlpool part into the hot wort, the dry-hop part into the fermenter",
                     {{"variety (lot)"},
                      {"whirlpool", true},
@@ -34,10 +34,10 @@ std::string weigh_table(const BlendResult& result, UnitSystem units) {
                    html::mass_cell(part.grams, units, var_pointer(i, "grams")),
                    html::number_cell(part.oil_share, 0, " %", var_pointer(i, "share"), 100.0),
                    html::number_cell(part.alpha_percent, 1, " %", var_pointer(i, "alpha_acid")),
-                   html::number_cell(part.whirlpool_ibu, 1, " IBU", var_pointer(i, "whirlpool_ibu"))});
+                   html::ibu_cell(part.whirlpool_ibu, part_range(context, i), var_pointer(i, "whirlpool_ibu"))});
   }
   table.set_total({"late hops", "", "", html::mass_cell(result.late_grams, units, "/late_grams"), "", "",
-                   html::number_cell(result.late_ibu, 1, " IBU", "/ibu/late")});
+                   html::ibu_cell(result.late_ibu, blend_range(context, &BlendIntervals::late), "/ibu/late")});
   return table.str();
 }
 
@@ -50,14 +50,15 @@ std::string ibu_table(const BlendResult& result, const BlendReportContext& conte
         {fmt::format("bittering: {}{}, {:.1f} % alpha, boil {}", hop.variety,
                      hop.lot.empty() ? "" : " (" + hop.lot + ")", hop.alpha_percent, format_minutes(hop.minutes)),
          html::mass_cell(result.bittering_grams, units, "/bittering/grams"),
-         html::number_cell(result.bittering_ibu, 1, " IBU", "/bittering/ibu")});
+         html::ibu_cell(result.bittering_ibu, bittering_range(context), "/bittering/ibu")});
   }
   if (!plan.kept.empty() || plan.ibu.kept_ibu > 0.0)
-    table.add_row(
-        {"other boil additions (kept as they are)", "-", html::number_cell(plan.ibu.kept_ibu, 1, " IBU", "/ibu/kept")});
-  table.add_row(
-      {"late hops in the whirlpool", "see above", html::number_cell(result.late_ibu, 1, " IBU", "/ibu/late")});
-  table.set_total({"total", "", html::number_cell(result.total_ibu, 1, " IBU", "/total_ibu")});
+    table.add_row({"other boil additions (kept as they are)", "-",
+                   html::ibu_cell(plan.ibu.kept_ibu, blend_range(context, &BlendIntervals::kept), "/ibu/kept")});
+  table.add_row({"late hops in the whirlpool", "see above",
+                 html::ibu_cell(result.late_ibu, blend_range(context, &BlendIntervals::late), "/ibu/late")});
+  table.set_total(
+      {"total", "", html::ibu_cell(result.total_ibu, blend_range(context, &BlendIntervals::total), "/total_ibu")});
   return table.str();
 }
 
@@ -119,12 +120,15 @@ std::string blend_html(const BlendResult& result, const BlendReportContext& cont
       format_mass(result.late_grams, units), result.oil_ml, 100.0 * plan.ibu.whirlpool_share,
       format_temperature(plan.whirlpool_temperature_c, units), format_minutes(plan.whirlpool_minutes),
       plan.ibu.target_ibu);
-  content.sections.push_back({"Weigh out", weigh_table(result, units)});
+  content.sections.push_back({"Weigh out", weigh_table(result, context, units)});
   content.sections.push_back({"Aroma", aroma_section(result, context)});
   content.sections.push_back({"Bittering charge and IBU", ibu_table(result, context, units)});
   if (std::string left = stock_left(result, context, units); !left.empty())
     content.sections.push_back({"Stock left after brewing", left});
   content.notes = context.notes;
+  if (context.intervals != nullptr)
+    content.notes.push_back(interval_legend(plan.bitterness.brewhouse.has_value(), context.intervals->aged,
+                                            context.intervals->monte_carlo));
   content.notes.emplace_back(
       "The blend's aroma is the oil-weighted mean of its hops' profiles, a linear first approximation: oil "
       "compounds interact, so taste and adjust.");

@@ -52,10 +52,12 @@ void render_parts(std::ostream& out, const BlendResult& result, const BlendRepor
                    {"total", Align::right},
                    {"oil share", Align::right},
                    {"IBU", Align::right}});
-  for (const auto& part : result.parts)
+  for (std::size_t k = 0; k < result.parts.size(); ++k) {
+    const BlendPart& part = result.parts[k];
     blend.add_row({part_name(part), format_mass(part.whirlpool_g, units), format_mass(part.dry_hop_g, units),
                    format_mass(part.grams, units), fmt::format("{:.0f} %", 100.0 * part.oil_share),
-                   fmt::format("{:.1f} IBU", part.whirlpool_ibu)});
+                   ibu_figure(part.whirlpool_ibu, part_range(context, k))});
+  }
   blend.render(out, "  ");
   out << (context.on ? fmt::format("  alpha on the brew day, {}:\n", format_date(*context.on)) : "  alpha:\n");
   for (const auto& part : result.parts)
@@ -87,14 +89,21 @@ void render_ibu(std::ostream& out, const BlendResult& result, const BlendReportC
                              plan.bittering->lot.empty() ? plan.bittering->variety
                                                          : plan.bittering->variety + " (" + plan.bittering->lot + ")",
                              plan.bittering->alpha_percent, plan.bittering->minutes),
-                 format_mass(result.bittering_grams, units), fmt::format("{:.1f} IBU", result.bittering_ibu)});
+                 format_mass(result.bittering_grams, units),
+                 ibu_figure(result.bittering_ibu, bittering_range(context))});
   if (!plan.kept.empty() || plan.ibu.kept_ibu > 0.0)
-    ibu.add_row({"other boil additions (kept)", "", fmt::format("{:.1f} IBU", plan.ibu.kept_ibu)});
-  ibu.add_row(
-      {"whirlpool (blend)", format_mass(result.whirlpool_grams, units), fmt::format("{:.1f} IBU", result.late_ibu)});
+    ibu.add_row({"other boil additions (kept)", "",
+                 ibu_figure(plan.ibu.kept_ibu, blend_range(context, &BlendIntervals::kept))});
+  ibu.add_row({"whirlpool (blend)", format_mass(result.whirlpool_grams, units),
+               ibu_figure(result.late_ibu, blend_range(context, &BlendIntervals::late))});
   ibu.add_rule();
-  ibu.add_row({"total", "", fmt::format("{:.1f} IBU", result.total_ibu)});
+  ibu.add_row({"total", "", ibu_figure(result.total_ibu, blend_range(context, &BlendIntervals::total))});
   ibu.render(out, "  ");
+  if (context.intervals != nullptr)
+    out << "  "
+        << interval_legend(plan.bitterness.brewhouse.has_value(), context.intervals->aged,
+                           context.intervals->monte_carlo)
+        << '\n';
   if (plan.bitterness.brewhouse) out << "  " << brewhouse_line(plan.bitterness) << ".\n";
 }
 
@@ -119,6 +128,18 @@ void render_stock_left(std::ostream& out, const BlendResult& result, const Blend
 }
 
 }  // namespace
+
+const IbuRange* blend_range(const BlendReportContext& context, const IbuRange BlendIntervals::*which) {
+  return context.intervals == nullptr ? nullptr : &(context.intervals->*which);
+}
+
+const IbuRange* part_range(const BlendReportContext& context, std::size_t k) {
+  return context.intervals == nullptr ? nullptr : &context.intervals->parts[k];
+}
+
+const IbuRange* bittering_range(const BlendReportContext& context) {
+  return context.intervals == nullptr || !context.intervals->bittering ? nullptr : &*context.intervals->bittering;
+}
 
 std::vector<std::string> blend_cautions(const BlendResult& result) {
   std::vector<std::string> cautions;
@@ -167,6 +188,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
     profile[name] = rounded(result.profile[a], 4);
     weight[name] = rounded(goal.weight[a], 4);
   }
+  const BlendIntervals* intervals = context.intervals;
   json varieties = json::array();
   for (const auto& part : result.parts) {
     json v{{"variety", part.variety},
@@ -179,6 +201,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"alpha_note", alpha_note_of(part, context)}};
     if (!part.lot.empty()) v["lot"] = part.lot;
     if (part.left_g) v["left_g"] = rounded(*part.left_g, 2);
+    if (intervals != nullptr) put_interval(v, "whirlpool_ibu", intervals->parts[varieties.size()]);
     varieties.push_back(v);
   }
   json bittering = nullptr;
@@ -190,6 +213,7 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
                  {"minutes", rounded(plan.bittering->minutes, 1)}};
     if (!plan.bittering->lot.empty()) bittering["lot"] = plan.bittering->lot;
     if (result.bittering_left_g) bittering["left_g"] = rounded(*result.bittering_left_g, 2);
+    if (intervals != nullptr && intervals->bittering) put_interval(bittering, "ibu", *intervals->bittering);
   }
   json doc{{"target", target},
            {"weights", weight},
@@ -214,6 +238,14 @@ nlohmann::json blend_to_json(const BlendResult& result, const BlendReportContext
            {"notes", context.notes},
            {"cautions", blend_cautions(result)}};
   doc["on"] = context.on ? json(format_date(*context.on)) : json(nullptr);
+  if (intervals != nullptr) {
+    json& ibu = doc["ibu"];
+    put_interval(ibu, "kept", intervals->kept);
+    put_interval(ibu, "late", intervals->late);
+    if (intervals->bittering) put_interval(ibu, "bittering", *intervals->bittering);
+    put_interval(doc, "total_ibu", intervals->total);
+    doc["interval"] = interval_json(intervals->monte_carlo);
+  }
   return doc;
 }
 

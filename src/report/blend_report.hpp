@@ -23,7 +23,14 @@ struct BlendReportContext {
   bool stock_mode = false;
   std::optional<Date> on;  // the brew day the stock lots were aged to (stock mode)
   std::vector<std::string> notes;
+  const BlendIntervals* intervals = nullptr;  // the 90 % intervals of its IBU figures, when shown
 };
+
+/// The interval of the blend's kept, late or total IBU (a member of BlendIntervals), of part k's, or
+/// of the bittering charge's; nullptr when the context has no intervals.
+const IbuRange* blend_range(const BlendReportContext& context, const IbuRange BlendIntervals::*which);
+const IbuRange* part_range(const BlendReportContext& context, std::size_t k);
+const IbuRange* bittering_range(const BlendReportContext& context);
 
 /// Blend, profile versus target, fit, bittering charge, IBU breakdown, stock left, cautions.
 void render_blend_text(std::ostream& out, const BlendResult& result, const BlendReportContext& context,

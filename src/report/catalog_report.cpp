@@ -1,10 +1,12 @@
 #include "report/catalog_report.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 
 #include "model/names.hpp"
+#include "report/csv_sheet.hpp"
 #include "report/table.hpp"
 
 namespace bine {
@@ -28,6 +30,16 @@ std::string leading_aromas(const Variety& variety, std::size_t count) {
   for (std::size_t i = 0; i < axes.size() && i < count; ++i)
     out += fmt::format("{}{} {:g}", i ? ", " : "", axes[i].second, axes[i].first);
   return out.empty() ? "neutral" : out;
+}
+
+void add_range_headers(std::vector<std::string>& headers, std::string_view what, std::string_view unit) {
+  headers.push_back(fmt::format("{} min ({})", what, unit));
+  headers.push_back(fmt::format("{} max ({})", what, unit));
+}
+
+void add_range_fields(std::vector<std::string>& fields, const std::optional<Range>& range) {
+  fields.push_back(range ? csv_number(range->min) : "");
+  fields.push_back(range ? csv_number(range->max) : "");
 }
 
 }  // namespace
@@ -113,6 +125,43 @@ void render_variety(std::ostream& out, const Variety& variety, const Lexicon& le
   for (const auto& tag : variety.tags) tags += (tags.empty() ? "" : ", ") + tag;
   line("descriptors", tags.empty() ? "none" : tags);
   line("from", variety.source_file);
+}
+
+std::string catalog_to_csv(const Catalog& catalog, const Lexicon& lexicon) {
+  std::vector<std::string> headers{"variety", "origin", "purpose"};
+  add_range_headers(headers, "alpha acid", "%");
+  add_range_headers(headers, "beta acid", "%");
+  add_range_headers(headers, "cohumulone", "% of alpha");
+  add_range_headers(headers, "total oil", "mL/100 g");
+  for (const auto& compound : oil_compounds()) add_range_headers(headers, compound, "% of oil");
+  headers.emplace_back("stability (% of alpha left after 6 months at 20 C)");
+  for (const auto& axis : lexicon.axes()) headers.push_back(fmt::format("aroma {} (0-5)", axis.name));
+  headers.insert(headers.end(), {"tags", "catalog file"});
+  CsvSheet sheet(std::move(headers));
+  for (const Variety& v : catalog.varieties) {
+    std::vector<std::string> row{v.name, v.origin, v.purpose ? std::string(to_string(*v.purpose)) : ""};
+    add_range_fields(row, v.alpha_acid);
+    add_range_fields(row, v.beta_acid);
+    add_range_fields(row, v.cohumulone);
+    add_range_fields(row, v.total_oil);
+    for (const auto& compound : oil_compounds()) {
+      const auto it = v.oils.find(compound);
+      add_range_fields(row, it == v.oils.end() ? std::nullopt : std::optional<Range>(it->second));
+    }
+    row.push_back(csv_number(v.stability));
+    for (const auto& axis : lexicon.axes()) {
+      if (!v.aroma) {
+        row.emplace_back();
+        continue;
+      }
+      const auto it = v.aroma->find(axis.name);
+      row.push_back(csv_number(it == v.aroma->end() ? 0.0 : it->second));
+    }
+    row.push_back(fmt::format("{}", fmt::join(v.tags, ", ")));
+    row.push_back(v.source_file);
+    sheet.add_row(std::move(row));
+  }
+  return sheet.str();
 }
 
 }  // namespace bine

@@ -4,6 +4,7 @@
 
 #include <cmath>
 
+#include "report/bitterness_report.hpp"
 #include "report/catalog_report.hpp"
 
 namespace bine::html {
@@ -25,6 +26,11 @@ Cell temperature_cell(std::optional<double> celsius, UnitSystem units, std::stri
 
 Cell number_cell(double value, int decimals, std::string_view unit, std::string pointer, double scale) {
   return Cell(fmt::format("{:.{}f}{}", value * scale, decimals, unit), std::move(pointer), scale);
+}
+
+Cell ibu_cell(double ibu, const IbuRange* range, const std::string& pointer) {
+  if (range == nullptr) return number_cell(ibu, 1, " IBU", pointer);
+  return Cell(ibu_figure(ibu, range), pointer + " " + pointer + "_low " + pointer + "_high");
 }
 
 }  // namespace bine::html

@@ -7,6 +7,7 @@
 #include <string_view>
 #include <vector>
 
+#include "engine/ibu_interval.hpp"
 #include "model/hops.hpp"
 #include "model/quantity.hpp"
 #include "report/html_table.hpp"
@@ -19,6 +20,9 @@ Cell mass_cell(double grams, UnitSystem units, std::string pointer);
 Cell temperature_cell(std::optional<double> celsius, UnitSystem units, std::string pointer);
 /// A plain number written as fmt `{:.Nf}` plus `unit` (" IBU", " %"), times `scale` of the JSON.
 Cell number_cell(double value, int decimals, std::string_view unit, std::string pointer, double scale = 1.0);
+/// An IBU as ibu_figure writes it ("38.9 IBU (35.0-43.0)"), tied to `pointer` and, with a range, to
+/// the pointer's _low and _high values (put_interval).
+Cell ibu_cell(double ibu, const IbuRange* range, const std::string& pointer);
 
 }  // namespace bine::html
 

@@ -5,6 +5,7 @@
 
 #include "engine/blend.hpp"
 #include "engine/recipe_bitterness.hpp"
+#include "engine/stock_view.hpp"
 #include "engine/substitutes.hpp"
 #include "model/hops.hpp"
 #include "model/quantity.hpp"
@@ -15,9 +16,11 @@
 
 namespace bine {
 
-/// bine ibu --html: the hop schedule as weighed, IBU per addition (chart), total with BU:GU.
+/// bine ibu --html: the hop schedule as weighed, IBU per addition (chart), total with BU:GU; with
+/// `intervals`, the total bitterness with its 90 % interval (the ten-column schedule has no room for
+/// one per addition at 800 px: the text and JSON give them).
 std::string ibu_html(const Recipe& recipe, const RecipeBitterness& bitterness, UnitSystem units,
-                     const html::PageMeta& meta);
+                     const html::PageMeta& meta, const IbuIntervals* intervals = nullptr);
 
 /// bine swap --html: ranked substitutes (lots, alpha on brew day, grams per gram), the missing
 /// variety beside each of the best three (aroma per axis; alpha, beta, cohumulone for bittering).
@@ -35,5 +38,9 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
 
 /// bine age --html: a lot's alpha on the day asked, from its certificate and its storage.
 std::string age_html(const AgeQuery& query, const AgedAlpha& aged, UnitSystem units, const html::PageMeta& meta);
+
+/// bine stock list --html: every lot's alpha on the day listed (a chart against the certificate),
+/// share left, HSI state, stale flag, days until stale and amount; what each variety has on hand.
+std::string stock_html(const StockView& view, UnitSystem units, const html::PageMeta& meta);
 
 }  // namespace bine

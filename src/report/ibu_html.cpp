@@ -77,10 +77,11 @@ std::string ibu_chart(const RecipeBitterness& b, UnitSystem units) {
   return html::bar_chart(chart);
 }
 
-std::string totals_table(const Recipe& recipe, const RecipeBitterness& b) {
+std::string totals_table(const Recipe& recipe, const RecipeBitterness& b, const IbuIntervals* intervals) {
   using html::Cell;
   html::Table table("", {{"figure"}, {"value", true}});
-  table.add_row({"total bitterness", html::number_cell(b.total_ibu, 1, " IBU", "/total_ibu")});
+  table.add_row({"total bitterness",
+                 html::ibu_cell(b.total_ibu, intervals != nullptr ? &intervals->total : nullptr, "/total_ibu")});
   table.add_row({"original gravity", html::number_cell(recipe.original_gravity, 3, " SG", "/original_gravity")});
   table.add_row({"BU:GU (IBU per gravity point)", html::number_cell(b.bu_gu, 2, "", "/bu_gu")});
   table.add_row({"reading (common practice)", b.bu_gu_reading});
@@ -89,7 +90,8 @@ std::string totals_table(const Recipe& recipe, const RecipeBitterness& b) {
 
 }  // namespace
 
-std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units, const html::PageMeta& meta) {
+std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem units, const html::PageMeta& meta,
+                     const IbuIntervals* intervals) {
   html::PageContent content;
   const std::string name = recipe.name.empty() ? recipe.source_file : recipe.name;
   content.title = "Hop schedule: " + name;
@@ -98,7 +100,7 @@ std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem
       format_volume(recipe.batch_volume_l, units), recipe.original_gravity, format_minutes(recipe.boil_minutes),
       b.settings.model == IbuModel::rager ? "Rager" : "Tinseth", b.settings.pellet_factor, b.settings.calibration);
   content.sections.push_back({"Hop schedule, as weighed", schedule_table(recipe, b, units)});
-  std::string bitterness = ibu_chart(b, units) + totals_table(recipe, b);
+  std::string bitterness = ibu_chart(b, units) + totals_table(recipe, b, intervals);
   if (recipe.hop_stand)
     bitterness += html::paragraph(fmt::format(
         "Hop stand: {} at {} after flame-out counts as {:.1f} boil minutes for boil and first-wort additions.",
@@ -109,6 +111,8 @@ std::string ibu_html(const Recipe& recipe, const RecipeBitterness& b, UnitSystem
                                               *recipe.target_ibu, b.total_ibu - *recipe.target_ibu));
   content.sections.push_back({"Bitterness", bitterness});
   content.notes = b.notes;
+  if (intervals != nullptr)
+    content.notes.push_back(interval_legend(b.settings.brewhouse.has_value(), intervals->aged, intervals->monte_carlo));
   content.cautions = html::boxed(cautions_for(recipe));
   return html::page(content, meta);
 }

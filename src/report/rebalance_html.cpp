@@ -5,6 +5,7 @@
 #include "report/bitterness_report.hpp"
 #include "report/html_cells.hpp"
 #include "report/html_reports.hpp"
+#include "report/rebalance_report.hpp"
 #include "report/svg_chart.hpp"
 
 namespace bine {
@@ -22,7 +23,13 @@ const HopAddition& hop_after(const RebalanceResult& result, std::size_t position
   return result.recipe_after.hops[position];
 }
 
-std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
+/// The interval of addition i (or of the total, without i) as rebalanced, or nullptr without intervals.
+const IbuRange* after_range(const RebalanceIntervals* intervals, std::optional<std::size_t> i) {
+  if (intervals == nullptr) return nullptr;
+  return i ? &intervals->after.additions[*i] : &intervals->after.total;
+}
+
+std::string schedule_table(const RebalanceResult& result, const RebalanceIntervals* intervals, UnitSystem units) {
   html::Table table("Weigh the new grams; alpha is each lot's on brew day", {{"#", true},
                                                                              {"variety"},
                                                                              {"lot", false, true},
@@ -36,15 +43,19 @@ std::string schedule_table(const RebalanceResult& result, UnitSystem units) {
     const RebalancedAddition& row = result.additions[i];
     const HopAddition& hop = hop_after(result, i);
     table.add_row({Cell(std::to_string(row.index + 1), add_pointer(i, "index")), row.variety,
-                   hop.lot.empty() ? "-" : hop.lot, describe_use(row.use, hop.minutes, hop.temperature_c, units),
+                   hop.lot.empty() ? "-"
+                   : row.parts > 1 ? fmt::format("{} (part {} of {})", hop.lot, row.part, row.parts)
+                                   : hop.lot,
+                   describe_use(row.use, hop.minutes, hop.temperature_c, units),
                    html::number_cell(row.alpha_after, 2, " %", add_pointer(i, "alpha_after")),
                    html::mass_cell(row.grams_before, units, add_pointer(i, "grams_before")),
                    html::mass_cell(row.grams_after, units, add_pointer(i, "grams_after")),
-                   html::number_cell(row.ibu_after, 1, " IBU", add_pointer(i, "ibu_after")),
+                   html::ibu_cell(row.ibu_after, after_range(intervals, i), add_pointer(i, "ibu_after")),
                    std::string(to_string(row.rule))});
   }
-  table.set_total(
-      {"", "total", "", "", "", "", "", html::number_cell(result.after.total_ibu, 1, " IBU", "/total_ibu_after"), ""});
+  table.set_total({"", "total", "", "", "", "", "",
+                   html::ibu_cell(result.after.total_ibu, after_range(intervals, std::nullopt), "/total_ibu_after"),
+                   ""});
   return table.str();
 }
 
@@ -132,20 +143,38 @@ std::string shortfalls_table(const RebalanceResult& result, UnitSystem units) {
   return table.str();
 }
 
-std::string absorber_text(const RebalanceResult& result, UnitSystem units) {
+std::string absorber_text(const RebalanceResult& result, const RebalanceIntervals* intervals, UnitSystem units) {
+  const std::string total = ibu_figure(result.after.total_ibu, after_range(intervals, std::nullopt));
   if (result.absorber) {
     const RebalancedAddition& row = result.additions[*result.absorber];
     const HopAddition& hop = hop_after(result, *result.absorber);
-    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {:.1f} IBU.",
+    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {}.",
                        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
-                       result.ibu_change_absorbed, result.after.total_ibu);
+                       result.ibu_change_absorbed, total);
   }
   if (result.whirlpool_scaled)
     return fmt::format(
         "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU (their aroma "
-        "changes); the total holds at {:.1f} IBU.",
-        result.ibu_change_absorbed, result.after.total_ibu);
-  return fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.", result.after.total_ibu);
+        "changes); the total holds at {}.",
+        result.ibu_change_absorbed, total);
+  return fmt::format("Each addition holds its own IBU; the total stays at {}.", total);
+}
+
+/// A sentence per addition split across lots: its parts' IBU together, as written and rebalanced.
+std::string splits_text(const Recipe& recipe, const RebalanceResult& result, const RebalanceIntervals* intervals) {
+  std::string text;
+  for (const SplitAddition& split : split_additions(result, intervals)) {
+    const HopUse use = recipe.hops[split.index].use;
+    text += html::paragraph(fmt::format(
+        "Addition {} is weighed from {} lots (one has too little); {}{}.", split.index + 1, split.parts,
+        use == HopUse::boil || use == HopUse::first_wort ? "its parts together hold its IBU"
+                                                         : "its parts together hold what it delivers (oil, else grams)",
+        use == HopUse::dry_hop
+            ? std::string()
+            : fmt::format(": {} as written, {} rebalanced", ibu_figure(split.ibu_before, split.before),
+                          ibu_figure(split.ibu_after, split.after))));
+  }
+  return text;
 }
 
 }  // namespace
@@ -154,12 +183,16 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
                            UnitSystem units, const html::PageMeta& meta) {
   html::PageContent content;
   content.title = "Rebalanced hop schedule: " + (recipe.name.empty() ? recipe.source_file : recipe.name);
-  content.summary = fmt::format("Brew day {}{}; {}. Total {:.1f} IBU as written, {:.1f} IBU rebalanced.",
-                                format_date(context.on), context.on_from_clock ? " (today)" : "",
-                                context.from_stock ? "lots from the stock file" : "lots as given",
-                                result.before.total_ibu, result.after.total_ibu);
+  const RebalanceIntervals* intervals = context.intervals;
+  content.summary = fmt::format(
+      "Brew day {}{}; {}. Total {} as written, {} rebalanced{}.", format_date(context.on),
+      context.on_from_clock ? " (today)" : "", context.from_stock ? "lots from the stock file" : "lots as given",
+      ibu_figure(result.before.total_ibu, intervals != nullptr ? &intervals->before.total : nullptr),
+      ibu_figure(result.after.total_ibu, after_range(intervals, std::nullopt)),
+      intervals != nullptr ? " (90 % intervals)" : "");
   content.sections.push_back(
-      {"Hop schedule, as weighed", schedule_table(result, units) + html::paragraph(absorber_text(result, units))});
+      {"Hop schedule, as weighed", schedule_table(result, intervals, units) + splits_text(recipe, result, intervals) +
+                                       html::paragraph(absorber_text(result, intervals, units))});
   content.sections.push_back({"Bitterness", ibu_chart(result, units)});
   content.sections.push_back({"Lots", lots_table(context, units)});
   if (std::string left = stock_left(context, result, units); !left.empty())
@@ -167,6 +200,10 @@ std::string rebalance_html(const Recipe& recipe, const RebalanceContext& context
   if (!result.shortfalls.empty()) content.sections.push_back({"Shortfalls", shortfalls_table(result, units)});
   content.notes = result.notes;
   content.notes.insert(content.notes.end(), result.before.notes.begin(), result.before.notes.end());
+  if (intervals != nullptr)
+    content.notes.push_back(interval_legend(result.after.settings.brewhouse.has_value(),
+                                            intervals->before.aged || intervals->after.aged,
+                                            intervals->before.monte_carlo || intervals->after.monte_carlo));
   content.cautions = html::boxed(cautions_for(recipe));
   return html::page(content, meta);
 }

@@ -68,10 +68,91 @@ void render_stock_cover(std::ostream& out, const Recipe& recipe, const Rebalance
     out << "Stock covers every addition.\n";
 }
 
+nlohmann::json split_additions_json(const RebalanceResult& result, const RebalanceIntervals* intervals) {
+  nlohmann::json splits = nlohmann::json::array();
+  for (const SplitAddition& split : split_additions(result, intervals)) {
+    nlohmann::json s;
+    s["index"] = split.index + 1;
+    s["parts"] = split.parts;
+    s["ibu_before"] = rounded(split.ibu_before, 3);
+    s["ibu_after"] = rounded(split.ibu_after, 3);
+    if (split.before != nullptr) put_interval(s, "ibu_before", *split.before);
+    if (split.after != nullptr) put_interval(s, "ibu_after", *split.after);
+    splits.push_back(std::move(s));
+  }
+  return splits;
+}
+
+/// Each addition split across lots, with its parts' IBU together (as written and rebalanced, each with
+/// its interval when shown).
+void render_splits(std::ostream& out, const Recipe& recipe, const RebalanceResult& result,
+                   const RebalanceIntervals* intervals) {
+  for (const SplitAddition& split : split_additions(result, intervals)) {
+    const HopUse use = recipe.hops[split.index].use;
+    std::string text = fmt::format(
+        "Addition {} is split across lots: one lot has too little, and its parts together hold {}", split.index + 1,
+        use == HopUse::boil || use == HopUse::first_wort ? "its IBU" : "what it delivers (oil, else grams)");
+    if (use != HopUse::dry_hop)
+      text += fmt::format("; together {} as written, {} rebalanced", ibu_figure(split.ibu_before, split.before),
+                          ibu_figure(split.ibu_after, split.after));
+    out << text << ".\n";
+  }
+}
+
+/// Who took the IBU change, and the total it holds at (`total`: its interval, when shown).
+void render_held_total(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, UnitSystem units,
+                       const IbuRange* total) {
+  if (result.absorber) {
+    const auto& row = result.additions[*result.absorber];
+    const HopAddition& hop = recipe.hops[row.index];
+    out << fmt::format(
+        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
+        "changed by {:+.2f} IBU), so the total holds at {}.\n",
+        row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
+        result.ibu_change_absorbed, ibu_figure(result.after.total_ibu, total));
+  } else if (result.whirlpool_scaled) {
+    out << fmt::format(
+        "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
+        "were scaled to make it up, so the total holds at {} but their aroma changes.\n",
+        -result.ibu_change_absorbed + 0.0, ibu_figure(result.after.total_ibu, total));
+  } else {
+    out << fmt::format("Each addition holds its own IBU; the total stays at {}.\n",
+                       ibu_figure(result.after.total_ibu, total));
+  }
+}
+
 }  // namespace
 
+std::vector<SplitAddition> split_additions(const RebalanceResult& result, const RebalanceIntervals* intervals) {
+  std::vector<SplitAddition> splits;
+  for (const auto& row : result.additions) {
+    if (row.parts < 2) continue;
+    if (row.part == 1) {
+      SplitAddition split;
+      split.index = row.index;
+      split.parts = row.parts;
+      if (intervals != nullptr)
+        for (const auto& s : intervals->split)
+          if (s.index == row.index) {
+            split.before = &s.before;
+            split.after = &s.after;
+          }
+      splits.push_back(split);
+    }
+    splits.back().ibu_before += row.ibu_before;
+    splits.back().ibu_after += row.ibu_after;
+  }
+  return splits;
+}
+
 void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, bool from_stock,
-                              UnitSystem units) {
+                              UnitSystem units, const RebalanceIntervals* intervals) {
+  // The interval of addition row k (or of the total, without k) as written or as rebalanced.
+  const auto range = [&](bool after, std::optional<std::size_t> k) -> const IbuRange* {
+    if (intervals == nullptr) return nullptr;
+    const IbuIntervals& which = after ? intervals->after : intervals->before;
+    return k ? &which.additions[*k] : &which.total;
+  };
   TextTable table({{"#", Align::right},
                    {"variety"},
                    {"use"},
@@ -83,9 +164,8 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
                    {"after", Align::right},
                    {"rule"},
                    {"lot"}});
-  std::vector<std::size_t> split;  // additions weighed from more than one lot
-  for (const auto& row : result.additions) {
-    if (row.parts > 1 && row.part == 1) split.push_back(row.index);
+  for (std::size_t k = 0; k < result.additions.size(); ++k) {
+    const RebalancedAddition& row = result.additions[k];
     const HopAddition& hop = recipe.hops[row.index];
     const bool dry = row.use == HopUse::dry_hop;
     const std::string variety = row.variety_after.empty() || row.variety_after == row.variety
@@ -94,37 +174,22 @@ void render_rebalance_changes(std::ostream& out, const Recipe& recipe, const Reb
     table.add_row(
         {std::to_string(row.index + 1), variety, describe_use(hop, units), fmt::format("{:.2f} %", row.alpha_before),
          fmt::format("{:.2f} %", row.alpha_after), format_mass(row.grams_before, units),
-         format_mass(row.grams_after, units), dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_before),
-         dry ? "-" : fmt::format("{:.1f} IBU", row.ibu_after), std::string(to_string(row.rule)), lot_cell(row)});
+         format_mass(row.grams_after, units), dry ? "-" : ibu_figure(row.ibu_before, range(false, k)),
+         dry ? "-" : ibu_figure(row.ibu_after, range(true, k)), std::string(to_string(row.rule)), lot_cell(row)});
   }
   table.add_rule();
-  table.add_row({"", "total", "", "", "", "", "", fmt::format("{:.1f} IBU", result.before.total_ibu),
-                 fmt::format("{:.1f} IBU", result.after.total_ibu), "", ""});
+  table.add_row({"", "total", "", "", "", "", "", ibu_figure(result.before.total_ibu, range(false, std::nullopt)),
+                 ibu_figure(result.after.total_ibu, range(true, std::nullopt)), "", ""});
   table.render(out);
-  for (const std::size_t index : split)
-    out << fmt::format("Addition {} is split across lots: one lot has too little, and its parts together hold {}.\n",
-                       index + 1,
-                       recipe.hops[index].use == HopUse::boil || recipe.hops[index].use == HopUse::first_wort
-                           ? "its IBU"
-                           : "what it delivers (oil, else grams)");
+  if (intervals != nullptr)
+    out << "  "
+        << interval_legend(result.after.settings.brewhouse.has_value(), intervals->before.aged || intervals->after.aged,
+                           intervals->before.monte_carlo || intervals->after.monte_carlo)
+        << '\n';
+  render_splits(out, recipe, result, intervals);
 
   out << '\n';
-  if (result.absorber) {
-    const auto& row = result.additions[*result.absorber];
-    const HopAddition& hop = recipe.hops[row.index];
-    out << fmt::format(
-        "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
-        "changed by {:+.2f} IBU), so the total holds at {:.1f} IBU.\n",
-        row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
-        result.ibu_change_absorbed, result.after.total_ibu);
-  } else if (result.whirlpool_scaled) {
-    out << fmt::format(
-        "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
-        "were scaled to make it up, so the total holds at {:.1f} IBU but their aroma changes.\n",
-        -result.ibu_change_absorbed + 0.0, result.after.total_ibu);
-  } else {
-    out << fmt::format("Each addition holds its own IBU; the total stays at {:.1f} IBU.\n", result.after.total_ibu);
-  }
+  render_held_total(out, recipe, result, units, range(true, std::nullopt));
   render_stock_cover(out, recipe, result, from_stock, units);
 }
 
@@ -139,7 +204,7 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& lot : context.lots) out << "  " << lot_line(lot, units) << '\n';
   out << '\n';
 
-  render_rebalance_changes(out, recipe, result, context.from_stock, units);
+  render_rebalance_changes(out, recipe, result, context.from_stock, units, context.intervals);
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   if (!notes.empty()) {
@@ -149,11 +214,12 @@ void render_rebalance(std::ostream& out, const Recipe& recipe, const RebalanceCo
   for (const auto& caution : cautions_for(recipe)) out << '\n' << caution << '\n';
 }
 
-nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
+nlohmann::json rebalance_changes_json(const RebalanceResult& result, const RebalanceIntervals* intervals) {
   using nlohmann::json;
   json out;
   json additions = json::array();
   for (const auto& row : result.additions) {
+    const std::size_t k = additions.size();
     json a;
     a["index"] = row.index + 1;
     a["variety"] = row.variety;
@@ -165,6 +231,10 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
     a["alpha_after"] = rounded(row.alpha_after, 4);
     a["ibu_before"] = rounded(row.ibu_before, 3);
     a["ibu_after"] = rounded(row.ibu_after, 3);
+    if (intervals != nullptr) {
+      put_interval(a, "ibu_before", intervals->before.additions[k]);
+      put_interval(a, "ibu_after", intervals->after.additions[k]);
+    }
     a["oil_before"] = row.oil_before ? json(rounded(*row.oil_before, 4)) : json(nullptr);
     a["oil_after"] = row.oil_after ? json(rounded(*row.oil_after, 4)) : json(nullptr);
     a["rule"] = std::string(to_string(row.rule));
@@ -175,6 +245,11 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
   out["additions"] = std::move(additions);
   out["total_ibu_before"] = rounded(result.before.total_ibu, 3);
   out["total_ibu_after"] = rounded(result.after.total_ibu, 3);
+  if (intervals != nullptr) {
+    put_interval(out, "total_ibu_before", intervals->before.total);
+    put_interval(out, "total_ibu_after", intervals->after.total);
+    out["interval"] = interval_json(intervals->before.monte_carlo || intervals->after.monte_carlo);
+  }
   out["absorbed_by"] = result.absorber ? json(result.additions[*result.absorber].index + 1) : json(nullptr);
   out["ibu_change_absorbed"] = rounded(result.ibu_change_absorbed, 3);
   out["whirlpool_scaled"] = result.whirlpool_scaled;
@@ -190,6 +265,7 @@ nlohmann::json rebalance_changes_json(const RebalanceResult& result) {
   for (const std::size_t index : result.without_lot) without.push_back(index + 1);
   out["additions_without_lot"] = std::move(without);
   out["lots_without_amount"] = result.lots_without_amount;
+  out["split_additions"] = split_additions_json(result, intervals);
   return out;
 }
 
@@ -220,7 +296,7 @@ nlohmann::json rebalance_to_json(const Recipe& recipe, const RebalanceContext& c
     lots.push_back(std::move(l));
   }
   out["lots"] = std::move(lots);
-  out.update(rebalance_changes_json(result));
+  out.update(rebalance_changes_json(result, context.intervals));
   std::vector<std::string> notes = result.notes;
   notes.insert(notes.end(), result.before.notes.begin(), result.before.notes.end());
   out["notes"] = notes;

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include "report/bitterness_report.hpp"
 #include "report/output_format.hpp"
 #include "report/rebalance_report.hpp"
 #include "report/table.hpp"
@@ -39,9 +40,12 @@ void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitS
   out << fmt::format("\nSwapped into {}: {} replaced by {} ({})\n\n",
                      recipe.name.empty() ? recipe.source_file : recipe.name, report.missing, swapped_in_text(report),
                      report.choice);
+  if (const BitternessSettings& settings = report.swap.result.before.settings; settings.brewhouse)
+    out << brewhouse_line(settings) << ".\n\n";
   // Only the substitute's lots are checked against the stock (the coverage table below), so the
   // table never says that the stock covers every addition.
-  render_rebalance_changes(out, recipe, report.swap.result, /*from_stock=*/false, units);
+  render_rebalance_changes(out, recipe, report.swap.result, /*from_stock=*/false, units,
+                           report.intervals ? &*report.intervals : nullptr);
   out << "Late additions take the oil factor, boil additions the alpha factor; the bittering charge holds the total.\n";
   render_coverage(out, report, units);
   if (!report.written.empty()) out << fmt::format("\nRecipe with the substitute written to {}\n", report.written);
@@ -49,7 +53,7 @@ void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitS
 
 nlohmann::json recipe_swap_to_json(const RecipeSwapReport& report) {
   using nlohmann::json;
-  json out = rebalance_changes_json(report.swap.result);
+  json out = rebalance_changes_json(report.swap.result, report.intervals ? &*report.intervals : nullptr);
   out["recipe"] = report.swap.split.name;
   out["missing"] = report.missing;
   json in = json::array();
@@ -61,6 +65,7 @@ nlohmann::json recipe_swap_to_json(const RecipeSwapReport& report) {
                   {"total_oil", s.hop.total_oil ? json(rounded(*s.hop.total_oil, 4)) : json(nullptr)}});
   out["swapped_in"] = in;
   out["choice"] = report.choice;
+  out["brewhouse"] = brewhouse_json(report.swap.result.before.settings);
   json coverage = json::array();
   for (const auto& c : report.coverage)
     coverage.push_back({{"substitute", c.name},

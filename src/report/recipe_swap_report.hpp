@@ -26,13 +26,14 @@ struct RecipeSwapReport {
   std::string choice;  // why this substitute: "--pick 2", "the best-ranked substitute whose lot covers ..."
   std::vector<LotCoverage> coverage;
   bool from_stock = false;
-  std::string written;  // the file written with --write, if any
+  std::string written;                          // the file written with --write, if any
+  std::optional<RebalanceIntervals> intervals;  // the 90 % intervals of its IBU, when shown
 };
 
 void render_recipe_swap(std::ostream& out, const RecipeSwapReport& report, UnitSystem units);
 /// Keys: recipe, missing, swapped_in (variety, lot, share, alpha_acid, total_oil), choice, coverage
-/// (substitute, needed_g, on_hand_g, covers), written, and the rebalance keys (additions,
-/// total_ibu_before, total_ibu_after, absorbed_by, ibu_change_absorbed, whirlpool_scaled, shortfalls).
+/// (substitute, needed_g, on_hand_g, covers), written, brewhouse (the profile used, or null), and the rebalance keys
+/// (additions, total_ibu_before, total_ibu_after, absorbed_by, ibu_change_absorbed, whirlpool_scaled, shortfalls).
 nlohmann::json recipe_swap_to_json(const RecipeSwapReport& report);
 
 }  // namespace bine

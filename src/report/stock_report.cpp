@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include "report/csv_sheet.hpp"
 #include "report/output_format.hpp"
 #include "report/table.hpp"
 
@@ -104,6 +105,30 @@ nlohmann::json stock_list_to_json(const StockView& view) {
                                 {"on_hand_g", rounded(total.on_hand_g, 2)},
                                 {"stale_g", rounded(total.stale_g, 2)}});
   return out;
+}
+
+std::string stock_list_to_csv(const StockView& view) {
+  CsvSheet sheet({"lot", "variety", "form", "certificate alpha (%)", "packaged", "stored at (C)", "package",
+                  "days stored (days)", "alpha today (%)", "aged", "alpha left (fraction of certificate)",
+                  "stability (% of alpha left after 6 months at 20 C)", "stability from", "HSI", "HSI loss (%)",
+                  "stale", "stale reason", "days until stale (days)", "on hand (g)"});
+  const auto rounded_or_null = [](const std::optional<double>& value, int decimals) {
+    return value ? std::optional<double>(rounded(*value, decimals)) : std::nullopt;
+  };
+  for (const StockLine& line : view.lots) {
+    const Lot& lot = line.lot;
+    sheet.add_row({line.code, lot.variety, std::string(to_string(lot.form)), csv_number(lot.alpha_acid),
+                   lot.packaged ? format_date(*lot.packaged) : "",
+                   lot.storage ? csv_number(lot.storage->temperature_c) : "",
+                   lot.storage ? std::string(to_string(lot.storage->package)) : "", fmt::format("{}", line.days),
+                   csv_number(rounded_or_null(line.alpha_today, 4)), csv_bool(line.aged),
+                   line.aged ? csv_number(rounded(line.remaining, 6)) : "",
+                   csv_number(rounded(line.stability_percent, 4)), line.stability_source, csv_number(lot.hsi),
+                   csv_number(rounded_or_null(line.hsi_loss_percent, 3)), csv_bool(line.stale), line.stale_reason,
+                   line.days_until_stale ? fmt::format("{}", *line.days_until_stale) : "",
+                   csv_number(rounded_or_null(lot.on_hand_g, 2))});
+  }
+  return sheet.str();
 }
 
 void render_change(std::ostream& out, const JournalEntry& entry, UnitSystem units) {

@@ -1,6 +1,6 @@
 #pragma once
 // Rendering the cold store (bine stock list), its journal (bine stock history) and one change
-// (receive, adjust, use, undo) as text or JSON.
+// (receive, adjust, use, undo) as text or JSON; the list also as CSV (its page is stock_html).
 #include <nlohmann/json.hpp>
 #include <ostream>
 #include <string>
@@ -14,6 +14,12 @@ namespace bine {
 
 void render_stock_list(std::ostream& out, const StockView& view, UnitSystem units);
 nlohmann::json stock_list_to_json(const StockView& view);
+
+/// `bine stock list --csv`: one row per lot in file order (as the JSON lists them), with the lot's
+/// certificate values (form, alpha, packaged, storage) beside the figures of the JSON, rounded as
+/// there; canonical units (g, C, %) whatever --units says. The totals per variety are left to the
+/// spreadsheet (a second table would break the one-header-row shape).
+std::string stock_list_to_csv(const StockView& view);
 
 void render_history(std::ostream& out, const std::vector<JournalEntry>& entries, UnitSystem units);
 nlohmann::json history_to_json(const std::vector<JournalEntry>& entries);

@@ -1,10 +1,12 @@
 #include "report/swap_report.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <cmath>
 
 #include "report/catalog_report.hpp"
+#include "report/csv_sheet.hpp"
 #include "report/output_format.hpp"
 #include "report/table.hpp"
 
@@ -133,6 +135,32 @@ nlohmann::json swap_to_json(const SwapResult& r, bool with_pairs) {
   }
   out["notes"] = r.notes;
   return out;
+}
+
+std::string swap_to_csv(const SwapResult& r, bool with_pairs) {
+  CsvSheet sheet({"kind", "rank", "variety", "lot", "on hand (g)", "alpha today (%)", "stale", "similarity (0-100)",
+                  "confidence (0-1)", "g per g replaced (g/g)", "share (fraction by weight)", "amount basis",
+                  "aroma differences"});
+  const auto maybe = [](const std::optional<double>& value, int decimals) {
+    return value ? csv_number(rounded(*value, decimals)) : std::string();
+  };
+  for (std::size_t i = 0; i < r.substitutes.size(); ++i) {
+    const Substitute& s = r.substitutes[i];
+    sheet.add_row({"substitute", std::to_string(i + 1), s.variety.name, s.lot ? s.lot->lot : "",
+                   maybe(s.lot ? s.lot->on_hand_g : std::nullopt, 1), maybe(s.alpha_today, 2),
+                   s.lot ? csv_bool(s.stale) : "", csv_number(rounded(s.similarity, 1)),
+                   csv_number(rounded(s.confidence, 2)), maybe(s.amount_factor, 3), "", s.amount_basis,
+                   fmt::format("{}", fmt::join(difference_words(s), ", "))});
+  }
+  if (with_pairs)
+    for (std::size_t p = 0; p < r.pairs.size(); ++p)
+      for (std::size_t k = 0; k < 2; ++k) {
+        const SubstitutePair& pair = r.pairs[p];
+        sheet.add_row({"blend", std::to_string(p + 1), pair.varieties[k], pair.lots[k], "", "", "",
+                       csv_number(rounded(pair.similarity, 1)), "", maybe(pair.grams_per_gram[k], 3),
+                       csv_number(rounded(pair.shares[k], 3)), "", ""});
+      }
+  return sheet.str();
 }
 
 void render_swap(std::ostream& out, const SwapResult& r, UnitSystem units, bool with_pairs) {

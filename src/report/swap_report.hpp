@@ -1,5 +1,5 @@
 #pragma once
-// Rendering a swap: text tables for the terminal and one JSON document (the HTML page is
+// Rendering a swap: text tables for the terminal, one JSON document and one CSV table (the HTML page is
 // swap_html in html_reports.hpp).
 #include <nlohmann/json.hpp>
 #include <ostream>
@@ -15,6 +15,13 @@ namespace bine {
 /// unknown), amount_basis, differences, aroma_delta, chemistry), pairs (with --pairs), notes.
 /// Canonical units; numbers rounded so the same input gives byte-identical output.
 nlohmann::json swap_to_json(const SwapResult& result, bool with_pairs);
+
+/// `bine swap --csv`: one table, a row per hop. Column "kind" says what the row is: "substitute"
+/// (ranked best first, "rank" 1, 2 ...) or, with --pairs, "blend" (two rows per two-variety blend,
+/// one per variety, both with the blend's number as rank, its share by weight and similarity). The
+/// column "g per g replaced" is grams of this hop per gram of the missing variety: a substitute's
+/// amount factor, a blend member's share x its factor. Figures rounded as in swap_to_json.
+std::string swap_to_csv(const SwapResult& result, bool with_pairs);
 
 /// Text for the terminal: ranked substitutes, chemistry side by side, pairs, notes, cautions.
 void render_swap(std::ostream& out, const SwapResult& result, UnitSystem units, bool with_pairs);

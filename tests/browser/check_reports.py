@@ -48,6 +48,7 @@ def reports(source):
         "blend": ["blend", "--target", "floral=4,citrus=4", "--recipe", pale, "--stock", stock],
         "age": ["age", "--alpha", "11.2", "--packaged", "2025-10-01", "--stored", "-1 C,vacuum", "--variety",
                 "Keelstone", "--on", "2026-06-01"],
+        "stock-list": ["stock", "list", stock, "--on", "2026-12-01"],
     }
 
 

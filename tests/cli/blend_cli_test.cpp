@@ -6,6 +6,7 @@
 #include <cmath>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 #include "cli/run_in_process.hpp"
 #include "cli/temp_dir.hpp"
@@ -13,9 +14,19 @@
 using bine::test::example;
 using bine::test::run_cli;
 
+namespace {
+/// The demo blend: floral and citrus for the pale ale from the example stock on 2026-12-01, plus `extra`.
+bine::test::CliRun stock_blend(std::vector<std::string> extra) {
+  std::vector<std::string> args{
+      "blend", "--target",  "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock", example("stock.json"),
+      "--on",  "2026-12-01"};
+  args.insert(args.end(), extra.begin(), extra.end());
+  return run_cli(args);
+}
+}  // namespace
+
 TEST_CASE("bine blend from stock holds the recipe's 38 IBU and stays within stock") {
-  const auto run = run_cli({"blend", "--target", "floral=4,citrus=4", "--recipe", example("pale-ale.json"), "--stock",
-                            example("stock.json"), "--on", "2026-12-01", "--json"});
+  const auto run = stock_blend({"--json"});
   INFO(run.err);
   REQUIRE(run.status == 0);
   const auto doc = nlohmann::json::parse(run.out);
@@ -96,4 +107,61 @@ TEST_CASE("bine blend: infeasible requests exit 3, bad options exit 2") {
   CHECK(run_cli({"blend", "--target", "floral=4", "--split", "2", "--recipe", recipe}).status == 2);
   CHECK(run_cli({"blend", "--target", "flowery=4", "--recipe", recipe}).status == 2);
   CHECK(run_cli({"blend", "--target", "floral=4"}).status == 2);  // no recipe and no --volume/--ibu
+}
+
+TEST_CASE("blend --json: every IBU figure within its 90 % interval, the parts and kept additions in the total") {
+  const auto run = stock_blend({"--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const auto doc = nlohmann::json::parse(run.out);
+  // Each figure against its own interval: ibu_low <= ibu <= ibu_high (common practice for any
+  // interval around a central estimate; the stock lots are aged, so the ends are drawn).
+  const auto within = [](const nlohmann::json& object, const std::string& key) {
+    CHECK(object[key + "_low"].get<double>() <= object[key].get<double>() + 0.005);  // the figure has 2 decimals
+    CHECK(object[key].get<double>() <= object[key + "_high"].get<double>() + 0.005);
+    CHECK(object[key + "_low"].get<double>() < object[key + "_high"].get<double>());
+  };
+  for (const auto& v : doc["varieties"]) within(v, "whirlpool_ibu");
+  within(doc["bittering"], "ibu");
+  within(doc["ibu"], "kept");
+  within(doc["ibu"], "late");
+  within(doc, "total_ibu");
+  CHECK(doc["interval"]["monte_carlo"] == true);
+  CHECK(doc["interval"]["coverage"].get<double>() == 0.9);
+  // Independent terms: the sum's spread sqrt(sum sd_i^2) is below sum sd_i (hand arithmetic), so the
+  // total's interval is narrower than the widths of its parts added up.
+  double widths = doc["bittering"]["ibu_high"].get<double>() - doc["bittering"]["ibu_low"].get<double>();
+  widths += doc["ibu"]["kept_high"].get<double>() - doc["ibu"]["kept_low"].get<double>();
+  widths += doc["ibu"]["late_high"].get<double>() - doc["ibu"]["late_low"].get<double>();
+  CHECK(doc["total_ibu_high"].get<double>() - doc["total_ibu_low"].get<double>() < widths);
+  const auto text = stock_blend({});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("the stability range of its ageing; 10^4 seeded draws") != std::string::npos);
+}
+
+TEST_CASE("blend without a recipe: the bittering charge at its catalog midpoint spans the catalog range") {
+  // Keelstone from the catalog (no stock): its alpha is the midpoint of the catalog range, read as a
+  // 90 % range, and IBU is linear in alpha, so the charge's interval is its IBU x min / mid to
+  // x max / mid (docs/methods.md#ibu-intervals; the range is read from the catalog file here).
+  const auto catalog =
+      nlohmann::json::parse(bine::test::slurp(std::string(BINE_SOURCE_DATA_DIR) + "/catalog/demo.json"));
+  double low = 0.0, high = 0.0;
+  for (const auto& v : catalog["varieties"])
+    if (v["name"] == "Keelstone") {
+      low = v["alpha_acid"][0].get<double>();
+      high = v["alpha_acid"][1].get<double>();
+    }
+  REQUIRE(high > low);
+  const auto run = run_cli({"blend", "--target", "floral=4,citrus=4", "--volume", "20L", "--ibu", "30", "--bittering",
+                            "Keelstone", "--rate", "6g/L", "--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const auto doc = nlohmann::json::parse(run.out);
+  const auto& charge = doc["bittering"];
+  const double mid = 0.5 * (low + high);
+  CHECK(charge["alpha_acid"].get<double>() == doctest::Approx(mid));
+  // The JSON IBU has 2 decimals: 0.005 / 26 IBU is 2e-4 of it.
+  CHECK(charge["ibu_low"].get<double>() == doctest::Approx(charge["ibu"].get<double>() * low / mid).epsilon(3e-4));
+  CHECK(charge["ibu_high"].get<double>() == doctest::Approx(charge["ibu"].get<double>() * high / mid).epsilon(3e-4));
+  CHECK(doc["interval"]["monte_carlo"] == false);  // no ageing, no brewhouse factor: exact
 }

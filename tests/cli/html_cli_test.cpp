@@ -67,3 +67,46 @@ TEST_CASE("--html into a folder that does not exist: one clear line, exit 2, no 
   CHECK(has(run.err, "does not exist"));
   CHECK_FALSE(fs::exists(page));
 }
+
+TEST_CASE("stock list --html: every lot on the day, the alpha chart, totals, the caution box and the demo marker") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "cold-store.html";
+  const auto run = run_cli({"--catalog", "demo", "--catalog", fixture("csv-out-catalog.json"), "stock", "list",
+                            fixture("csv-out-stock.json"), "--on", "2026-03-02", "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  CHECK(has(run.out, "Per variety:"));  // the text list is printed as without --html
+  const std::string html = slurp(page);
+  // Hand arithmetic (as in csv_output_test): 10 % x exp(-(-ln 0.70 / 180) x 0.25 x 60) = 9.707 %,
+  // 97.07 % of the certificate left, 521 days until below 75 %; 1 kg on hand.
+  CHECK(has(html, "data-json=\"/lots/0/alpha_today\">9.71 %</td>"));
+  CHECK(has(html, "data-json=\"/lots/0/remaining\" data-scale=\"100\">97 %</td>"));
+  CHECK(has(html, "data-json=\"/lots/0/days_until_stale\">521 days</td>"));
+  CHECK(has(html, "data-json=\"/lots/0/on_hand_g\" data-scale=\"0.001\">1.00 kg</td>"));
+  CHECK(has(html, "Q-1, &quot;A&quot;"));
+  CHECK(has(html, "<title id=\"alpha-t\">"));
+  // Totals: 1000 g + 250 g = 1.25 kg over both varieties, as a checked sum.
+  CHECK(has(html, "data-sum=\"yes\">1.25 kg</td>"));
+  const auto box = html.find("<section class=\"caution\">");
+  REQUIRE(box != std::string::npos);
+  CHECK(html.find("toxic to dogs", box) != std::string::npos);
+  // The catalogs named on the command line include the shipped demo one, marked as invented.
+  CHECK(has(html, "invented demo data"));
+  CHECK(has(html, "stock: " + fixture("csv-out-stock.json")));
+  CHECK_FALSE(has(html, "<script"));
+}
+
+TEST_CASE("stock list --html with a data folder of our own: no demo marker") {
+  const bine::test::TempDir dir;
+  fs::create_directories(dir.path() / "data" / "catalog");
+  fs::copy_file(std::string(BINE_SOURCE_DATA_DIR) + "/lexicon.json", dir.path() / "data" / "lexicon.json");
+  fs::copy_file(fixture("csv-out-catalog.json"), dir.path() / "data" / "catalog" / "mine.json");
+  const fs::path page = dir.path() / "cold-store.html";
+  const auto run = run_cli({"--data", (dir.path() / "data").string(), "stock", "list", fixture("csv-out-stock.json"),
+                            "--on", "2026-03-02", "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const std::string html = slurp(page);
+  CHECK(has(html, "csv output fixtures (invented for tests)"));
+  CHECK_FALSE(has(html, "invented demo data"));
+}

@@ -108,3 +108,96 @@ TEST_CASE("rebalance: late hops that alone exceed the total are infeasible, exit
   CHECK(result.status == 3);
   CHECK(result.err.find("cut the whirlpool amounts") != std::string::npos);
 }
+
+namespace {
+/// Tinseth IBU of `grams` whole hops at `alpha` % in 20 L at 1.050 after 60 min:
+/// 1.65 x 0.000125^0.050 x (1 - e^-2.4) / 4.15 x alpha / 100 x grams x 1000 / 20 (docs/methods.md#tinseth).
+double tinseth_60(double grams, double alpha) {
+  return 1.65 * std::pow(0.000125, 0.050) * (1.0 - std::exp(-2.4)) / 4.15 * alpha / 100.0 * grams * 1000.0 / 20.0;
+}
+}  // namespace
+
+TEST_CASE("rebalance intervals: a catalog midpoint spans its range, a given lot the certificate tolerance") {
+  // tests/fixtures/iv-catalog-alpha.json: 30 g of Fixture Bitter (catalog alpha 6.0-8.0 %, midpoint
+  // 7.0 %) for 60 min, no alpha in the recipe. IBU is linear in alpha and the range is read as a 90 %
+  // range (sd = (8 - 6) / (2 x 1.6449), docs/methods.md#ibu-intervals), so the interval is the IBU at
+  // the range ends: 24.218 x 6/7 = 20.758 and 24.218 x 8/7 = 27.678 (hand arithmetic). The lot given
+  // as 9.5 % takes 30 x 7 / 9.5 = 22.105 g, weighed 22.1 g: 24.212 IBU, +-5 % (the default certificate
+  // tolerance, read as a 90 % range): 23.001-25.422.
+  const auto result = with_catalog(
+      {"rebalance", "--json", fixture("iv-catalog-alpha.json"), "--lot", "Fixture Bitter=9.5%", "--on", "2026-12-01"});
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  const auto& a = json["additions"][0];
+  const double before = tinseth_60(30.0, 7.0);
+  CHECK(a["ibu_before"].get<double>() == doctest::Approx(before).epsilon(1e-4));
+  CHECK(a["ibu_before_low"].get<double>() == doctest::Approx(before * 6.0 / 7.0).epsilon(1e-4));
+  CHECK(a["ibu_before_high"].get<double>() == doctest::Approx(before * 8.0 / 7.0).epsilon(1e-4));
+  CHECK(json["total_ibu_before_low"].get<double>() == doctest::Approx(20.758).epsilon(1e-4));
+  CHECK(json["total_ibu_before_high"].get<double>() == doctest::Approx(27.678).epsilon(1e-4));
+  const double after = tinseth_60(22.1, 9.5);
+  CHECK(a["ibu_after_low"].get<double>() == doctest::Approx(after * 0.95).epsilon(1e-4));
+  CHECK(a["ibu_after_high"].get<double>() == doctest::Approx(after * 1.05).epsilon(1e-4));
+  CHECK(json["interval"]["monte_carlo"] == false);
+  // Text: the range is 7 IBU wide, so its ends are whole IBU (ibu_with_interval); the lot's 2.4 IBU
+  // wide interval keeps one decimal.
+  const auto text = with_catalog(
+      {"rebalance", fixture("iv-catalog-alpha.json"), "--lot", "Fixture Bitter=9.5%", "--on", "2026-12-01"});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("24.2 IBU (21-28)") != std::string::npos);
+  CHECK(text.out.find("24.2 IBU (23.0-25.4)") != std::string::npos);
+  CHECK(text.out.find("90 % interval from the alpha's catalog range or certificate tolerance; exact") !=
+        std::string::npos);
+}
+
+TEST_CASE("rebalance --stock --json: every IBU figure lies within its interval, aged lots by seeded draws") {
+  const auto result = with_catalog(
+      {"rebalance", "--json", fixture("h3-rebalance.json"), "--stock", fixture("h3-stock.json"), "--on", "2026-12-01"});
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  // Each figure against its own interval (ibu_low <= ibu <= ibu_high); a dry hop gives 0 IBU, 0-0.
+  for (const auto& a : json["additions"])
+    for (const char* key : {"ibu_before", "ibu_after"}) {
+      const std::string k(key);
+      CHECK(a[k + "_low"].get<double>() <= a[k].get<double>());
+      CHECK(a[k].get<double>() <= a[k + "_high"].get<double>());
+    }
+  for (const char* key : {"total_ibu_before", "total_ibu_after"}) {
+    const std::string k(key);
+    CHECK(json[k + "_low"].get<double>() < json[k].get<double>());
+    CHECK(json[k].get<double>() < json[k + "_high"].get<double>());
+  }
+  // The lots are aged over a stability range: drawn, not exact.
+  CHECK(json["interval"]["monte_carlo"] == true);
+  // Same inputs, same intervals (fixed seed).
+  const auto again = with_catalog(
+      {"rebalance", "--json", fixture("h3-rebalance.json"), "--stock", fixture("h3-stock.json"), "--on", "2026-12-01"});
+  CHECK(again.out == result.out);
+}
+
+TEST_CASE("rebalance with a brewhouse profile: the factor applied, and its t interval around every IBU") {
+  // tests/fixtures/iv-brewhouse.json: factor 0.9, standard error 0.02, 9 degrees of freedom. 28 g at 10 %
+  // (h3-single-boil.json) gives 32.293 IBU without it (ibu_cli_test), x 0.9 = 29.064 IBU. With the
+  // alpha known exactly (--alpha-tolerance 0%), IBU is proportional to f = 0.9 + 0.02 T(9), so the
+  // 5 % and 95 % points are 29.064 x (1 -+ 1.8331 x 0.02 / 0.9) = 27.880-30.248 (hand arithmetic,
+  // scipy.stats.t.ppf(0.95, 9) = 1.8331129); the draws are within 0.4 % of those.
+  const auto result =
+      with_catalog({"rebalance", "--json", fixture("h3-single-boil.json"), "--lot", "Fixture Bitter=10%", "--on",
+                    "2026-12-01", "--brewhouse", fixture("iv-brewhouse.json"), "--alpha-tolerance", "0%"});
+  INFO(result.err);
+  REQUIRE(result.status == 0);
+  const auto json = nlohmann::json::parse(result.out);
+  const double ibu = tinseth_60(28.0, 10.0) * 0.9;
+  const double half = ibu * 1.8331129326536335 * 0.02 / 0.9;
+  CHECK(json["total_ibu_after"].get<double>() == doctest::Approx(ibu).epsilon(1e-4));
+  CHECK(json["total_ibu_after_low"].get<double>() == doctest::Approx(ibu - half).epsilon(4e-3));
+  CHECK(json["total_ibu_after_high"].get<double>() == doctest::Approx(ibu + half).epsilon(4e-3));
+  CHECK(json["total_ibu_before_low"].get<double>() == doctest::Approx(ibu - half).epsilon(4e-3));
+  CHECK(json["brewhouse"]["file"] == fixture("iv-brewhouse.json"));
+  const auto text = with_catalog({"rebalance", fixture("h3-single-boil.json"), "--lot", "Fixture Bitter=10%", "--on",
+                                  "2026-12-01", "--brewhouse", fixture("iv-brewhouse.json")});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("certificate tolerance and the brewhouse factor; 10^4 seeded draws") != std::string::npos);
+}

@@ -4,6 +4,7 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -291,4 +292,88 @@ TEST_CASE("stock: bad input names the option and value") {
   const auto missing = run_cli({"stock", "list", (stock.dir.path() / "none.json").string()});
   CHECK(missing.status == 2);
   CHECK(missing.err.find("none.json: file not found") != std::string::npos);
+}
+
+TEST_CASE("stock receive --from a CSV: every row one lot, in one journal entry, quoted codes and decimal commas") {
+  ScratchStock stock;
+  const auto receive = run_cli({"stock", "--stock", stock.path(), "receive", "--from",
+                                fixture("receipts/certificates.csv"), "--stored", "-2 C,vacuum"});
+  INFO(receive.err);
+  REQUIRE(receive.status == 0);
+  const json document = stock.document();
+  REQUIRE(document["lots"].size() == 5);  // 3 in the fixture stock + 2 rows
+  const json& first = document["lots"][3];
+  CHECK(first["lot"] == "CR-1, \"a\"");
+  CHECK(first["variety"] == "Fernlight, \"new\"");
+  CHECK(first["alpha_acid"] == 9.5);    // "9,5": a decimal comma
+  CHECK(first["on_hand"] == "1500 g");  // "1,5" kg = 1.5 x 1000 g (exact unit definition)
+  CHECK(first["hsi"] == 0.28);
+  CHECK(first["storage"]["package"] == "vacuum");  // from --stored: the CSV has no storage column
+  CHECK(document["lots"][4]["form"] == "whole");
+  const auto journal = stock.journal();
+  REQUIRE(journal.size() == 1);
+  CHECK(journal[0]["changes"].size() == 2);
+  CHECK(journal[0]["reason"] == "from " + fixture("receipts/certificates.csv"));
+  // One undo takes the whole file's lots out again.
+  REQUIRE(run_cli({"stock", "--stock", stock.path(), "undo"}).status == 0);
+  CHECK(stock.document()["lots"].size() == 3);
+}
+
+TEST_CASE("stock receive --from a CSV with bad rows: nothing written, each problem named by file, line and value") {
+  ScratchStock stock;
+  const std::string before = slurp(stock.file);
+  const std::string file = fixture("receipts/certificates-bad.csv");
+  const auto receive =
+      run_cli({"stock", "--stock", stock.path(), "receive", "--from", file, "--stored", "-2 C,vacuum"});
+  CHECK(receive.status == 2);
+  CHECK(slurp(stock.file) == before);
+  CHECK_FALSE(std::filesystem::exists(stock.file.string() + ".journal"));
+  // Line 3, column 3 holds "6.1x"; line 4 has no amount and a lot code already in the stock.
+  CHECK(receive.err.find(file + ": line 3, column 3 (\"Alpha (%)\"): \"6.1x\"") != std::string::npos);
+  CHECK(receive.err.find(file + ": line 4: \"Brackenmoor\": no amount") != std::string::npos);
+  CHECK(receive.err.find(file + ": line 4: lot \"FL-1\": already in " + stock.path() + " as lot 1") !=
+        std::string::npos);
+  CHECK(std::count(receive.err.begin(), receive.err.end(), '\n') == 3);  // one line per problem
+}
+
+TEST_CASE("stock receive --from a stock file (JSON): its own storage kept, --stored for the others, or refused") {
+  ScratchStock stock;
+  const std::string file = fixture("receipts/lots.json");
+  const auto refused = run_cli({"stock", "--stock", stock.path(), "receive", "--from", file});
+  CHECK(refused.status == 2);
+  CHECK(refused.err.find(file + ": /lots/1: no storage (expected --stored") != std::string::npos);
+  CHECK(stock.document()["lots"].size() == 3);
+  const auto receive = run_cli({"stock", "--stock", stock.path(), "receive", "--from", file, "--stored", "-2 C,open"});
+  INFO(receive.err);
+  REQUIRE(receive.status == 0);
+  const json document = stock.document();
+  REQUIRE(document["lots"].size() == 5);
+  CHECK(document["lots"][3]["storage"]["package"] == "sealed");
+  CHECK(document["lots"][4]["storage"]["package"] == "open");
+  // 3 lb = 3 x 453.59237 g = 1360.78 g (exact pound definition), stored to 0.01 g.
+  CHECK(document["lots"][4]["on_hand"] == "1360.78 g");
+  const auto both = run_cli({"stock", "--stock", stock.path(), "receive", "--from", file, "--lot", "X-1"});
+  CHECK(both.status == 2);
+  CHECK(both.err ==
+        "bine: error: --lot: not with --from " + file + " (the file gives every lot; expected one or the other)\n");
+}
+
+TEST_CASE("stock receive --from: a file whose every row is bad still names each cell, and a code twice is named") {
+  ScratchStock stock;
+  const auto only_bad = stock.dir.path() / "only-bad.csv";
+  write(only_bad, "Lot,Variety,Alpha (%),Amount (kg),Packaged\nB-1,Fernlight,lots,1,2026-02-01\n");
+  const auto bad =
+      run_cli({"stock", "--stock", stock.path(), "receive", "--from", only_bad.string(), "--stored", "-2 C,vacuum"});
+  CHECK(bad.status == 2);
+  CHECK(bad.err.find(only_bad.string() + ": line 2, column 3 (\"Alpha (%)\"): \"lots\"") != std::string::npos);
+  const auto twice = stock.dir.path() / "twice.csv";
+  write(twice,
+        "Lot,Variety,Alpha (%),Amount (kg),Packaged\nT-1,Fernlight,9,1,2026-02-01\nt-1,Fernlight,9,1,2026-02-01\n");
+  const auto again =
+      run_cli({"stock", "--stock", stock.path(), "receive", "--from", twice.string(), "--stored", "-2 C,vacuum"});
+  CHECK(again.status == 2);
+  CHECK(again.err == "bine: error: " + twice.string() +
+                         ": line 3: lot \"t-1\": already at line 2 of this file (expected a new lot code; to correct "
+                         "an amount use stock adjust)\n");
+  CHECK(stock.document()["lots"].size() == 3);
 }

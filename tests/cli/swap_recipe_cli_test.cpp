@@ -7,6 +7,7 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <cstdlib>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -106,4 +107,83 @@ TEST_CASE("swap --pick, --pair and --write need --recipe, and --pick and --pair 
                               fixture("r10-swap-recipe.json")});
   CHECK(other.status == 2);
   CHECK(other.err.find("r10-swap-recipe.json: /hops: the recipe does not use Fixture Far") != std::string::npos);
+}
+
+TEST_CASE("swap --recipe --brewhouse: the profile's factor 0.9 on every IBU, and the output names it") {
+  // tests/fixtures/iv-brewhouse.json: one factor, 0.9. The charge (20 g at 13 %, 60 min, pellets) gives
+  // tinseth(20, 13, 60) = 32.98 IBU as written; with the profile 0.9 x that (hand arithmetic), and so
+  // does every other figure, since the factor multiplies every addition's utilization.
+  const std::string profile = fixture("iv-brewhouse.json");
+  const auto plain = swap({"--json"});
+  const auto with = swap({"--json", "--brewhouse", profile});
+  INFO(with.err);
+  REQUIRE(plain.status == 0);
+  REQUIRE(with.status == 0);
+  const json a = json::parse(plain.out)["recipe_swap"];
+  const json b = json::parse(with.out)["recipe_swap"];
+  CHECK(a["additions"][0]["ibu_before"].get<double>() == doctest::Approx(tinseth(20.0, 13.0, 60.0)).epsilon(1e-4));
+  CHECK(b["additions"][0]["ibu_before"].get<double>() ==
+        doctest::Approx(0.9 * tinseth(20.0, 13.0, 60.0)).epsilon(1e-4));
+  CHECK(b["additions"][1]["ibu_before"].get<double>() ==
+        doctest::Approx(0.9 * tinseth(30.0, 7.0, stand_minutes())).epsilon(1e-4));
+  CHECK(b["total_ibu_before"].get<double>() ==
+        doctest::Approx(0.9 * a["total_ibu_before"].get<double>()).epsilon(1e-4));
+  CHECK(b["total_ibu_after"].get<double>() == doctest::Approx(0.9 * a["total_ibu_after"].get<double>()).epsilon(3e-3));
+  CHECK(a["brewhouse"].is_null());
+  CHECK(b["brewhouse"]["file"] == profile);
+  CHECK(b["brewhouse"]["factor"]["value"].get<double>() == 0.9);
+  const auto text = swap({"--brewhouse", profile});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("Brewhouse profile " + profile + " (fitted 2026-06-01 on 10 batches): factor 0.900") !=
+        std::string::npos);
+  // BINE_BREWHOUSE names the same profile when --brewhouse is not given.
+  ::setenv("BINE_BREWHOUSE", profile.c_str(), 1);
+  const auto from_env = swap({"--json"});
+  ::unsetenv("BINE_BREWHOUSE");
+  REQUIRE(from_env.status == 0);
+  CHECK(json::parse(from_env.out)["recipe_swap"]["brewhouse"]["file"] == profile);
+  CHECK(from_env.out == with.out);
+}
+
+TEST_CASE("swap --recipe: a missing or bad brewhouse profile is one error line naming the file, exit 2") {
+  const auto missing = swap({"--brewhouse", fixture("iv-no-such-profile.json")});
+  CHECK(missing.status == 2);
+  CHECK(missing.err == "bine: error: " + fixture("iv-no-such-profile.json") +
+                           ": file not found (the brewhouse profile, --brewhouse)\n");
+  const auto bad = swap({"--brewhouse", fixture("iv-brewhouse-bad.json")});
+  CHECK(bad.status == 2);
+  CHECK(bad.err == "bine: error: " + fixture("iv-brewhouse-bad.json") +
+                       ": /model: \"bitterest\" is not a model (expected tinseth or rager) (the brewhouse profile, "
+                       "--brewhouse)\n");
+  CHECK(bad.out.empty());
+  // Without --recipe no IBU is computed: the profile options are refused, BINE_BREWHOUSE is not read.
+  const auto alone = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Lost", "--brewhouse",
+                              fixture("iv-brewhouse.json")});
+  CHECK(alone.status == 2);
+  CHECK(alone.err.find("--brewhouse/--alpha-tolerance: only with --recipe FILE") != std::string::npos);
+  ::setenv("BINE_BREWHOUSE", fixture("iv-no-such-profile.json").c_str(), 1);
+  const auto listed = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Lost"});
+  ::unsetenv("BINE_BREWHOUSE");
+  CHECK(listed.status == 0);
+}
+
+TEST_CASE("swap --recipe: the IBU it holds with 90 % intervals, a catalog substitute over its alpha range") {
+  // Fixture Standin from the catalog: alpha 9.0-11.0 %, midpoint 10 %. Its whirlpool part (22.5 g, see
+  // the first case) is linear in alpha, so its interval is that IBU x 9/10 to x 11/10; the recipe's
+  // own whirlpool, 30 g at 7 % as written, is +-5 % (the certificate tolerance) around its IBU
+  // (docs/methods.md#ibu-intervals; hand arithmetic).
+  const auto run = swap({"--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json doc = json::parse(run.out)["recipe_swap"];
+  const json& whirlpool = doc["additions"][1];
+  const double after = tinseth(22.5, 10.0, stand_minutes());
+  CHECK(whirlpool["ibu_after_low"].get<double>() == doctest::Approx(after * 0.9).epsilon(1e-4));
+  CHECK(whirlpool["ibu_after_high"].get<double>() == doctest::Approx(after * 1.1).epsilon(1e-4));
+  const double before = tinseth(30.0, 7.0, stand_minutes());
+  CHECK(whirlpool["ibu_before_low"].get<double>() == doctest::Approx(before * 0.95).epsilon(1e-4));
+  CHECK(whirlpool["ibu_before_high"].get<double>() == doctest::Approx(before * 1.05).epsilon(1e-4));
+  CHECK(doc["total_ibu_after_low"].get<double>() < doc["total_ibu_after"].get<double>());
+  CHECK(doc["total_ibu_after"].get<double>() < doc["total_ibu_after_high"].get<double>());
+  CHECK(doc["interval"]["monte_carlo"] == false);
 }

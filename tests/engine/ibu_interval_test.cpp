@@ -80,3 +80,50 @@ TEST_CASE("a catalog range read as a 90 % range gives back that range for one ad
   CHECK(result.total.low == doctest::Approx(30.0).epsilon(1e-9));
   CHECK(result.total.high == doctest::Approx(36.0).epsilon(1e-9));
 }
+
+TEST_CASE("subtotals: the exact interval of a sum over some terms, and the same subset by the draws") {
+  // 2.5 x A1 + 0.8 x A2 + 1.0 x A3 with A3 ~ N(5, 0.5); the subtotal of terms 0 and 1 is the first
+  // case's sum, 35.6 -+ 1.6449 x 1.10924 (hand arithmetic above); the subtotal of term 2 alone is
+  // 5 -+ 1.6449 x 0.5.
+  const std::vector<AdditionUncertainty> additions{addition(2.5, 12.0, 0.4), addition(0.8, 7.0, 0.6),
+                                                   addition(1.0, 5.0, 0.5)};
+  const auto exact = bine::ibu_intervals(additions, {}, false, {{0, 1}, {2}, {}});
+  REQUIRE(exact.subtotals.size() == 3);
+  const double sd = std::sqrt(1.0 + 0.48 * 0.48);
+  CHECK(exact.subtotals[0].low == doctest::Approx(35.6 - kZ95 * sd).epsilon(1e-12));
+  CHECK(exact.subtotals[0].high == doctest::Approx(35.6 + kZ95 * sd).epsilon(1e-12));
+  CHECK(exact.subtotals[1].low == doctest::Approx(5.0 - kZ95 * 0.5).epsilon(1e-12));
+  CHECK(exact.subtotals[2].low == 0.0);  // an empty sum is 0 IBU, known exactly
+  CHECK(exact.subtotals[2].high == 0.0);
+  const auto drawn = bine::ibu_intervals(additions, {}, true, {{0, 1}});
+  CHECK(std::abs(drawn.subtotals[0].low - exact.subtotals[0].low) < 0.1 * sd);  // 0.1 sd: see the first case
+  CHECK(std::abs(drawn.subtotals[0].high - exact.subtotals[0].high) < 0.1 * sd);
+}
+
+TEST_CASE("an aged term: the certificate's alpha before ageing, its tolerance around that, the ageing drawn") {
+  // 20 IBU from 8.834 % in the kettle, aged from a certificate at stability 80 % over an exposure of
+  // 100 days: left = exp(-ln(100/80)/180 x 100) = 0.88340, so the certificate said 8.834 / 0.88340
+  // = 10.000 % (Garetz 1994; hand arithmetic), and 5 % of it read as a 90 % range gives sd
+  // (10.5 - 9.5) / (2 x 1.6449) = 0.30397. IBU per % alpha in the kettle: 20 / 8.834 = 2.2640.
+  const double left = std::exp(-std::log(100.0 / 80.0) / 180.0 * 100.0);
+  bine::IbuTerm term;
+  term.ibu = 20.0;
+  term.alpha_percent = 10.0 * left;
+  term.origin.ageing = bine::AgeingUncertainty{80.0, 7.5, 100.0};
+  const AdditionUncertainty a = bine::addition_uncertainty(term, 5.0);
+  CHECK(a.alpha_percent == doctest::Approx(10.0).epsilon(1e-12));
+  CHECK(a.alpha_sd == doctest::Approx(1.0 / (2.0 * kZ95)).epsilon(1e-9));
+  CHECK(a.ibu_per_alpha == doctest::Approx(20.0 / (10.0 * left)).epsilon(1e-12));
+  CHECK(a.ageing.has_value());
+  // Its interval holds the 20 IBU it stands for, and is drawn.
+  const auto result = bine::ibu_intervals({a}, {});
+  CHECK(result.monte_carlo);
+  CHECK(result.aged);
+  CHECK(result.total.low < 20.0);
+  CHECK(result.total.high > 20.0);
+  // A catalog term: the range's ends, whatever the tolerance (sd from the range, the first case).
+  bine::IbuTerm catalog{33.0, 11.0, {std::make_pair(10.0, 12.0), std::nullopt}, false};
+  const auto ranged = bine::ibu_intervals({bine::addition_uncertainty(catalog, 25.0)}, {});
+  CHECK(ranged.total.low == doctest::Approx(30.0).epsilon(1e-9));
+  CHECK(ranged.total.high == doctest::Approx(36.0).epsilon(1e-9));
+}
