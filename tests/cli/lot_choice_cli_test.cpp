@@ -207,3 +207,117 @@ TEST_CASE("rebalance never says the stock covers every addition when an addition
       {"rebalance", fixture("lots-15g.json"), "--stock", fixture("lots-stock.json"), "--on", "2026-12-01"});
   CHECK(covered.out.find("Stock covers every addition.") != std::string::npos);
 }
+
+namespace {
+
+/// KEY_low <= KEY <= KEY_high in `object` (put_interval's keys).
+void check_within(const nlohmann::json& object, const std::string& key) {
+  INFO(key, " in ", object.dump());
+  REQUIRE(object.contains(key + "_low"));
+  REQUIRE(object.contains(key + "_high"));
+  CHECK(object[key + "_low"].get<double>() <= object[key].get<double>());
+  CHECK(object[key].get<double>() <= object[key + "_high"].get<double>());
+}
+
+}  // namespace
+
+TEST_CASE("rebalance --stock: a split addition has a 90 % interval on each part, on its parts together and the total") {
+  // Exact case (no lot is aged, no brewhouse profile: every interval is mean +- 1.6449 sd,
+  // docs/methods.md#ibu-intervals). 40 g at 8.0 % split as above: FB-OLD 20 g at 8.0 %, FB-NEW 16 g
+  // at 10.0 %. Part 1 by hand (Tinseth):
+  //   B(1.050) = 1.65 x 0.000125^0.05 = 1.65 x exp(0.05 x ln 0.000125) = 1.65 x exp(0.05 x -8.987197)
+  //            = 1.65 x exp(-0.449360) = 1.65 x 0.638036 = 1.052759
+  //   F(60)    = (1 - e^(-2.4)) / 4.15 = (1 - 0.090718) / 4.15 = 0.219104
+  //   mg/L     = 0.080 x 20 g x 1000 / 20 L = 80 (whole hops: no pellet factor)
+  //   IBU      = 1.052759 x 0.219104 x 80 = 18.4531
+  // Part 2: 0.100 x 16 g x 1000 / 20 L = 80 mg/L too, so 18.4531 IBU; together 36.9062 IBU.
+  // Each part's lot alpha is a certificate within the default 5 % tolerance read as its 90 % range, so
+  // its interval is its IBU x (1 -+ 0.05): 17.530-19.376 IBU. The parts are separate lots, independent:
+  // together 36.9062 +- 1.6449 x sqrt(2) x (0.05 x 18.4531 / 1.6449) = 36.9062 +- 1.3048 = 35.601-38.211.
+  // As written the addition is one alpha, 8.0 % within 5 %: 36.9062 x (1 -+ 0.05) = 35.061-38.752, and
+  // each part half of it (17.530-19.376).
+  const auto json = rebalance_json("lots-40g.json", "lots-stock.json");
+  const auto& rows = json["additions"];
+  REQUIRE(rows.size() == 2);
+  const double part = tinseth_60(20.0, 8.0);
+  CHECK(part == doctest::Approx(18.4531).epsilon(1e-5));
+  for (const auto& row : rows) {
+    check_within(row, "ibu_before");
+    check_within(row, "ibu_after");
+    CHECK(row["ibu_after"].get<double>() == doctest::Approx(part).epsilon(1e-4));
+    CHECK(row["ibu_after_low"].get<double>() == doctest::Approx(0.95 * part).epsilon(1e-4));
+    CHECK(row["ibu_after_high"].get<double>() == doctest::Approx(1.05 * part).epsilon(1e-4));
+    CHECK(row["ibu_before_low"].get<double>() == doctest::Approx(0.95 * part).epsilon(1e-4));
+    CHECK(row["ibu_before_high"].get<double>() == doctest::Approx(1.05 * part).epsilon(1e-4));
+  }
+  REQUIRE(json["split_additions"].size() == 1);
+  const auto& split = json["split_additions"][0];
+  CHECK(split["index"] == 1);
+  CHECK(split["parts"] == 2);
+  check_within(split, "ibu_before");
+  check_within(split, "ibu_after");
+  check_within(json, "total_ibu_before");
+  check_within(json, "total_ibu_after");
+  // The central value together is the sum of the parts (JSON rounds each to 0.001).
+  CHECK(split["ibu_after"].get<double>() ==
+        doctest::Approx(rows[0]["ibu_after"].get<double>() + rows[1]["ibu_after"].get<double>()).epsilon(1e-4));
+  CHECK(split["ibu_before"].get<double>() ==
+        doctest::Approx(rows[0]["ibu_before"].get<double>() + rows[1]["ibu_before"].get<double>()).epsilon(1e-4));
+  CHECK(split["ibu_after"].get<double>() == doctest::Approx(2.0 * part).epsilon(1e-4));
+  const double together = 0.05 * part * std::sqrt(2.0);  // 1.6449 x sqrt(2 sd^2), sd = 0.05 x part / 1.6449
+  CHECK(split["ibu_after_low"].get<double>() == doctest::Approx(2.0 * part - together).epsilon(1e-4));
+  CHECK(split["ibu_after_high"].get<double>() == doctest::Approx(2.0 * part + together).epsilon(1e-4));
+  CHECK(split["ibu_before_low"].get<double>() == doctest::Approx(0.95 * 2.0 * part).epsilon(1e-4));
+  CHECK(split["ibu_before_high"].get<double>() == doctest::Approx(1.05 * 2.0 * part).epsilon(1e-4));
+  // One addition only: the recipe's total is the addition's.
+  CHECK(json["total_ibu_after_low"] == split["ibu_after_low"]);
+  CHECK(json["total_ibu_after_high"] == split["ibu_after_high"]);
+  CHECK(json["total_ibu_before_low"] == split["ibu_before_low"]);
+  CHECK(json["interval"]["monte_carlo"] == false);
+  // The text gives each part's interval and the parts' together (ibu_with_interval: 1 decimal).
+  const auto text = with_catalog(
+      {"rebalance", fixture("lots-40g.json"), "--stock", fixture("lots-stock.json"), "--on", "2026-12-01"});
+  REQUIRE(text.status == 0);
+  CHECK(text.out.find("18.5 IBU (17.5-19.4)  holds its IBU  FB-OLD, part 1 of 2 of addition 1") != std::string::npos);
+  CHECK(text.out.find("18.5 IBU (17.5-19.4)  holds its IBU  FB-NEW, part 2 of 2 of addition 1") != std::string::npos);
+  CHECK(text.out.find("together 36.9 IBU (35.1-38.8) as written, 36.9 IBU (35.6-38.2) rebalanced") !=
+        std::string::npos);
+  CHECK(text.out.find("Stock covers every addition.") != std::string::npos);
+
+  // Aged case: lots-aged-stock.json has FB-NEW (10.0 %, packaged 2026-10-01) stored open at 20 C. On
+  // 2026-12-01, 61 days: Garetz, k = ln(100 / 50) / 180 per day (stability 50), TF = 1 at 20 C, SF = 1
+  // open, so 2^(-61 / 180) = 0.79062 is left: 7.906 %, recorded 7.91 %. FB-OLD (unaged, 20 g at 8.0 %)
+  // is still taken first and gives part 1 as above; part 2 is 160 g.% / 7.91 % = 20.23 g, weighed 20.2 g.
+  // Its interval carries the stability range of its ageing besides the tolerance, so by seeded draws
+  // it is wider than a certificate's 10 % of the IBU; the parts together and the total are sums over
+  // the same draws, so for this one-addition recipe they are the same interval.
+  const auto aged = rebalance_json("lots-40g.json", "lots-aged-stock.json");
+  const auto& aged_rows = aged["additions"];
+  REQUIRE(aged_rows.size() == 2);
+  CHECK(aged_rows[0]["lot"] == "FB-OLD");
+  CHECK(aged_rows[1]["lot"] == "FB-NEW");
+  CHECK(aged_rows[1]["alpha_after"].get<double>() == doctest::Approx(7.91));
+  CHECK(aged_rows[1]["grams_after"].get<double>() == doctest::Approx(20.2));
+  for (const auto& row : aged_rows) {
+    check_within(row, "ibu_before");
+    check_within(row, "ibu_after");
+  }
+  CHECK(aged_rows[1]["ibu_after"].get<double>() == doctest::Approx(tinseth_60(20.2, 7.91)).epsilon(1e-4));
+  // Part 1 by the draws against its exact 17.530-19.376 IBU: within 0.1 sd (sd = 0.9227 / 1.6449 =
+  // 0.561 IBU) as docs/methods.md#ibu-intervals says the draws agree on a linear term.
+  CHECK(aged_rows[0]["ibu_after_low"].get<double>() == doctest::Approx(0.95 * part).epsilon(0.056 / 17.530));
+  CHECK(aged_rows[0]["ibu_after_high"].get<double>() == doctest::Approx(1.05 * part).epsilon(0.056 / 19.376));
+  const double aged_width = aged_rows[1]["ibu_after_high"].get<double>() - aged_rows[1]["ibu_after_low"].get<double>();
+  CHECK(aged_width > 0.10 * aged_rows[1]["ibu_after"].get<double>());
+  REQUIRE(aged["split_additions"].size() == 1);
+  const auto& aged_split = aged["split_additions"][0];
+  check_within(aged_split, "ibu_before");
+  check_within(aged_split, "ibu_after");
+  check_within(aged, "total_ibu_after");
+  CHECK(
+      aged_split["ibu_after"].get<double>() ==
+      doctest::Approx(aged_rows[0]["ibu_after"].get<double>() + aged_rows[1]["ibu_after"].get<double>()).epsilon(1e-4));
+  CHECK(aged_split["ibu_after_low"] == aged["total_ibu_after_low"]);
+  CHECK(aged_split["ibu_after_high"] == aged["total_ibu_after_high"]);
+  CHECK(aged["interval"]["monte_carlo"] == true);
+}
