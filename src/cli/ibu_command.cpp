@@ -61,12 +61,17 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   const DataSet data = load_data(globals, console);
   const RecipeFile file = read_recipe_file(args.recipe, args.recipe_file);
   // The lots the recipe names, looked up in the stock (a lot-only addition takes its variety there).
+  // Their alpha, where taken from the lot, is known as the lot's (certificate, ageing) for the intervals.
   std::vector<std::string> lot_notes;
   Recipe recipe = file.recipe;
-  if (args.stock.empty())
+  std::vector<std::optional<AlphaOrigin>> lot_alpha;
+  if (args.stock.empty()) {
     require_stock_for_lot_only(recipe);
-  else
-    recipe = with_named_lots(recipe, load_cellar(args.stock, data.catalog, args.cellar), lot_notes);
+  } else {
+    const Cellar cellar = load_cellar(args.stock, data.catalog, args.cellar);
+    recipe = with_named_lots(recipe, cellar, lot_notes);
+    lot_alpha = named_lot_alpha_origins(file.recipe, recipe, cellar, data.catalog);
+  }
   // 2. Compute every addition.
   RecipeBitterness bitterness = [&] {
     const auto timer = console.time("bitterness");
@@ -74,7 +79,7 @@ void run_ibu(const Console& console, const GlobalOptions& globals, const IbuArgs
   }();
   bitterness.notes.insert(bitterness.notes.begin(), lot_notes.begin(), lot_notes.end());
   bitterness.notes.insert(bitterness.notes.begin(), file.notes.begin(), file.notes.end());
-  const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance);
+  const IbuIntervals intervals = recipe_intervals(bitterness, data.catalog, args.alpha_tolerance, lot_alpha);
   // 3. Render.
   write_html(args.html, [&] {
     return ibu_html(recipe, bitterness, globals.unit_system(), page_meta(&data, args.recipe), &intervals);

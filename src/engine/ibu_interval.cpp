@@ -244,8 +244,16 @@ IbuIntervals term_intervals(const std::vector<IbuTerm>& terms, const BitternessS
 }
 
 IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent) {
+  return recipe_intervals(bitterness, catalog, tolerance_percent, {});
+}
+
+IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent,
+                              const std::vector<std::optional<AlphaOrigin>>& origins) {
   std::vector<IbuTerm> terms;
-  for (const auto& line : bitterness.additions) terms.push_back(recipe_term(line, catalog));
+  for (const auto& line : bitterness.additions) {
+    terms.push_back(recipe_term(line, catalog));
+    if (line.index < origins.size() && origins[line.index]) terms.back().origin = *origins[line.index];
+  }
   return term_intervals(terms, bitterness.settings, tolerance_percent);
 }
 

@@ -101,6 +101,10 @@ IbuIntervals term_intervals(const std::vector<IbuTerm>& terms, const BitternessS
 /// The intervals of every addition and the total of a recipe's bitterness (bine ibu): catalog
 /// midpoints over the variety's catalog range in `catalog`.
 IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent);
+/// The same, where `origins[i]` (when given) says how recipe.hops[i]'s alpha is known instead (a stock
+/// lot the recipe names, its alpha on the brew day: engine/lot_allocation.hpp named_lot_alpha_origins).
+IbuIntervals recipe_intervals(const RecipeBitterness& bitterness, const Catalog& catalog, double tolerance_percent,
+                              const std::vector<std::optional<AlphaOrigin>>& origins);
 
 /// A normal standard deviation from a range read as a 90 % range: (max - min) / (2 x 1.6449).
 double sd_from_90_range(double min, double max);

@@ -17,6 +17,7 @@
 #include <cmath>
 #include <limits>
 
+#include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
 
@@ -155,6 +156,18 @@ Recipe with_named_lots(const Recipe& recipe, const Cellar& cellar, std::vector<s
                                 hop.variety, c->code, *hop.alpha_acid, format_date(cellar.on)));
   }
   return out;
+}
+
+std::vector<std::optional<AlphaOrigin>> named_lot_alpha_origins(const Recipe& as_read, const Recipe& recipe,
+                                                                const Cellar& cellar, const Catalog& catalog) {
+  std::vector<std::optional<AlphaOrigin>> origins(recipe.hops.size());
+  for (std::size_t h = 0; h < recipe.hops.size() && h < as_read.hops.size(); ++h) {
+    const HopAddition& hop = recipe.hops[h];
+    if (hop.lot.empty() || as_read.hops[h].alpha_acid || !hop.alpha_acid) continue;
+    if (const CellarLot* c = cellar.find(hop.lot); c != nullptr && c->alpha_today)
+      origins[h] = lot_alpha_origin(*c, find_variety(catalog, c->lot.variety));
+  }
+  return origins;
 }
 
 void require_stock_for_lot_only(const Recipe& recipe) {

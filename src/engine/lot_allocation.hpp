@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "engine/cellar.hpp"
+#include "engine/ibu_interval.hpp"
 #include "model/hops.hpp"
 
 namespace bine {
@@ -65,6 +66,12 @@ Recipe with_lot_varieties(const Recipe& recipe, const std::vector<Lot>& lots, co
 /// The same against the cellar, and an addition without alpha acid is given its lot's alpha on the
 /// cellar's brew day (said in `notes`).
 Recipe with_named_lots(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes);
+
+/// Per addition of `recipe` (with_named_lots of `as_read`), how its alpha is known where
+/// with_named_lots took it from the addition's lot (lot_alpha_origin: a certificate, aged or not, or a
+/// catalog range); nullopt where the recipe gives its own alpha or has no lot.
+std::vector<std::optional<AlphaOrigin>> named_lot_alpha_origins(const Recipe& as_read, const Recipe& recipe,
+                                                                const Cellar& cellar, const Catalog& catalog);
 
 /// Throws InputError (remedy: give a stock file) naming every addition that gives a lot but no
 /// variety: without a stock file nothing says what it is.
