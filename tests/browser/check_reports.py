@@ -39,10 +39,15 @@ def reports(source):
     ex = os.path.join(source, "descriptor-data", "examples")
     pale, stock = os.path.join(ex, "pale-ale.json"), os.path.join(ex, "stock.json")
     hazy = os.path.join(ex, "hazy-ipa.json")
+    fixtures = os.path.join(source, "tests", "fixtures")
     return {
         "ibu": ["ibu", pale],
         "ibu-hazy": ["ibu", hazy],
         "rebalance": ["rebalance", pale, "--stock", stock, "--on", "2026-12-01"],
+        # an addition split across two lots (one aged): each part and the parts together with intervals
+        "rebalance-split": ["--catalog", os.path.join(fixtures, "h3-catalog.json"), "rebalance",
+                            os.path.join(fixtures, "lots-40g.json"), "--stock",
+                            os.path.join(fixtures, "lots-aged-stock.json"), "--on", "2026-12-01"],
         "swap": ["swap", "Tidewell", "--stock", stock, "--on", "2026-12-01", "--pairs"],
         "swap-bittering": ["swap", "Keelstone", "--for", "bittering", "--top", "3"],
         "blend": ["blend", "--target", "floral=4,citrus=4", "--recipe", pale, "--stock", stock],
