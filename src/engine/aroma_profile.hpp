@@ -33,8 +33,7 @@ AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon);
 /// A lot's own aroma from the brewer's rub test (scores 0-5 on named axes, the rest 0), or nullopt
 /// when the lot has none. Throws InputError naming `file` and /lots/INDEX/rub_test/scores/NAME for
 /// a name that is not an axis of the lexicon (with did-you-mean).
-std::optional<AromaProfile> lot_aroma(const Lot& lot, std::size_t index, std::string_view file,
-                                      const Lexicon& lexicon);
+std::optional<AromaProfile> lot_aroma(const Lot& lot, std::size_t index, std::string_view file, const Lexicon& lexicon);
 
 /// "lot CODE: aroma from the brewer's rub test of DATE, not VARIETY's catalog profile".
 std::string rub_test_note(const Lot& lot, std::string_view code);
