@@ -5,8 +5,9 @@ For each report: bine runs once with --json and --html FILE (the same run gives 
   - the page parses as XML (xml.etree: every element closed, attributes quoted) and as HTML;
   - it holds no script and asks for nothing outside the file (no src=, no http: or https:);
   - it is under 300 kB;
-  - chromium renders it: a screenshot at 800 px wide (--screenshot, kept under the build folder
-    for review) and the DOM after rendering (--dump-dom);
+  - chromium renders it: full-page screenshots at 360 px and 800 px wide (the whole page, however
+    tall; kept under the build folder for review and for tools/docs-screenshots) and the DOM after
+    rendering (--dump-dom);
   - the rendered DOM has the report's tables, a caution box, and every number in a table cell
     or chart label that names its JSON value (data-json) matches that value of the same run
     within the rounding written on the page; every figure cell (class "num") with a digit names
@@ -45,6 +46,8 @@ def reports(source):
         "rebalance": ["rebalance", pale, "--stock", stock, "--on", "2026-12-01"],
         "swap": ["swap", "Tidewell", "--stock", stock, "--on", "2026-12-01", "--pairs"],
         "swap-bittering": ["swap", "Keelstone", "--for", "bittering", "--top", "3"],
+        "swap-bittering-stock": ["swap", "Keelstone", "--for", "bittering", "--stock", stock, "--on", "2026-12-01",
+                                 "--top", "3"],
         "blend": ["blend", "--target", "floral=4,citrus=4", "--recipe", pale, "--stock", stock],
         "age": ["age", "--alpha", "11.2", "--packaged", "2025-10-01", "--stored", "-1 C,vacuum", "--variety",
                 "Keelstone", "--on", "2026-06-01"],
@@ -172,10 +175,6 @@ def check_page(name, page, doc, chromium, out_dir, problems):
         if banned in without_svg_namespace:
             problems.append(f"{name}: holds {banned!r} (pages are one file, no script, no request)")
     url = "file://" + os.path.abspath(page)
-    shot = os.path.join(out_dir, f"{name}-800.png")
-    run = chromium_run(chromium, [f"--screenshot={shot}", "--window-size=800,1200", url])
-    if run.returncode != 0 or not os.path.exists(shot):
-        problems.append(f"{name}: chromium --screenshot failed: {run.stderr[-300:]}")
     run = chromium_run(chromium, ["--dump-dom", "--window-size=800,1200", url])
     if run.returncode != 0 or "<body" not in run.stdout:
         problems.append(f"{name}: chromium --dump-dom failed: {run.stderr[-300:]}")
@@ -204,8 +203,11 @@ def check_layout(browser, name, page, out_dir, problems, sizes):
             problems.append(f"{name} at {label}: the document is {content} px wide, wider than the {viewport} px "
                             "viewport (it scrolls sideways)")
         sizes.append(f"{name} {label}: document {content} px, viewport {viewport} px")
-        if label == "360":
-            browser.screenshot(os.path.join(out_dir, f"{name}-360.png"))
+    for width in (360, 800):
+        shot = os.path.join(out_dir, f"{name}-{width}.png")
+        browser.full_page_screenshot(url, width, shot)
+        if not os.path.exists(shot) or os.path.getsize(shot) == 0:
+            problems.append(f"{name}: no screenshot at {width} px")
 
 
 def probe_detects_overflow(browser, out_dir):
