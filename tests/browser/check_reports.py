@@ -8,6 +8,8 @@ For each report: bine runs once with --json and --html FILE (the same run gives 
   - chromium renders it: full-page screenshots at 360 px and 800 px wide (the whole page, however
     tall; kept under the build folder for review and for tools/docs-screenshots) and the DOM after
     rendering (--dump-dom);
+  - a page built from the demo catalog shows the demo-data marker; a bittering swap from stock
+    charts each lot's alpha on the brew day (tied to alpha_today_percent), not the catalog midpoint;
   - the rendered DOM has the report's tables, a caution box, and every number in a table cell
     or chart label that names its JSON value (data-json) matches that value of the same run
     within the rounding written on the page; every figure cell (class "num") with a digit names
@@ -62,7 +64,7 @@ class DomCollector(html.parser.HTMLParser):
 
     def __init__(self):
         super().__init__()
-        self.tags, self.classes, self.figures, self.unnamed = {}, set(), [], []
+        self.tags, self.classes, self.figures, self.unnamed, self.chart_figures = {}, set(), [], [], []
         self._open = []  # [tag, attrs, text]
 
     def handle_starttag(self, tag, attrs):
@@ -86,6 +88,8 @@ class DomCollector(html.parser.HTMLParser):
             name, attrs, text = self._open.pop()
             if "data-json" in attrs:
                 self.figures.append((attrs, text.strip()))
+                if name == "text":
+                    self.chart_figures.append(attrs["data-json"])
             elif name == "td" and "num" in (attrs.get("class") or "").split() and re.search(r"\d", text):
                 self.unnamed.append(text.strip())
             if name == tag:
@@ -155,6 +159,17 @@ def check_figures(name, figures, doc, problems):
     return checked
 
 
+def check_bittering_alpha(name, dom, doc, problems):
+    """A bittering swap from stock charts each charted lot's alpha on the brew day (the alpha its
+    grams per gram come from), tied to that JSON value, not the catalog midpoint."""
+    if doc.get("for") != "bittering":
+        return
+    for i, sub in enumerate(doc.get("substitutes", [])[:3]):
+        pointer = f"/substitutes/{i}/alpha_today_percent"
+        if sub.get("alpha_today_percent") is not None and pointer not in dom.chart_figures:
+            problems.append(f"{name}: the chart of substitute {i + 1} does not show its lot's alpha ({pointer})")
+
+
 def chromium_run(chromium, args, timeout=120):
     return subprocess.run([chromium, "--headless", "--no-sandbox", "--disable-gpu", "--hide-scrollbars"] + args,
                           capture_output=True, text=True, timeout=timeout)
@@ -186,6 +201,10 @@ def check_page(name, page, doc, chromium, out_dir, problems):
             problems.append(f"{name}: rendered page has no <{tag}>")
     if "caution" not in dom.classes:
         problems.append(f"{name}: no caution box")
+    # Every report here reads the shipped demo catalog: the page must say its data are invented.
+    if any(c.get("demo") for c in doc.get("catalogs_used", [])) and "demo" not in dom.classes:
+        problems.append(f"{name}: the demo catalog was used but the page has no demo-data marker")
+    check_bittering_alpha(name, dom, doc, problems)
     for text in dom.unnamed:
         problems.append(f"{name}: figure cell \"{text}\" names no JSON value")
     return check_figures(name, dom.figures, doc, problems)
