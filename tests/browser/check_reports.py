@@ -27,7 +27,6 @@ import re
 import shutil
 import subprocess
 import sys
-import tempfile
 import xml.etree.ElementTree as ET
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
@@ -38,8 +37,10 @@ MAX_BYTES = 300 * 1024
 PRINT_WIDTHS = {"A4": round((210 - 28) / 25.4 * 96), "Letter": round((215.9 - 28) / 25.4 * 96)}
 
 
-def reports(source):
-    ex = os.path.join(source, "descriptor-data", "examples")
+def reports():
+    # Paths relative to the source folder, where bine runs: the pages (and the screenshots kept
+    # in docs/) name the example files as a reader of the repository sees them.
+    ex = os.path.join("descriptor-data", "examples")
     pale, stock = os.path.join(ex, "pale-ale.json"), os.path.join(ex, "stock.json")
     hazy = os.path.join(ex, "hazy-ipa.json")
     return {
@@ -249,21 +250,20 @@ def main():
     problems, sizes, checked = [], [], 0
     env = dict(os.environ, BINE_DATA=os.path.join(source, "descriptor-data"))
     pages = {}
-    with tempfile.TemporaryDirectory() as tmp:
-        for name, args in reports(source).items():
-            page = os.path.join(out_dir, f"{name}.html")
-            run = subprocess.run([bine] + args + ["--json", "--html", page], capture_output=True, text=True,
-                                 env=env, cwd=tmp, timeout=300)
-            if run.returncode != 0:
-                problems.append(f"{name}: bine exited {run.returncode}: {run.stderr.strip()}")
-                continue
-            doc = json.loads(run.stdout)
-            n = check_page(name, page, doc, chromium, out_dir, problems)
-            if n == 0:
-                problems.append(f"{name}: no number on the page was checked against the JSON")
-            checked += n
-            pages[name] = page
-            sizes.append(f"{name}: {os.path.getsize(page)} bytes, {n} numbers checked against --json")
+    for name, args in reports().items():
+        page = os.path.join(out_dir, f"{name}.html")
+        run = subprocess.run([bine] + args + ["--json", "--html", page], capture_output=True, text=True,
+                             env=env, cwd=source, timeout=300)
+        if run.returncode != 0:
+            problems.append(f"{name}: bine exited {run.returncode}: {run.stderr.strip()}")
+            continue
+        doc = json.loads(run.stdout)
+        n = check_page(name, page, doc, chromium, out_dir, problems)
+        if n == 0:
+            problems.append(f"{name}: no number on the page was checked against the JSON")
+        checked += n
+        pages[name] = page
+        sizes.append(f"{name}: {os.path.getsize(page)} bytes, {n} numbers checked against --json")
     browser = cdp_layout.Browser(chromium)
     try:
         if not probe_detects_overflow(browser, out_dir):
