@@ -19,10 +19,38 @@ std::string_view to_string(AromaSource source) {
       return "descriptor tags";
     case AromaSource::oils:
       return "oil composition";
+    case AromaSource::rub_test:
+      return "the lot's rub test";
     case AromaSource::none:
       return "none";
   }
   return "none";
+}
+
+std::optional<AromaProfile> lot_aroma(const Lot& lot, std::size_t index, std::string_view file,
+                                      const Lexicon& lexicon) {
+  if (!lot.rub_test) return std::nullopt;
+  AromaProfile profile;
+  profile.intensity = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(lexicon.size()));
+  profile.source = AromaSource::rub_test;
+  std::vector<std::string> problems;
+  for (const auto& [name, score] : lot.rub_test->scores) {
+    const auto axis = lexicon.axis_index(name);
+    if (!axis) {
+      std::string hint = did_you_mean(name, lexicon.axis_names());
+      problems.push_back(fmt::format("{}: /lots/{}/rub_test/scores/{}: \"{}\" is not an aroma axis ({})", file, index,
+                                     name, name, hint.empty() ? "see the axes in lexicon.json" : hint));
+      continue;
+    }
+    profile.intensity[static_cast<Eigen::Index>(*axis)] = score;
+  }
+  if (!problems.empty()) throw InputError(problems);
+  return profile;
+}
+
+std::string rub_test_note(const Lot& lot, std::string_view code) {
+  return fmt::format("lot {}: aroma from the brewer's rub test of {}, not {}'s catalog profile", code,
+                     format_date(lot.rub_test->scored), lot.variety);
 }
 
 Eigen::VectorXd aroma_from_oils(const Variety& variety, const Lexicon& lexicon) {

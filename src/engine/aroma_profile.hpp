@@ -8,7 +8,9 @@
 //     aroma_from_oils);
 //  4. else nothing: the profile is empty and engines must say the variety lacks aroma data.
 #include <Eigen/Dense>
+#include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "model/hops.hpp"
@@ -16,7 +18,7 @@
 
 namespace bine {
 
-enum class AromaSource { explicit_values, tags, oils, none };
+enum class AromaSource { explicit_values, tags, oils, rub_test, none };
 std::string_view to_string(AromaSource source);
 
 struct AromaProfile {
@@ -27,6 +29,14 @@ struct AromaProfile {
 
 /// The aroma profile of a variety (see the rules above).
 AromaProfile aroma_profile(const Variety& variety, const Lexicon& lexicon);
+
+/// A lot's own aroma from the brewer's rub test (scores 0-5 on named axes, the rest 0), or nullopt
+/// when the lot has none. Throws InputError naming `file` and /lots/INDEX/rub_test/scores/NAME for
+/// a name that is not an axis of the lexicon (with did-you-mean).
+std::optional<AromaProfile> lot_aroma(const Lot& lot, std::size_t index, std::string_view file, const Lexicon& lexicon);
+
+/// "lot CODE: aroma from the brewer's rub test of DATE, not VARIETY's catalog profile".
+std::string rub_test_note(const Lot& lot, std::string_view code);
 
 /// Coarse aroma estimate from oil composition: each compound's share is divided by its typical
 /// share (docs/methods.md#hop-chemistry-bounds typical ranges, midpoints: myrcene 45, humulene 24, caryophyllene 9,

@@ -98,9 +98,9 @@ std::optional<double> Vectorizer::standardise(std::optional<double> value, const
 }
 
 Descriptors Vectorizer::describe_with(const Variety& variety, std::optional<double> alpha, std::optional<double> beta,
-                                      std::optional<double> oil) const {
+                                      std::optional<double> oil, const AromaProfile* own_aroma) const {
   Descriptors d;
-  const AromaProfile profile = aroma_profile(variety, *lexicon_);
+  const AromaProfile profile = own_aroma ? *own_aroma : aroma_profile(variety, *lexicon_);
   d.aroma = profile.intensity;
   d.aroma_source = profile.intensity.norm() > 0.0 ? profile.source : AromaSource::none;
   const auto& compounds = oil_compounds();
@@ -117,13 +117,14 @@ Descriptors Vectorizer::describe(const Variety& variety) const {
   return describe_with(variety, mid_of(variety.alpha_acid), mid_of(variety.beta_acid), mid_of(variety.total_oil));
 }
 
-Descriptors Vectorizer::describe(const Variety& variety, const Lot& lot, std::optional<double> alpha_today) const {
+Descriptors Vectorizer::describe(const Variety& variety, const Lot& lot, std::optional<double> alpha_today,
+                                 const AromaProfile* own_aroma) const {
   const auto pick = [](std::optional<double> first, std::optional<double> second, const std::optional<Range>& range) {
     return first ? first : (second ? second : mid_of(range));
   };
   return describe_with(variety, pick(alpha_today, lot.alpha_acid, variety.alpha_acid),
                        pick(lot.beta_acid, std::nullopt, variety.beta_acid),
-                       pick(lot.total_oil, std::nullopt, variety.total_oil));
+                       pick(lot.total_oil, std::nullopt, variety.total_oil), own_aroma);
 }
 
 Descriptors Vectorizer::describe_target(const Eigen::VectorXd& intensities) const {

@@ -74,8 +74,10 @@ class Vectorizer {
 
   Descriptors describe(const Variety& variety) const;
   /// A lot: its variety's descriptors with the lot's measured alpha, beta and oil (alpha as given,
-  /// e.g. already aged) in place of the catalog ranges.
-  Descriptors describe(const Variety& variety, const Lot& lot, std::optional<double> alpha_today) const;
+  /// e.g. already aged) in place of the catalog ranges, and its own aroma (a rub test, lot_aroma)
+  /// in place of the variety's profile when `own_aroma` is given.
+  Descriptors describe(const Variety& variety, const Lot& lot, std::optional<double> alpha_today,
+                       const AromaProfile* own_aroma = nullptr) const;
   /// A target profile ("floral=4,citrus=4" parsed by parse_aroma_spec): aroma block only.
   Descriptors describe_target(const Eigen::VectorXd& intensities) const;
 
@@ -96,7 +98,7 @@ class Vectorizer {
   };
   std::optional<double> standardise(std::optional<double> value, const Spread& spread) const;
   Descriptors describe_with(const Variety& variety, std::optional<double> alpha, std::optional<double> beta,
-                            std::optional<double> oil) const;
+                            std::optional<double> oil, const AromaProfile* own_aroma = nullptr) const;
 
   const Lexicon* lexicon_;
   SwapPurpose purpose_;

@@ -80,7 +80,12 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
     candidate.lot = aged.lot.lot;
     candidate.form = lot.form;
     candidate.on_hand_g = lot.on_hand_g;
-    if (!take_aroma(*variety, lexicon, label, candidate, left_out)) continue;
+    if (const auto own = lot_aroma(lot, aged.index, cellar.source_file, lexicon)) {
+      candidate.aroma = own->intensity;  // the brewer's rub test stands for this lot
+      set.notes.push_back(rub_test_note(lot, aged.code));
+    } else if (!take_aroma(*variety, lexicon, label, candidate, left_out)) {
+      continue;
+    }
     const std::optional<double> oil =
         lot.total_oil ? lot.total_oil : (variety->total_oil ? std::optional(variety->total_oil->mid()) : std::nullopt);
     if (!oil || *oil <= 0.0) {

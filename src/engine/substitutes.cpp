@@ -199,23 +199,44 @@ Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, cons
   return eligible;
 }
 
-/// The index's nearest varieties (or their lots on hand), each to be re-scored exactly.
-std::vector<Candidate> candidates_near(const Catalog& catalog, const IndexedCatalog& indexed, const Eligible& eligible,
-                                       const Descriptors& wanted, const Vectorizer& vectorizer,
-                                       const SwapRequest& request, const SubstituteSettings& settings) {
+/// A lot on hand as a candidate: its own rub-test aroma when it has one (noted), else its variety's.
+Candidate lot_candidate(const Variety& variety, const CellarLot& lot, const Cellar& cellar, const Lexicon& lexicon,
+                        const Vectorizer& vectorizer, std::vector<std::string>& notes) {
+  const std::optional<AromaProfile> own = lot_aroma(lot.lot, lot.index, cellar.source_file, lexicon);
+  if (own) notes.push_back(rub_test_note(lot.lot, lot.code));
+  return {&variety, &lot, vectorizer.describe(variety, lot.lot, lot.alpha_today, own ? &*own : nullptr)};
+}
+
+/// The index's nearest varieties (or their lots on hand), each to be re-scored exactly. A lot with
+/// its own rub test is always a candidate: its variety's catalog profile, which the index holds,
+/// says little about how near the lot itself is.
+std::vector<Candidate> candidates_near(const Catalog& catalog, const Lexicon& lexicon, const IndexedCatalog& indexed,
+                                       const Eligible& eligible, const Descriptors& wanted,
+                                       const Vectorizer& vectorizer, const SwapRequest& request,
+                                       const SubstituteSettings& settings, std::vector<std::string>& notes) {
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
   const auto hits = indexed.index.search_subset(query.data(), request.cellar ? k : k + 1, eligible.ids);
   std::vector<Candidate> candidates;
-  for (const auto& hit : hits) {
-    const auto i = static_cast<std::size_t>(hit.id);
+  std::vector<bool> hit(catalog.varieties.size(), false);
+  for (const auto& h : hits) {
+    const auto i = static_cast<std::size_t>(h.id);
+    hit[i] = true;
     const Variety& variety = catalog.varieties[i];
     if (!request.cellar) {
       candidates.push_back({&variety, nullptr, indexed.described[i]});
       continue;
     }
     for (const CellarLot* lot : eligible.lots_of[i])
-      candidates.push_back({&variety, lot, vectorizer.describe(variety, lot->lot, lot->alpha_today)});
+      candidates.push_back(lot_candidate(variety, *lot, *request.cellar, lexicon, vectorizer, notes));
+  }
+  if (!request.cellar) return candidates;
+  for (const std::int64_t id : eligible.ids) {
+    const auto i = static_cast<std::size_t>(id);
+    if (hit[i]) continue;
+    for (const CellarLot* lot : eligible.lots_of[i])
+      if (lot->lot.rub_test)
+        candidates.push_back(lot_candidate(catalog.varieties[i], *lot, *request.cellar, lexicon, vectorizer, notes));
   }
   return candidates;
 }
@@ -299,7 +320,7 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
   const Eligible eligible = eligible_varieties(catalog, missing, request, result.notes);
   // 3. Ask the index for candidates, then re-score exactly (missing blocks handled per pair) and rank.
   const std::vector<Candidate> candidates =
-      candidates_near(catalog, indexed, eligible, wanted, vectorizer, request, settings);
+      candidates_near(catalog, lexicon, indexed, eligible, wanted, vectorizer, request, settings, result.notes);
   result.candidates = candidates.size();
   std::vector<Substitute> ranked;
   for (const auto& c : candidates)

@@ -210,6 +210,41 @@ Catalog catalog_from(const json& document, const std::string& file, const Lexico
 // ---------------------------------------------------------------------------------------------
 // Stock
 
+// A lot's "rub_test": {"scored": DATE, "scores": {"citrus": 4, ...}}. The axis names are checked
+// against the lexicon where the scores are used (engine/aroma_profile lot_aroma), as the stock file
+// is read without one.
+std::optional<RubTest> read_rub_test(FieldReader& reader, Diagnostics& diagnostics) {
+  const json* raw = reader.raw("rub_test");
+  if (raw == nullptr || raw->is_null()) return std::nullopt;
+  FieldReader test_reader(*raw, reader.at("rub_test"), diagnostics);
+  if (!test_reader.ok()) return std::nullopt;
+  test_reader.allow_only({"scored", "scores", "notes"});
+  RubTest test;
+  const auto scored = test_reader.date("scored", true);
+  test_reader.text("notes", false);
+  const json* scores = test_reader.raw("scores");
+  if (scores == nullptr || scores->is_null()) {
+    diagnostics.add(test_reader.at("scores"), "is missing (expected 0-5 per aroma axis, e.g. {\"citrus\": 4})");
+    return std::nullopt;
+  }
+  FieldReader scores_reader(*scores, test_reader.at("scores"), diagnostics);
+  if (!scores_reader.ok()) return std::nullopt;
+  bool whole = scored.has_value();
+  for (const auto& [axis, value] : scores->items()) {
+    const auto score =
+        read_quantity(value, Dimension::number, limits::aroma_intensity, scores_reader.at(axis), diagnostics);
+    if (score)
+      test.scores.emplace_back(axis, *score);
+    else
+      whole = false;
+  }
+  if (whole && test.scores.empty())
+    diagnostics.add(test_reader.at("scores"), "is empty (expected 0-5 per aroma axis, e.g. {\"citrus\": 4})");
+  if (!whole || test.scores.empty()) return std::nullopt;
+  test.scored = *scored;
+  return test;
+}
+
 Stock stock_from(const json& document, const std::string& file, Diagnostics& diagnostics) {
   FieldReader top(document, "", diagnostics);
   top.allow_only({"stock", "lots"});
@@ -226,7 +261,7 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
   for_each_in_array(top, "lots", true, [&](const json& element, const std::string& pointer) {
     FieldReader reader(element, pointer, diagnostics);
     reader.allow_only({"variety", "lot", "form", "alpha_acid", "beta_acid", "total_oil", "packaged", "storage",
-                       "on_hand", "hsi", "notes"});
+                       "on_hand", "hsi", "rub_test", "notes"});
     Lot lot;
     lot.variety = reader.name("variety", true).value_or("");
     lot.lot = reader.name("lot", false).value_or("");
@@ -240,6 +275,7 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
     lot.packaged = reader.date("packaged", false);
     lot.on_hand_g = reader.quantity("on_hand", Dimension::mass, limits::stock_mass, false);
     lot.hsi = reader.quantity("hsi", Dimension::number, limits::hsi, false);
+    lot.rub_test = read_rub_test(reader, diagnostics);
     if (const json* storage = reader.raw("storage"); storage != nullptr && !storage->is_null()) {
       FieldReader storage_reader(*storage, reader.at("storage"), diagnostics);
       storage_reader.allow_only({"temperature", "package"});

@@ -58,6 +58,13 @@ struct Storage {
 };
 
 /// One lot in the cold store, with its certificate values.
+/// The brewer's own rub test of a lot: 0-5 per aroma axis (axes not scored are 0), and the day it
+/// was scored. It stands for the lot's aroma in swap and blend instead of its variety's profile.
+struct RubTest {
+  Date scored{};
+  std::vector<std::pair<std::string, double>> scores;  // axis name as written, 0-5
+};
+
 struct Lot {
   std::string variety;
   std::string lot;
@@ -69,6 +76,7 @@ struct Lot {
   std::optional<Storage> storage;
   std::optional<double> on_hand_g;
   std::optional<double> hsi;  // Hop Storage Index, measured
+  std::optional<RubTest> rub_test;
 };
 
 struct Stock {

@@ -2,8 +2,10 @@
 // Real HTML tables for the reports. Each cell may name the JSON value it shows (a JSON pointer into
 // the same run's --json document, and the factor the page multiplies it by, e.g. 100 for a share
 // shown in %; or the pointers subtracted from it, for a figure the JSON holds as parts), so a test
-// can check every number on the page against the JSON. Each cell also
-// carries its column heading (data-label): on a phone the stylesheet turns rows into cards.
+// can check every number on the page against the JSON. Each cell also carries its column heading
+// (data-label). On a phone (360 px) a table that fits stays a table; one too wide for it
+// (class "cards", from an estimate of its narrowest width) becomes one card per row, each cell
+// labelled with its heading, a column of long text across the whole card.
 #include <string>
 #include <vector>
 
@@ -36,14 +38,23 @@ class Table {
   void set_total(std::vector<Cell> cells);
   bool empty() const { return rows_.empty(); }
   std::string str() const;
+  /// The table's narrowest width on a phone, in CSS px (an estimate from its characters: every
+  /// figure and piece kept whole on one line, headings in at most two lines, cell padding).
+  double phone_width() const;
 
  private:
-  std::string row_html(const std::vector<Cell>& cells) const;
+  std::string row_html(const std::vector<Cell>& cells, bool total) const;
+  std::string cell_class(std::size_t column, const Cell& cell) const;
+  bool long_text(std::size_t column) const;
   std::string caption_;
   std::vector<Column> columns_;
   std::vector<std::vector<Cell>> rows_;
   std::vector<Cell> total_;
 };
+
+/// The width a table may need on a 360 px phone and still stay a table: 360 px less the page's
+/// side padding (2 x 0.75 rem).
+inline constexpr double kPhoneColumnPx = 336.0;
 
 /// The attributes that tie a shown number to its JSON value (empty when `pointer` is empty).
 std::string json_attributes(const Cell& cell);

@@ -5,27 +5,33 @@
 #include <algorithm>
 #include <cmath>
 
+#include "report/html_text.hpp"
 #include "report/output_format.hpp"
 #include "report/table.hpp"
 
 namespace bine::html {
 namespace {
 
-constexpr double kWidth = 340.0;
+// Positions in CSS px (the outer <svg> has no viewBox) except where a percent of the plot is said.
 constexpr double kLeft = 6.0;
-constexpr double kPlotRight = kWidth - 62.0;  // room for the value text after the longest bar
-constexpr double kBar = 11.0;
-constexpr double kLabel = 15.0;
-constexpr double kGap = 9.0;
-constexpr std::size_t kLabelChars = 52;
+constexpr double kPlotPercent = 76.0;  // the plot's share of the chart's width
+constexpr double kBar = 13.0;
+constexpr double kBarStep = kBar + 3.0;
+constexpr double kLabel = 19.0;  // a row label's line, 14 px bold
+constexpr double kGap = 10.0;
+constexpr double kLegendStep = 18.0;
+// What fits a 336 px chart (a 360 px phone) at 14 px: DejaVu Sans Bold is about 0.62 em (8.7 px) a
+// character, so (336 - 6) / 8.7 = 37; the legend (regular, 0.56 em) starts 24 px further in.
+constexpr std::size_t kLabelChars = 37;
+constexpr std::size_t kLegendChars = 38;
 
-// The row label cut to what fits the width, at a UTF-8 boundary.
-std::string fitted(const std::string& label) {
-  if (display_width(label) <= kLabelChars) return label;
+// The label cut to `chars` characters, at a UTF-8 boundary.
+std::string fitted(const std::string& label, std::size_t chars) {
+  if (display_width(label) <= chars) return label;
   std::string out;
   std::size_t points = 0;
   for (char c : label) {
-    if ((static_cast<unsigned char>(c) & 0xC0) != 0x80 && ++points > kLabelChars - 1) break;
+    if ((static_cast<unsigned char>(c) & 0xC0) != 0x80 && ++points > chars - 1) break;
     out += c;
   }
   return out + "\xe2\x80\xa6";
@@ -53,9 +59,7 @@ double data_max(const BarChart& chart) {
   double max = 0.0;
   for (const auto& row : chart.rows)
     for (double v : row.values) max = std::max(max, v);
-  if (max <= 0.0) return 1.0;
-  const double step = tick_step(max, 5);
-  return std::ceil(max / step - 1e-9) * step;
+  return axis_end(max);
 }
 
 std::string legend(const BarChart& chart, double& y) {
@@ -64,55 +68,55 @@ std::string legend(const BarChart& chart, double& y) {
   for (std::size_t s = 0; s < chart.series.size(); ++s) {
     out += fmt::format(
         "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"18\" height=\"{:.0f}\" {}/>"
-        "<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"11\">{}</text>\n",
-        kLeft, y, kBar, fill_of(chart.id, s), kLeft + 24.0, y + 9.5, html_escape(chart.series[s]));
-    y += kBar + 5.0;
+        "<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"14\">{}</text>\n",
+        kLeft, y, kBar, fill_of(chart.id, s), kLeft + 24.0, y + 11.0,
+        html_escape(fitted(chart.series[s], kLegendChars)));
+    y += kLegendStep;
   }
   y += 6.0;
   return out;
 }
 
-std::string row_bars(const BarChart& chart, const ChartRow& row, double max, double& y) {
-  std::string out =
-      fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"11\" font-weight=\"600\" class=\"label\">{}</text>\n",
-                  kLeft, y + 11.0, html_escape(fitted(row.label)));
+// Percent of the plot's width for value v on an axis ending at max.
+double percent(double v, double max) { return 100.0 * std::clamp(v, 0.0, max) / max; }
+
+// One row: its label (outer, px) and its bars with their values (plot, percent).
+void row_bars(const BarChart& chart, const ChartRow& row, double max, double& y, std::string& labels,
+              std::string& plot) {
+  labels +=
+      fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"14\" font-weight=\"600\" class=\"label\">{}</text>\n",
+                  kLeft, y + 14.0, html_escape(fitted(row.label, kLabelChars)));
   y += kLabel;
-  const double span = kPlotRight - kLeft;
   for (std::size_t s = 0; s < row.values.size(); ++s) {
-    const double v = std::clamp(row.values[s], 0.0, max);
-    const double w = span * v / max;
+    const double w = percent(row.values[s], max);
     const std::string text = s < row.texts.size() ? row.texts[s] : fmt::format("{:.1f}", row.values[s]);
     const std::string pointer = s < row.json.size() ? row.json[s] : "";
     const std::string who = chart.series.size() > s ? chart.series[s] + ", " : "";
-    out += fmt::format(
-        "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.1f}\" height=\"{:.0f}\" {}><title>{}{}: {}</title></rect>"
-        "<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"10\" class=\"label\"{}>{}</text>\n",
-        kLeft, y, w, kBar, fill_of(chart.id, s), html_escape(who), html_escape(row.label), html_escape(text),
-        kLeft + w + 4.0, y + 9.0, pointer.empty() ? "" : " data-json=\"" + html_escape(pointer) + "\"",
-        html_escape(text));
-    y += kBar + 2.0;
+    plot += fmt::format(
+        "<rect x=\"0\" y=\"{:.1f}\" width=\"{:.2f}%\" height=\"{:.0f}\" {}><title>{}{}: {}</title></rect>"
+        "<text x=\"{:.2f}%\" dx=\"4\" y=\"{:.1f}\" font-size=\"13\" class=\"label\"{}>{}</text>\n",
+        y, w, kBar, fill_of(chart.id, s), html_escape(who), html_escape(row.label), html_escape(text), w, y + 10.5,
+        pointer.empty() ? "" : " data-json=\"" + html_escape(pointer) + "\"", html_escape(text));
+    y += kBarStep;
   }
   y += kGap;
-  return out;
 }
 
-std::string value_axis(const BarChart& chart, double max, double top, double& y) {
-  const double span = kPlotRight - kLeft;
+// Grid lines and tick values (plot, percent), the axis line, and the axis label (outer, px).
+std::string value_axis(const BarChart& chart, double max, double top, double& y, std::string& plot) {
   const double step = tick_step(max, 5);
-  std::string out;
   for (int i = 0; i * step <= max * (1.0 + 1e-9); ++i) {
-    const double x = kLeft + span * (i * step) / max;
-    out += fmt::format(
-        "<line x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{0:.1f}\" y2=\"{2:.1f}\" class=\"grid\"/>"
-        "<text x=\"{0:.1f}\" y=\"{3:.1f}\" font-size=\"10\" text-anchor=\"middle\">{4:g}</text>\n",
-        x, top, y + 3.0, y + 14.0, rounded(i * step, 6));
+    const double x = percent(i * step, max);
+    plot += fmt::format(
+        "<line x1=\"{0:.2f}%\" y1=\"{1:.1f}\" x2=\"{0:.2f}%\" y2=\"{2:.1f}\" class=\"grid\"/>"
+        "<text x=\"{0:.2f}%\" y=\"{3:.1f}\" font-size=\"13\" text-anchor=\"middle\">{4:g}</text>\n",
+        x, top, y + 3.0, y + 17.0, rounded(i * step, 6));
   }
-  out += fmt::format("<line x1=\"{:.1f}\" y1=\"{:.1f}\" x2=\"{:.1f}\" y2=\"{:.1f}\" class=\"axis\"/>\n", kLeft, y,
-                     kPlotRight, y);
-  out += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"11\">{}</text>\n", kLeft, y + 29.0,
-                     html_escape(fitted(chart.axis_label)));
-  y += 36.0;
-  return out;
+  plot += fmt::format("<line x1=\"0\" y1=\"{0:.1f}\" x2=\"100%\" y2=\"{0:.1f}\" class=\"axis\"/>\n", y);
+  const std::string label = fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"14\">{}</text>\n", kLeft, y + 36.0,
+                                        html_escape(fitted(chart.axis_label, kLabelChars + 4)));
+  y += 44.0;
+  return label;
 }
 
 }  // namespace
@@ -126,23 +130,32 @@ double tick_step(double max, int target) {
   return 10.0 * power;
 }
 
+double axis_end(double max) {
+  if (max <= 0.0) return 1.0;
+  const double step = tick_step(max, 5);
+  return std::ceil(max / step - 1e-9) * step;
+}
+
 std::string bar_chart(const BarChart& chart) {
   const double max = data_max(chart);
   double y = 4.0;
-  std::string body = legend(chart, y);
+  const std::string legend_svg = legend(chart, y);
   const double top = y;
-  std::string bars;
-  for (const auto& row : chart.rows) bars += row_bars(chart, row, max, y);
-  const std::string axis = value_axis(chart, max, top, y);
+  std::string labels, bars, grid;
+  for (const auto& row : chart.rows) row_bars(chart, row, max, y, labels, bars);
+  const std::string axis_label = value_axis(chart, max, top, y, grid);
   // Grid and ticks first so bars and labels paint over them.
-  body += axis + bars;
+  const std::string plot = fmt::format(
+      "<g transform=\"translate({:.0f} 0)\"><svg x=\"0\" y=\"0\" width=\"{:.0f}%\" height=\"{:.0f}\" "
+      "overflow=\"visible\">\n{}{}</svg></g>\n",
+      kLeft, kPlotPercent, y, grid, bars);
+  const std::string note = chart.note.empty() ? "" : "<p class=\"chart-note\">" + text_html(chart.note) + "</p>\n";
   return fmt::format(
-      "<figure>\n<figcaption>{}</figcaption>\n<svg xmlns=\"http://www.w3.org/2000/svg\" viewBox=\"0 0 {:.0f} {:.0f}\" "
-      "width=\"{:.0f}\" "
+      "<figure>\n<figcaption>{}</figcaption>\n<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"100%\" "
       "height=\"{:.0f}\" role=\"img\" aria-labelledby=\"{}-t {}-d\">\n<title id=\"{}-t\">{}</title>\n"
-      "<desc id=\"{}-d\">{}</desc>\n{}{}</svg>\n</figure>\n",
-      html_escape(chart.title), kWidth, y, kWidth, y, chart.id, chart.id, chart.id, html_escape(chart.title), chart.id,
-      html_escape(chart.description), patterns(chart.id), body);
+      "<desc id=\"{}-d\">{}</desc>\n{}{}{}{}{}</svg>\n{}</figure>\n",
+      text_html(chart.title), y, chart.id, chart.id, chart.id, html_escape(chart.title), chart.id,
+      html_escape(chart.description), patterns(chart.id), legend_svg, plot, labels, axis_label, note);
 }
 
 }  // namespace bine::html

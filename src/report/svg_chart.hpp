@@ -4,8 +4,11 @@
 // the end of each bar, a value axis with ticks and its unit at the bottom. Up to three series,
 // told apart by lightness and by pattern (solid dark, hatched amber, dotted light blue) and
 // named in a legend, so the chart reads in greyscale and without telling hues apart. Every chart
-// has a <title> and a <desc> (the text alternative) and role="img". Drawn in a 340-unit-wide
-// viewBox that scales to the column.
+// has a <title> and a <desc> (the text alternative) and role="img". The chart takes the column's
+// width (up to 36 rem) but its text stays at 13-14 CSS px whatever the width: there is no viewBox;
+// labels sit at px positions, and the bars, grid and ticks are placed in percent of a nested plot
+// area (76 % of the width, the rest kept for the value written after the longest bar). So a phone
+// at 360 px shows the same text size as a laptop, only shorter bars.
 #include <string>
 #include <vector>
 
@@ -26,6 +29,7 @@ struct BarChart {
   double axis_max = 0.0;            // 0: from the data
   std::vector<std::string> series;  // legend names; one series needs none
   std::vector<ChartRow> rows;
+  std::string note;  // a line under the chart (where its values come from), or empty
 };
 
 /// The chart as a <figure> holding an inline <svg> and a caption.
@@ -33,5 +37,9 @@ std::string bar_chart(const BarChart& chart);
 
 /// A tick step of 1, 2 or 5 times a power of ten giving about `target` ticks up to `max`.
 double tick_step(double max, int target);
+
+/// Where a value axis ends for values up to `max`: the first tick (of about five) at or above it;
+/// 1 when nothing is above zero. Charts meant to be compared side by side share it (axis_max).
+double axis_end(double max);
 
 }  // namespace bine::html

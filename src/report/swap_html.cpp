@@ -93,25 +93,58 @@ html::BarChart aroma_chart(const SwapResult& r, std::size_t i) {
   return chart;
 }
 
-// A bittering swap compares what sets the bitterness: alpha, beta and cohumulone (range midpoints).
+// The substitute's alpha on the chart: its lot's on the brew day where the report has one (the
+// alpha the grams per gram were worked from), else the middle of the catalog range.
+bool lot_alpha(const Substitute& s) { return s.lot && s.alpha_today; }
+
+// A bittering swap compares what sets the bitterness: alpha, beta and cohumulone (range midpoints,
+// and the lot's alpha on the brew day where there is a lot).
 html::BarChart bitter_chart(const SwapResult& r, std::size_t i) {
   const Substitute& s = r.substitutes[i];
   html::BarChart chart;
   chart.id = fmt::format("bitter{}", i + 1);
   chart.title = fmt::format("Bittering acids: {} versus {}", r.missing.name, lot_name(s));
-  chart.axis_label = "percent, middle of the catalog range";
+  chart.axis_label = "percent";
   chart.series = {r.missing.name + " (missing)", lot_name(s)};
-  chart.description = fmt::format("Catalog range midpoints of {} then {}:", r.missing.name, lot_name(s));
+  const std::string day = r.on ? format_date(*r.on) : "today";
+  chart.note = lot_alpha(s) ? fmt::format(
+                                  "{}: alpha of lot {} on the brew day ({}), as in the table. {}: alpha, and "
+                                  "every beta and cohumulone: the middle of the catalog range.",
+                                  s.variety.name, s.lot->lot, day, r.missing.name)
+                            : "Every value: the middle of the catalog range.";
+  chart.description = fmt::format("{} Percent, {} then {}:", chart.note, r.missing.name, lot_name(s));
+  const auto mid = [](const std::optional<Range>& v) { return v ? v->mid() : 0.0; };
+  const auto text = [](const std::optional<Range>& v) { return v ? fmt::format("{:.1f} %", v->mid()) : "n/a"; };
   const auto add = [&](std::string_view label, const std::optional<Range>& want, const std::optional<Range>& got) {
-    const auto text = [](const std::optional<Range>& v) { return v ? fmt::format("{:.1f} %", v->mid()) : "n/a"; };
-    chart.rows.push_back(
-        {std::string(label), {want ? want->mid() : 0.0, got ? got->mid() : 0.0}, {text(want), text(got)}, {}});
+    chart.rows.push_back({std::string(label), {mid(want), mid(got)}, {text(want), text(got)}, {}});
     chart.description += fmt::format(" {} {} and {};", label, text(want), text(got));
   };
-  add("alpha acid (% w/w)", r.missing.alpha_acid, s.variety.alpha_acid);
+  if (lot_alpha(s)) {
+    const std::string got = fmt::format("{:.1f} %", *s.alpha_today);
+    chart.rows.push_back({"alpha acid (% w/w)",
+                          {mid(r.missing.alpha_acid), *s.alpha_today},
+                          {text(r.missing.alpha_acid), got},
+                          {"", sub_pointer(i, "alpha_today_percent")}});
+    chart.description += fmt::format(" alpha acid (% w/w) {} and {};", text(r.missing.alpha_acid), got);
+  } else {
+    add("alpha acid (% w/w)", r.missing.alpha_acid, s.variety.alpha_acid);
+  }
   add("beta acid (% w/w)", r.missing.beta_acid, s.variety.beta_acid);
   add("cohumulone (% of alpha)", r.missing.cohumulone, s.variety.cohumulone);
   return chart;
+}
+
+// The best three charted on one scale, so their bars can be compared from chart to chart.
+std::vector<html::BarChart> bitter_charts(const SwapResult& r, std::size_t count) {
+  std::vector<html::BarChart> charts;
+  double max = 0.0;
+  for (std::size_t i = 0; i < count; ++i) {
+    charts.push_back(bitter_chart(r, i));
+    for (const auto& row : charts.back().rows)
+      for (double v : row.values) max = std::max(max, v);
+  }
+  for (auto& chart : charts) chart.axis_max = html::axis_end(max);
+  return charts;
 }
 
 std::string pairs_table(const SwapResult& r) {
@@ -153,8 +186,11 @@ std::string swap_html(const SwapResult& r, UnitSystem units, bool with_pairs, co
       fmt::format("Grams per gram replaced hold the {}.", aroma ? "oil delivered (aroma)" : "IBU (alpha acid)");
   content.sections.push_back({"Ranked substitutes", ranking_table(r, units)});
   std::string charts;
-  for (std::size_t i = 0; i < std::min<std::size_t>(3, r.substitutes.size()); ++i)
-    charts += html::bar_chart(aroma ? aroma_chart(r, i) : bitter_chart(r, i));
+  const std::size_t charted = std::min<std::size_t>(3, r.substitutes.size());
+  if (aroma)
+    for (std::size_t i = 0; i < charted; ++i) charts += html::bar_chart(aroma_chart(r, i));
+  else
+    for (const auto& chart : bitter_charts(r, charted)) charts += html::bar_chart(chart);
   content.sections.push_back(
       {aroma ? "Aroma, missing variety versus substitute" : "Bittering acids side by side", charts});
   content.sections.push_back({"Chemistry side by side", chemistry_table(r)});

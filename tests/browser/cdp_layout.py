@@ -9,6 +9,7 @@ that scrolls sideways has a content width larger than the viewport. No script ru
 """
 import base64
 import json
+import math
 import os
 import subprocess
 
@@ -78,6 +79,17 @@ class Browser:
         data = self.call("Page.captureScreenshot", {"format": "png"}, session=True)["data"]
         with open(path, "wb") as out:
             out.write(base64.b64decode(data))
+
+    def full_page_screenshot(self, url, width, path):
+        """The whole page at `width` CSS px as PNG: laid out once to learn the document's height, then
+        the viewport is made that tall (so nothing is cut off below the fold) and captured."""
+        self.layout(url, width, 800)
+        metrics = self.call("Page.getLayoutMetrics", session=True)
+        height = int(math.ceil(metrics["cssContentSize"]["height"]))
+        self.call("Emulation.setDeviceMetricsOverride",
+                  {"width": width, "height": height, "deviceScaleFactor": 1, "mobile": width <= 480},
+                  session=True)
+        self.screenshot(path)
 
     def close(self):
         try:

@@ -5,8 +5,11 @@ For each report: bine runs once with --json and --html FILE (the same run gives 
   - the page parses as XML (xml.etree: every element closed, attributes quoted) and as HTML;
   - it holds no script and asks for nothing outside the file (no src=, no http: or https:);
   - it is under 300 kB;
-  - chromium renders it: a screenshot at 800 px wide (--screenshot, kept under the build folder
-    for review) and the DOM after rendering (--dump-dom);
+  - chromium renders it: full-page screenshots at 360 px and 800 px wide (the whole page, however
+    tall; kept under the build folder for review and for tools/docs-screenshots) and the DOM after
+    rendering (--dump-dom);
+  - a page built from the demo catalog shows the demo-data marker; a bittering swap from stock
+    charts each lot's alpha on the brew day (tied to alpha_today_percent), not the catalog midpoint;
   - the rendered DOM has the report's tables, a caution box, and every number in a table cell
     or chart label that names its JSON value (data-json) matches that value of the same run
     within the rounding written on the page; every figure cell (class "num") with a digit names
@@ -24,7 +27,6 @@ import re
 import shutil
 import subprocess
 import sys
-import tempfile
 import xml.etree.ElementTree as ET
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
@@ -35,8 +37,10 @@ MAX_BYTES = 300 * 1024
 PRINT_WIDTHS = {"A4": round((210 - 28) / 25.4 * 96), "Letter": round((215.9 - 28) / 25.4 * 96)}
 
 
-def reports(source):
-    ex = os.path.join(source, "descriptor-data", "examples")
+def reports():
+    # Paths relative to the source folder, where bine runs: the pages (and the screenshots kept
+    # in docs/) name the example files as a reader of the repository sees them.
+    ex = os.path.join("descriptor-data", "examples")
     pale, stock = os.path.join(ex, "pale-ale.json"), os.path.join(ex, "stock.json")
     hazy = os.path.join(ex, "hazy-ipa.json")
     fixtures = os.path.join(source, "tests", "fixtures")
@@ -50,6 +54,8 @@ def reports(source):
                             os.path.join(fixtures, "lots-aged-stock.json"), "--on", "2026-12-01"],
         "swap": ["swap", "Tidewell", "--stock", stock, "--on", "2026-12-01", "--pairs"],
         "swap-bittering": ["swap", "Keelstone", "--for", "bittering", "--top", "3"],
+        "swap-bittering-stock": ["swap", "Keelstone", "--for", "bittering", "--stock", stock, "--on", "2026-12-01",
+                                 "--top", "3"],
         "blend": ["blend", "--target", "floral=4,citrus=4", "--recipe", pale, "--stock", stock],
         "age": ["age", "--alpha", "11.2", "--packaged", "2025-10-01", "--stored", "-1 C,vacuum", "--variety",
                 "Keelstone", "--on", "2026-06-01"],
@@ -64,7 +70,7 @@ class DomCollector(html.parser.HTMLParser):
 
     def __init__(self):
         super().__init__()
-        self.tags, self.classes, self.figures, self.unnamed = {}, set(), [], []
+        self.tags, self.classes, self.figures, self.unnamed, self.chart_figures = {}, set(), [], [], []
         self._open = []  # [tag, attrs, text]
 
     def handle_starttag(self, tag, attrs):
@@ -88,6 +94,8 @@ class DomCollector(html.parser.HTMLParser):
             name, attrs, text = self._open.pop()
             if "data-json" in attrs:
                 self.figures.append((attrs, text.strip()))
+                if name == "text":
+                    self.chart_figures.append(attrs["data-json"])
             elif name == "td" and "num" in (attrs.get("class") or "").split() and re.search(r"\d", text):
                 self.unnamed.append(text.strip())
             if name == tag:
@@ -157,6 +165,17 @@ def check_figures(name, figures, doc, problems):
     return checked
 
 
+def check_bittering_alpha(name, dom, doc, problems):
+    """A bittering swap from stock charts each charted lot's alpha on the brew day (the alpha its
+    grams per gram come from), tied to that JSON value, not the catalog midpoint."""
+    if doc.get("for") != "bittering":
+        return
+    for i, sub in enumerate(doc.get("substitutes", [])[:3]):
+        pointer = f"/substitutes/{i}/alpha_today_percent"
+        if sub.get("alpha_today_percent") is not None and pointer not in dom.chart_figures:
+            problems.append(f"{name}: the chart of substitute {i + 1} does not show its lot's alpha ({pointer})")
+
+
 def chromium_run(chromium, args, timeout=120):
     return subprocess.run([chromium, "--headless", "--no-sandbox", "--disable-gpu", "--hide-scrollbars"] + args,
                           capture_output=True, text=True, timeout=timeout)
@@ -177,10 +196,6 @@ def check_page(name, page, doc, chromium, out_dir, problems):
         if banned in without_svg_namespace:
             problems.append(f"{name}: holds {banned!r} (pages are one file, no script, no request)")
     url = "file://" + os.path.abspath(page)
-    shot = os.path.join(out_dir, f"{name}-800.png")
-    run = chromium_run(chromium, [f"--screenshot={shot}", "--window-size=800,1200", url])
-    if run.returncode != 0 or not os.path.exists(shot):
-        problems.append(f"{name}: chromium --screenshot failed: {run.stderr[-300:]}")
     run = chromium_run(chromium, ["--dump-dom", "--window-size=800,1200", url])
     if run.returncode != 0 or "<body" not in run.stdout:
         problems.append(f"{name}: chromium --dump-dom failed: {run.stderr[-300:]}")
@@ -192,6 +207,10 @@ def check_page(name, page, doc, chromium, out_dir, problems):
             problems.append(f"{name}: rendered page has no <{tag}>")
     if "caution" not in dom.classes:
         problems.append(f"{name}: no caution box")
+    # Every report here reads the shipped demo catalog: the page must say its data are invented.
+    if any(c.get("demo") for c in doc.get("catalogs_used", [])) and "demo" not in dom.classes:
+        problems.append(f"{name}: the demo catalog was used but the page has no demo-data marker")
+    check_bittering_alpha(name, dom, doc, problems)
     for text in dom.unnamed:
         problems.append(f"{name}: figure cell \"{text}\" names no JSON value")
     return check_figures(name, dom.figures, doc, problems)
@@ -209,8 +228,11 @@ def check_layout(browser, name, page, out_dir, problems, sizes):
             problems.append(f"{name} at {label}: the document is {content} px wide, wider than the {viewport} px "
                             "viewport (it scrolls sideways)")
         sizes.append(f"{name} {label}: document {content} px, viewport {viewport} px")
-        if label == "360":
-            browser.screenshot(os.path.join(out_dir, f"{name}-360.png"))
+    for width in (360, 800):
+        shot = os.path.join(out_dir, f"{name}-{width}.png")
+        browser.full_page_screenshot(url, width, shot)
+        if not os.path.exists(shot) or os.path.getsize(shot) == 0:
+            problems.append(f"{name}: no screenshot at {width} px")
 
 
 def probe_detects_overflow(browser, out_dir):
@@ -233,21 +255,20 @@ def main():
     problems, sizes, checked = [], [], 0
     env = dict(os.environ, BINE_DATA=os.path.join(source, "descriptor-data"))
     pages = {}
-    with tempfile.TemporaryDirectory() as tmp:
-        for name, args in reports(source).items():
-            page = os.path.join(out_dir, f"{name}.html")
-            run = subprocess.run([bine] + args + ["--json", "--html", page], capture_output=True, text=True,
-                                 env=env, cwd=tmp, timeout=300)
-            if run.returncode != 0:
-                problems.append(f"{name}: bine exited {run.returncode}: {run.stderr.strip()}")
-                continue
-            doc = json.loads(run.stdout)
-            n = check_page(name, page, doc, chromium, out_dir, problems)
-            if n == 0:
-                problems.append(f"{name}: no number on the page was checked against the JSON")
-            checked += n
-            pages[name] = page
-            sizes.append(f"{name}: {os.path.getsize(page)} bytes, {n} numbers checked against --json")
+    for name, args in reports().items():
+        page = os.path.join(out_dir, f"{name}.html")
+        run = subprocess.run([bine] + args + ["--json", "--html", page], capture_output=True, text=True,
+                             env=env, cwd=source, timeout=300)
+        if run.returncode != 0:
+            problems.append(f"{name}: bine exited {run.returncode}: {run.stderr.strip()}")
+            continue
+        doc = json.loads(run.stdout)
+        n = check_page(name, page, doc, chromium, out_dir, problems)
+        if n == 0:
+            problems.append(f"{name}: no number on the page was checked against the JSON")
+        checked += n
+        pages[name] = page
+        sizes.append(f"{name}: {os.path.getsize(page)} bytes, {n} numbers checked against --json")
     browser = cdp_layout.Browser(chromium)
     try:
         if not probe_detects_overflow(browser, out_dir):

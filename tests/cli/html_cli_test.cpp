@@ -4,6 +4,7 @@
 #include <doctest/doctest.h>
 
 #include <filesystem>
+#include <nlohmann/json.hpp>
 #include <string>
 
 #include "cli/run_in_process.hpp"
@@ -109,4 +110,42 @@ TEST_CASE("stock list --html with a data folder of our own: no demo marker") {
   const std::string html = slurp(page);
   CHECK(has(html, "csv output fixtures (invented for tests)"));
   CHECK_FALSE(has(html, "invented demo data"));
+}
+
+TEST_CASE("swap --for bittering --stock --html: each chart shows the lot's alpha on the brew day, as the JSON does") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "swap.html";
+  const auto run =
+      run_cli({"--catalog", fixture("csv-out-catalog.json"), "swap", "Fixture Twin", "--for", "bittering", "--stock",
+               fixture("csv-out-stock.json"), "--on", "2026-03-02", "--json", "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const auto doc = nlohmann::json::parse(run.out);
+  const std::string html = slurp(page);
+  // Hand arithmetic (as in the stock list test): lot Q-1 of 10 % packaged 2026-01-01, vacuum at 5 C,
+  // stability 70: 10 % x exp(-(-ln 0.70 / 180) x 0.25 x 60) = 9.707 % on 2026-03-02, charted to one
+  // decimal; its catalog midpoint (9 + 11) / 2 = 10.0 % is not what the chart shows.
+  REQUIRE(doc.at("substitutes").at(0).at("lot") == "Q-1, \"A\"");
+  CHECK(doc.at("substitutes").at(0).at("alpha_today_percent").get<double>() == doctest::Approx(9.71));
+  const auto start = html.find("<title id=\"bitter1-t\">");
+  REQUIRE(start != std::string::npos);
+  const std::string chart = html.substr(start, html.find("</figure>", start) - start);
+  CHECK(has(chart, "data-json=\"/substitutes/0/alpha_today_percent\">9.7 %</text>"));
+  CHECK_FALSE(has(chart, "10.0 %"));
+  CHECK(has(html, "alpha of lot <span class=\"nb\">Q-1,</span> &quot;A&quot; on the brew day"));
+}
+
+TEST_CASE("swap --for bittering --html without stock: the chart says every value is a catalog midpoint") {
+  const bine::test::TempDir dir;
+  const fs::path page = dir.path() / "swap.html";
+  const auto run = run_cli({"--catalog", fixture("csv-out-catalog.json"), "swap", "Fixture Twin", "--for", "bittering",
+                            "--html", page.string()});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const std::string html = slurp(page);
+  CHECK(has(html, "Every value: the middle of the catalog range."));
+  CHECK_FALSE(has(html, "alpha_today_percent"));
+  // Catalog midpoints by hand: Test, "quoted" hop (9 + 11) / 2 = 10.0 %; Fixture Twin (6 + 8) / 2 = 7.0 %.
+  CHECK(has(html, ": 10.0 %</title>"));
+  CHECK(has(html, ": 7.0 %</title>"));
 }

@@ -9,6 +9,7 @@
 #include "report/html_cells.hpp"
 #include "report/html_page.hpp"
 #include "report/html_table.hpp"
+#include "report/html_text.hpp"
 #include "report/svg_chart.hpp"
 
 namespace {
@@ -63,7 +64,8 @@ TEST_CASE("html table: headings, escaped cells with their column label, JSON poi
   // 1360 g is written in kg (format_mass from 1000 g up): the factor from the JSON's grams is 0.001.
   CHECK(has(out, "<td data-label=\"weigh\" class=\"num\" data-json=\"/x/0/grams\" data-scale=\"0.001\">1.36 kg</td>"));
   // A share of 0.256 shown in % (x 100, one decimal: 25.6).
-  CHECK(has(out, "<tfoot>\n<tr><td data-label=\"variety\">total</td>"));
+  // The totals row's own label needs no column heading beside it on a phone's card.
+  CHECK(has(out, "<tfoot>\n<tr><td data-label=\"\">total</td>"));
   CHECK(has(out, "data-json=\"/share\" data-scale=\"100\">25.6 %</td>"));
 }
 
@@ -104,6 +106,32 @@ TEST_CASE("svg chart: title and desc, labelled value axis, one bar per value wit
   CHECK(has(svg, ">result</text>"));
 }
 
+TEST_CASE("svg chart: text in CSS px (no viewBox), bars in percent of the plot, a note under the chart") {
+  html::BarChart chart;
+  chart.id = "c2";
+  chart.title = "IBU per addition";
+  chart.axis_label = "bitterness (IBU)";
+  chart.axis_max = 40.0;
+  chart.note = "Alpha of lot KS-25-007.";
+  chart.rows.push_back({"1. Hop", {30.0}, {"30.0 IBU"}, {"/a/0"}});
+  const std::string svg = html::bar_chart(chart);
+  CHECK_FALSE(has(svg, "viewBox"));
+  CHECK(has(svg, "width=\"100%\""));
+  // Hand arithmetic: 30 IBU on an axis ending at 40 is 75 % of the plot; the value is written 4 px after it.
+  CHECK(has(svg, "<rect x=\"0\" y=\""));
+  CHECK(has(svg, "width=\"75.00%\""));
+  CHECK(has(svg, "x=\"75.00%\" dx=\"4\""));
+  CHECK(has(svg, "font-size=\"14\" font-weight=\"600\""));
+  CHECK(has(svg, "<p class=\"chart-note\">Alpha of lot <span class=\"nb\">KS-25-007.</span></p>"));
+}
+
+TEST_CASE("svg chart: an axis ends at the first tick at or above the largest value") {
+  // Hand arithmetic: 30.5 -> step 10 (30.5 / 5 = 6.1 -> 10) -> 40; 5 -> step 1 -> 5; nothing above 0 -> 1.
+  CHECK(html::axis_end(30.5) == doctest::Approx(40.0));
+  CHECK(html::axis_end(5.0) == doctest::Approx(5.0));
+  CHECK(html::axis_end(0.0) == doctest::Approx(1.0));
+}
+
 TEST_CASE("svg chart: ticks step by 1, 2 or 5 times a power of ten") {
   // Hand arithmetic: 47/5 = 9.4 -> 10; 4.8/5 = 0.96 -> 1; 5/5 = 1 -> 1; 120/5 = 24 -> 50; 0.3/5 = 0.06 -> 0.1.
   CHECK(html::tick_step(47.0, 5) == doctest::Approx(10.0));
@@ -111,4 +139,65 @@ TEST_CASE("svg chart: ticks step by 1, 2 or 5 times a power of ten") {
   CHECK(html::tick_step(5.0, 5) == doctest::Approx(1.0));
   CHECK(html::tick_step(120.0, 5) == doctest::Approx(50.0));
   CHECK(html::tick_step(0.3, 5) == doctest::Approx(0.1));
+}
+
+TEST_CASE("html text: a figure and its unit, a lot code, a date, a range, an option and a rank never break") {
+  CHECK(html::text_html("12.3 % alpha") == "<span class=\"nb\">12.3 %</span> alpha");
+  CHECK(html::text_html("(80 C for 20 min),") ==
+        "<span class=\"nb\">(80 C</span> for <span class=\"nb\">20 min),</span>");
+  CHECK(html::text_html("lot KS-25-007 on 2026-06-01:") ==
+        "lot <span class=\"nb\">KS-25-007</span> on <span class=\"nb\">2026-06-01:</span>");
+  CHECK(html::text_html("6.0-8.0%") == "<span class=\"nb\">6.0-8.0%</span>");
+  CHECK(html::text_html("--rate or --oil-dose") == "--rate or <span class=\"nb\">--oil-dose</span>");
+  CHECK(html::text_html("2. Clearbourne") == "<span class=\"nb\">2. Clearbourne</span>");
+  // Words joined by a hyphen break there as words do; a number before a plain word is not a unit.
+  CHECK(html::text_html("Late-hop stone-fruit") == "Late-hop stone-fruit");
+  CHECK(html::text_html("of 14 candidates") == "of 14 candidates");
+  // Escaped inside and out; a path longer than kMaxUnbroken (24) characters stays free to wrap.
+  CHECK(html::text_html("A<1> 5 g") == "A&lt;1&gt; <span class=\"nb\">5 g</span>");
+  CHECK(html::text_html("/work/descriptor-data/examples/pale-ale.json") ==
+        "/work/descriptor-data/examples/pale-ale.json");
+}
+
+TEST_CASE("html text: a heading of three words or more wraps into two balanced lines at most") {
+  // "alpha on brew day": halves "alpha on" (8) and "brew day" (8) beat "alpha" / "on brew day" (11).
+  CHECK(html::heading_html("alpha on brew day") ==
+        "<span class=\"nb\">alpha on</span> <span class=\"nb\">brew day</span>");
+  CHECK(html::heading_min_chars("alpha on brew day") == 8);
+  CHECK(html::heading_html("on hand") == "on hand");
+  CHECK(html::heading_min_chars("on hand") == 4);
+  CHECK(html::heading_min_chars("substitute, best first") == 11);  // "substitute," / "best first"
+}
+
+TEST_CASE("html table: a table that fits a phone stays a table, a wide one becomes cards") {
+  // Two short columns: "figure"/"total bitterness" and "value"/"38.9 IBU" (8 characters kept
+  // whole): about 16 x 8.6 px + 8 x 8.6 px + 2 x 14.4 px = 235 px, under the 336 px of a phone.
+  html::Table narrow("", {{"figure"}, {"value", true}});
+  narrow.add_row({"total bitterness", html::number_cell(38.9, 1, " IBU", "/ibu")});
+  CHECK(narrow.phone_width() < html::kPhoneColumnPx);
+  CHECK(has(narrow.str(), "<table class=\"sheet\">"));
+  // Eight columns of figures with units cannot fit 336 px: cards, and each figure kept whole.
+  std::vector<html::Column> columns;
+  std::vector<html::Cell> row;
+  for (int c = 0; c < 8; ++c) {
+    columns.push_back({"weigh " + std::to_string(c), true});
+    row.push_back(html::mass_cell(1234.0, UnitSystem::metric, "/g"));
+  }
+  html::Table wide("", columns);
+  wide.add_row(row);
+  CHECK(wide.phone_width() > html::kPhoneColumnPx);
+  CHECK(has(wide.str(), "<table class=\"sheet cards\">"));
+}
+
+TEST_CASE("html table: on a card, long text and a figure too wide for half a card take the whole width") {
+  html::Table table("", {{"lot", false, true}, {"note"}, {"total oil", true}, {"days", true}});
+  // "more tropical, less citrus" is 26 characters, over the 18 that share a card's row. The range
+  // "1.2-2.0 mL/100 g" (16 characters, 138 px) beside "total" (5 bold, 47 px) is wider than half a
+  // card ((336 - 14.4) / 2 - 8 = 152.8 px); "12 days" beside "days" is not.
+  table.add_row({"KS-1", "more tropical, less citrus", "1.2-2.0 mL/100 g", "12 days"});
+  const std::string out = table.str();
+  CHECK(has(out, "data-label=\"note\" class=\"long\">"));
+  CHECK(has(out, "data-label=\"total oil\" class=\"num long\">"));
+  CHECK(has(out, "data-label=\"days\" class=\"num\">12 days</td>"));
+  CHECK(has(out, "data-label=\"lot\" class=\"code\">KS-1</td>"));
 }

@@ -175,15 +175,24 @@ TEST_CASE("a bittering swap's HTML charts alpha, beta and cohumulone, not aroma"
   const html::PageMeta meta{"2026-12-01", "9.9.9", {}};
   const std::string page = swap_html(r, UnitSystem::metric, false, meta);
   // The chart's values are range midpoints (hand arithmetic): missing alpha (6 + 8) / 2 = 7.0 %,
-  // beta (4 + 5) / 2 = 4.5 %, cohumulone (30 + 34) / 2 = 32.0 %; the first substitute's alpha
-  // (8 + 10) / 2 = 9.0 %, cohumulone (20 + 24) / 2 = 22.0 %.
+  // beta (4 + 5) / 2 = 4.5 %, cohumulone (30 + 34) / 2 = 32.0 %; the first substitute's
+  // cohumulone (20 + 24) / 2 = 22.0 %; the second's alpha (5 + 7) / 2 = 6.0 % (its lot has no
+  // alpha on the brew day).
   const auto chart = page.find("Bittering acids: ");
   REQUIRE(chart != std::string::npos);
   for (const char* value :
-       {": 7.0 %</title>", ": 4.5 %</title>", ": 32.0 %</title>", ": 9.0 %</title>", ": 22.0 %</title>"}) {
+       {": 7.0 %</title>", ": 4.5 %</title>", ": 32.0 %</title>", ": 22.0 %</title>", ": 6.0 %</title>"}) {
     INFO(value);
     CHECK(page.find(value, chart) != std::string::npos);
   }
+  // The first substitute's lot has an alpha on the brew day, 8.2649 %: the chart shows it (8.3 %,
+  // tied to the JSON value the table shows), not its catalog midpoint (8 + 10) / 2 = 9.0 %, and says so.
+  CHECK(page.find("data-json=\"/substitutes/0/alpha_today_percent\">8.3 %</text>", chart) != std::string::npos);
+  CHECK(page.find(": 9.0 %</title>", chart) == std::string::npos);
+  CHECK(page.find("alpha of lot L&lt;1&gt; on the brew day", chart) != std::string::npos);
+  CHECK(page.find("Every value: the middle of the catalog range.", chart) != std::string::npos);  // the second
+  // All charts on one scale: the largest value, 32.0 %, ends the axis at 40 (step 10, hand arithmetic).
+  CHECK(page.find(">40</text>", chart) != std::string::npos);
   CHECK(page.find("Per aroma axis") == std::string::npos);  // no aroma chart
   // The aroma swap keeps its aroma chart.
   CHECK(swap_html(hand_built(SwapPurpose::aroma), UnitSystem::metric, false, meta).find("Per aroma axis") !=
