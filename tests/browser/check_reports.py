@@ -43,7 +43,7 @@ def reports():
     ex = os.path.join("descriptor-data", "examples")
     pale, stock = os.path.join(ex, "pale-ale.json"), os.path.join(ex, "stock.json")
     hazy = os.path.join(ex, "hazy-ipa.json")
-    fixtures = os.path.join(source, "tests", "fixtures")
+    fixtures = os.path.join("tests", "fixtures")
     return {
         "ibu": ["ibu", pale],
         "ibu-hazy": ["ibu", hazy],
