@@ -99,25 +99,36 @@ void render_splits(std::ostream& out, const Recipe& recipe, const RebalanceResul
   }
 }
 
+/// Where the held total, as printed, differs from the total as written: the amounts are weighed to
+/// 0.1 g (1 g above 100 g) after the exact solve, and that rounding moves the total a little.
+std::string weighing_note(const RebalanceResult& result) {
+  const double before = result.before.total_ibu;
+  const double after = result.after.total_ibu;
+  if (fmt::format("{:.1f}", before) == fmt::format("{:.1f}", after)) return {};
+  return fmt::format(" ({:.1f} IBU as written: weighing the amounts to 0.1 g moves the total by {:+.2f} IBU)", before,
+                     after - before);
+}
+
 /// Who took the IBU change, and the total it holds at (`total`: its interval, when shown).
 void render_held_total(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, UnitSystem units,
                        const IbuRange* total) {
+  const std::string weighed = weighing_note(result);
   if (result.absorber) {
     const auto& row = result.additions[*result.absorber];
     const HopAddition& hop = recipe.hops[row.index];
     out << fmt::format(
         "Addition {} ({}, {}) absorbed the IBU change of {:+.2f} IBU from the other additions (its own IBU "
-        "changed by {:+.2f} IBU), so the total holds at {}.\n",
+        "changed by {:+.2f} IBU), so the total holds at {}{}.\n",
         row.index + 1, row.variety, describe_use(hop, units), -result.ibu_change_absorbed + 0.0,
-        result.ibu_change_absorbed, ibu_figure(result.after.total_ibu, total));
+        result.ibu_change_absorbed, ibu_figure(result.after.total_ibu, total), weighed);
   } else if (result.whirlpool_scaled) {
     out << fmt::format(
         "No boil addition: the new lots changed the whirlpool IBU by {:+.2f} IBU and the whirlpool additions "
-        "were scaled to make it up, so the total holds at {} but their aroma changes.\n",
-        -result.ibu_change_absorbed + 0.0, ibu_figure(result.after.total_ibu, total));
+        "were scaled to make it up, so the total holds at {}{} but their aroma changes.\n",
+        -result.ibu_change_absorbed + 0.0, ibu_figure(result.after.total_ibu, total), weighed);
   } else {
-    out << fmt::format("Each addition holds its own IBU; the total stays at {}.\n",
-                       ibu_figure(result.after.total_ibu, total));
+    out << fmt::format("Each addition holds its own IBU; the total stays at {}{}.\n",
+                       ibu_figure(result.after.total_ibu, total), weighed);
   }
 }
 

@@ -47,7 +47,7 @@ TEST_CASE("ibu --html: the schedule as weighed, the IBU chart, BU:GU and the hot
 TEST_CASE("age --html: certificate and brew-day alpha, stability source, no catalog named when none was read") {
   const bine::test::TempDir dir;
   const fs::path page = dir.path() / "lot.html";
-  // METHODS.md check value (as in ibu_cli_test): 6.0 %, stability 50, vacuum, -18 C, 365 days -> 5.31 %.
+  // docs/methods.md check value (as in ibu_cli_test): 6.0 %, stability 50, vacuum, -18 C, 365 days -> 5.31 %.
   const auto run = run_cli({"age", "--alpha", "6.0", "--packaged", "2025-01-01", "--stored", "-18 C,vacuum",
                             "--stability", "50", "--on", "2026-01-01", "--html", page.string()});
   INFO(run.err);

@@ -1,5 +1,5 @@
 // End-to-end (in-process, run_in_process.hpp): bine ibu and bine age on small fixture files;
-// expected values are METHODS.md check values or hand arithmetic written beside them.
+// expected values are docs/methods.md check values or hand arithmetic written beside them.
 #include <doctest/doctest.h>
 
 #include <nlohmann/json.hpp>
@@ -9,7 +9,7 @@
 using bine::test::fixture;
 using bine::test::run_cli;
 
-TEST_CASE("ibu --json: 28 g at 10 %, 60 min, 20 L, 1.050, whole -> 32.3 IBU (Tinseth, METHODS.md)") {
+TEST_CASE("ibu --json: 28 g at 10 %, 60 min, 20 L, 1.050, whole -> 32.3 IBU (Tinseth, docs/methods.md)") {
   const auto result = run_cli({"ibu", "--json", fixture("h3-single-boil.json")});
   INFO(result.err);
   REQUIRE(result.status == 0);
@@ -37,7 +37,7 @@ TEST_CASE("ibu --model rager at 1.070: 0.3082 x 140 / 1.1 = 39.2 IBU (hand arith
 }
 
 TEST_CASE("ibu text: table with units, hot-wort caution once, ends with the BU:GU reading") {
-  // Whirlpool 100 g at 10 % in 20 L: 500 mg/L x U 0.0314 (METHODS.md, 20 min at 80 C) = 15.7 IBU.
+  // Whirlpool 100 g at 10 % in 20 L: 500 mg/L x U 0.0314 (docs/methods.md, 20 min at 80 C) = 15.7 IBU.
   const auto result = run_cli({"ibu", fixture("h3-whirlpool.json")});
   REQUIRE(result.status == 0);
   CHECK(result.out.find("15.7 IBU") != std::string::npos);
@@ -81,7 +81,7 @@ TEST_CASE("ibu rejects bad recipes with one clear line and exit 2") {
   CHECK(model.err.find("--model: \"guess\"") != std::string::npos);
 }
 
-TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (METHODS.md)") {
+TEST_CASE("age --json: 6.0 %, PL 50, vacuum, -18 C, 365 days -> 5.31 % (docs/methods.md)") {
   const auto result = run_cli({"age", "--alpha", "6.0", "--packaged", "2025-12-01", "--stored", "-18 C,vacuum",
                                "--stability", "50", "--on", "2026-12-01", "--json"});
   INFO(result.err);
@@ -139,8 +139,8 @@ TEST_CASE("age rejects a packaging date after --on, bad storage and missing stab
   CHECK(none.err.find("expected exactly one") != std::string::npos);
 }
 
-TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the stand (METHODS.md)") {
-  // t_boil 0 + t_eq 3.31 min -> U 0.0314 (METHODS.md); 140 mg/L x 0.0314 = 4.40 IBU.
+TEST_CASE("ibu: a flame-out addition left in a 20 min stand at 80 C counts the stand (docs/methods.md)") {
+  // t_boil 0 + t_eq 3.31 min -> U 0.0314 (docs/methods.md); 140 mg/L x 0.0314 = 4.40 IBU.
   const auto result = run_cli({"ibu", "--json", fixture("h3-hop-stand.json")});
   INFO(result.err);
   REQUIRE(result.status == 0);

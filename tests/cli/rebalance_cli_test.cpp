@@ -1,8 +1,9 @@
 // End-to-end (in-process, run_in_process.hpp): bine rebalance on fixture files; expected values by hand arithmetic and
-// the METHODS.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
+// the docs/methods.md check value (same IBU, 30 g at 7.0 % -> lot at 9.5 %: 22.1 g).
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <cstdio>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -55,7 +56,7 @@ TEST_CASE("rebalance --stock: alpha aged to --on and the shortfall reported") {
   INFO(result.err);
   REQUIRE(result.status == 0);
   const auto json = nlohmann::json::parse(result.out);
-  // 6.0 %, stability 50, vacuum, -18 C, 365 d -> 5.314 % (METHODS.md); 30 x 7.0 / 5.314 = 39.5 g.
+  // 6.0 %, stability 50, vacuum, -18 C, 365 d -> 5.314 % (docs/methods.md); 30 x 7.0 / 5.314 = 39.5 g.
   CHECK(json["additions"][0]["alpha_after"].get<double>() == doctest::Approx(5.314).epsilon(1e-3));
   CHECK(json["additions"][0]["grams_after"].get<double>() == doctest::Approx(39.52).epsilon(1e-3));
   REQUIRE(json["shortfalls"].size() == 1);
@@ -200,4 +201,34 @@ TEST_CASE("rebalance with a brewhouse profile: the factor applied, and its t int
                                   "2026-12-01", "--brewhouse", fixture("iv-brewhouse.json")});
   REQUIRE(text.status == 0);
   CHECK(text.out.find("certificate tolerance and the brewhouse factor; 10^4 seeded draws") != std::string::npos);
+}
+
+TEST_CASE("rebalance text: when weighing to 0.1 g moves the printed total, the held-total line says by how much") {
+  // The demo pale ale from the demo stock: the absorbing Keelstone charge is solved exactly, then
+  // weighed to 0.1 g (19.5 g), which moves the total a few hundredths of an IBU. The line must give
+  // the total as written and the shift, equal to the JSON's totals after minus before.
+  const std::vector<std::string> args{"rebalance", bine::test::example("pale-ale.json"),
+                                      "--stock",   bine::test::example("stock.json"),
+                                      "--on",      "2026-12-01"};
+  auto json_args = args;
+  json_args.push_back("--json");
+  const auto text = run_cli(args);
+  const auto doc_run = run_cli(json_args);
+  REQUIRE(text.status == 0);
+  REQUIRE(doc_run.status == 0);
+  const auto doc = nlohmann::json::parse(doc_run.out);
+  const double before = doc.at("total_ibu_before");
+  const double after = doc.at("total_ibu_after");
+  char written[16];
+  char shift[16];
+  std::snprintf(written, sizeof written, "%.1f", before);
+  std::snprintf(shift, sizeof shift, "%+.2f", after - before);
+  char printed_after[16];
+  std::snprintf(printed_after, sizeof printed_after, "%.1f", after);
+  const bool differs = std::string(written) != printed_after;
+  const std::string note = std::string("(") + written +
+                           " IBU as written: weighing the amounts to 0.1 g moves the total by " + shift + " IBU)";
+  INFO(text.out);
+  CHECK((text.out.find(note) != std::string::npos) == differs);
+  CHECK(std::abs(after - before) < 0.1);  // weighing 19.5 g to 0.1 g cannot move 1.5 IBU/g by more
 }
