@@ -50,7 +50,9 @@ std::string schedule_table(const RebalanceResult& result, const RebalanceInterva
                    html::number_cell(row.alpha_after, 2, " %", add_pointer(i, "alpha_after")),
                    html::mass_cell(row.grams_before, units, add_pointer(i, "grams_before")),
                    html::mass_cell(row.grams_after, units, add_pointer(i, "grams_after")),
-                   html::ibu_cell(row.ibu_after, after_range(intervals, i), add_pointer(i, "ibu_after")),
+                   row.use == HopUse::dry_hop  // no IBU model for dry hops: "-" as in the text
+                       ? html::Cell("-")
+                       : html::ibu_cell(row.ibu_after, after_range(intervals, i), add_pointer(i, "ibu_after")),
                    std::string(to_string(row.rule))});
   }
   table.set_total({"", "total", "", "", "", "", "",
@@ -148,16 +150,16 @@ std::string absorber_text(const RebalanceResult& result, const RebalanceInterval
   if (result.absorber) {
     const RebalancedAddition& row = result.additions[*result.absorber];
     const HopAddition& hop = hop_after(result, *result.absorber);
-    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {}.",
+    return fmt::format("Addition {} ({}, {}) took the IBU change of {:+.2f} IBU, so the total holds at {}{}.",
                        row.index + 1, row.variety, describe_use(row.use, hop.minutes, hop.temperature_c, units),
-                       result.ibu_change_absorbed, total);
+                       result.ibu_change_absorbed, total, weighing_note(result));
   }
   if (result.whirlpool_scaled)
     return fmt::format(
         "No boil addition: the whirlpool additions took the IBU change of {:+.2f} IBU (their aroma "
-        "changes); the total holds at {}.",
-        result.ibu_change_absorbed, total);
-  return fmt::format("Each addition holds its own IBU; the total stays at {}.", total);
+        "changes); the total holds at {}{}.",
+        result.ibu_change_absorbed, total, weighing_note(result));
+  return fmt::format("Each addition holds its own IBU; the total stays at {}{}.", total, weighing_note(result));
 }
 
 /// A sentence per addition split across lots: its parts' IBU together, as written and rebalanced.

@@ -99,16 +99,6 @@ void render_splits(std::ostream& out, const Recipe& recipe, const RebalanceResul
   }
 }
 
-/// Where the held total, as printed, differs from the total as written: the amounts are weighed to
-/// 0.1 g (1 g above 100 g) after the exact solve, and that rounding moves the total a little.
-std::string weighing_note(const RebalanceResult& result) {
-  const double before = result.before.total_ibu;
-  const double after = result.after.total_ibu;
-  if (fmt::format("{:.1f}", before) == fmt::format("{:.1f}", after)) return {};
-  return fmt::format(" ({:.1f} IBU as written: weighing the amounts to 0.1 g moves the total by {:+.2f} IBU)", before,
-                     after - before);
-}
-
 /// Who took the IBU change, and the total it holds at (`total`: its interval, when shown).
 void render_held_total(std::ostream& out, const Recipe& recipe, const RebalanceResult& result, UnitSystem units,
                        const IbuRange* total) {
@@ -133,6 +123,16 @@ void render_held_total(std::ostream& out, const Recipe& recipe, const RebalanceR
 }
 
 }  // namespace
+
+// The amounts are weighed to 0.1 g (1 g above 100 g) after the exact solve; that rounding moves the
+// total a little.
+std::string weighing_note(const RebalanceResult& result) {
+  const double before = result.before.total_ibu;
+  const double after = result.after.total_ibu;
+  if (fmt::format("{:.1f}", before) == fmt::format("{:.1f}", after)) return {};
+  return fmt::format(" ({:.1f} IBU as written: weighing the amounts to 0.1 g moves the total by {:+.2f} IBU)", before,
+                     after - before);
+}
 
 std::vector<SplitAddition> split_additions(const RebalanceResult& result, const RebalanceIntervals* intervals) {
   std::vector<SplitAddition> splits;

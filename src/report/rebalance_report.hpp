@@ -29,6 +29,10 @@ struct SplitAddition {
   const IbuRange* before = nullptr;  // their 90 % intervals, when shown
   const IbuRange* after = nullptr;
 };
+/// " (38.9 IBU as written: weighing the amounts to 0.1 g moves the total by -0.03 IBU)" when the
+/// held total, as printed, differs from the total as written; empty when they print alike.
+std::string weighing_note(const RebalanceResult& result);
+
 /// The split additions of `result` in recipe order (none unless a stock rebalance split one).
 std::vector<SplitAddition> split_additions(const RebalanceResult& result, const RebalanceIntervals* intervals);
 
