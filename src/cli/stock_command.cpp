@@ -12,8 +12,10 @@
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
 #include "cli/option_values.hpp"
+#include "engine/stock_plan.hpp"
 #include "engine/stock_rebalance.hpp"
 #include "engine/stock_view.hpp"
+#include "io/brew_schedule.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/lot_receipts.hpp"
@@ -23,6 +25,7 @@
 #include "model/names.hpp"
 #include "report/bitterness_report.hpp"
 #include "report/html_reports.hpp"
+#include "report/stock_plan_report.hpp"
 #include "report/stock_report.hpp"
 
 namespace bine::cli {
@@ -52,8 +55,16 @@ struct AdjustOptions {
 struct UseOptions {
   std::string recipe;
   std::string batches;
+  bool json = false;
   CellarOptions cellar;
   BitternessOptions bitterness;
+};
+
+struct PlanOptions {
+  std::string schedule;
+  CellarOptions cellar;
+  BitternessOptions bitterness;
+  bool json = false;
 };
 
 struct HistoryOptions {
@@ -269,6 +280,7 @@ void run_adjust(const Console& console, const GlobalOptions& globals, const Adju
 struct UseArgs {
   std::string recipe;
   std::size_t batches = 1;
+  bool json = false;
   CellarChoice cellar;
   BitternessSettings settings;
 };
@@ -278,6 +290,7 @@ UseArgs parse_use_args(const UseOptions& options) {
   UseArgs args;
   args.recipe = options.recipe;
   args.batches = reader.count("--batches", options.batches, limits::batches, 1).value_or(1);
+  args.json = options.json;
   args.cellar = read_cellar_options(reader, options.cellar);
   args.settings = read_bitterness_options(reader, options.bitterness);
   reader.throw_if_any();
@@ -340,13 +353,51 @@ void run_use(const Console& console, const GlobalOptions& globals, const UseArgs
     entry.changes.push_back(LotChange{
         LotChangeKind::amount, draw.lot, draw.code, draw.variety, before, ledger_grams(before - draw.grams), {}});
   }
-  console.out << fmt::format("{} x{} on {}{}, weighed per batch:\n", entry.recipe, args.batches, entry.on,
+  const JournalEntry& written = ledger.commit(std::move(entry));
+  if (args.json) {
+    if (ledger.completed_pending())
+      console.err << "bine: note: completed the last journal entry, which an interrupted bine had not yet written to "
+                  << ledger.stock_file().string() << '\n';
+    console.out << stock_use_to_json(written, used.result.additions, ledger.stock_file().string(),
+                                     ledger.journal_file().string())
+                       .dump(2)
+                << '\n';
+    return;
+  }
+  console.out << fmt::format("{} x{} on {}{}, weighed per batch:\n", written.recipe, args.batches, written.on,
                              args.cellar.on.from_clock ? " (today; pass --on DATE to reproduce)" : "");
   for (const auto& row : used.result.additions)
     console.out << fmt::format("  addition {} {} ({}): {} from lot {}\n", row.index + 1, row.variety,
                                describe_use(used.recipe.hops[row.index], units), format_mass(row.grams_after, units),
                                row.lot);
-  report_change(console, ledger, ledger.commit(std::move(entry)), globals);
+  report_change(console, ledger, written, globals);
+}
+
+// ---- plan ---------------------------------------------------------------------------------------
+
+/// Reads the schedule and each recipe it names, walks the brews through the stock (never written).
+void run_plan(const Console& console, const GlobalOptions& globals, const PlanOptions& options,
+              const std::string& stock_option) {
+  OptionReader reader;
+  const CellarChoice cellar = read_cellar_options(reader, options.cellar);
+  const BitternessSettings settings = read_bitterness_options(reader, options.bitterness);
+  reader.throw_if_any();
+  const std::vector<ScheduledBrew> schedule = read_brew_schedule(options.schedule);
+  const std::string stock_file = stock_file_or_env(stock_option);
+  const DataSet data = load_data(globals, console);
+  std::vector<PlannedBrew> brews;
+  for (const ScheduledBrew& brew : schedule)
+    brews.push_back(PlannedBrew{read_recipe_file(brew.recipe_file, BeerXmlReadOptions{}).recipe, brew.recipe_as_written,
+                                brew.on, brew.batches});
+  std::optional<StockPlan> plan;
+  {
+    const StockLedger ledger(stock_file, true);  // read under the lock, as it stands after any pending change
+    plan = plan_stock(ledger.stock(), data.catalog, std::move(brews), cellar.settings, settings);
+  }
+  const PlanSource source{options.schedule, stock_file, cellar.settings.stale_below};
+  print_result(
+      console, options.json, data, [&] { return stock_plan_to_json(*plan, source); },
+      [&](std::ostream& out) { render_stock_plan(out, *plan, source, globals.unit_system()); });
 }
 
 // ---- history and undo -----------------------------------------------------------------------------
@@ -478,16 +529,44 @@ void setup_use(CLI::App* stock, const GlobalOptions& globals, CommandTable& comm
   auto* use = stock->add_subcommand("use", "take what a recipe weighs out of the stock, lot by lot (journalled)");
   use->add_option("RECIPE", o->recipe, "recipe file (bine JSON or BeerXML 1.0)")->required();
   use->add_option("--batches", o->batches, "batches brewed (default 1)");
+  use->add_flag("--json", o->json,
+                "print JSON: the journal entry's id, each addition's lot and grams, each lot's grams before and after");
   add_cellar_options(use, o->cellar, true);
   add_bitterness_options(use, o->bitterness);
   use->footer(
       "The lots and grams are those rebalance --stock gives for the same options: the lot an addition names,\n"
       "else oldest packaging first, split across lots where one has too little. A shortfall changes nothing.\n"
-      "Example:\n"
-      "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01 --batches 2");
+      "Examples:\n"
+      "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01 --batches 2\n"
+      "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01 --json");
   commands.add(use, [&globals, o, stock_option](const Console& console) {
     run_use(console, globals, parse_use_args(*o), *stock_option);
   });
+}
+
+void setup_plan(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
+                const std::shared_ptr<std::string>& stock_option) {
+  auto o = std::make_shared<PlanOptions>();
+  auto* plan = stock->add_subcommand(
+      "plan", "walk a brewing schedule through the stock: what runs short, by when, and what turns stale first");
+  plan->add_option("SCHEDULE", o->schedule,
+                   "JSON {\"brews\": [{\"recipe\", \"on\", \"batches\"}]} or CSV with headers recipe,on,batches; "
+                   "recipe files relative to the schedule's folder")
+      ->required();
+  plan->add_option("--stale-below", o->cellar.stale_below,
+                   "a lot with less than this share of its certificate alpha is stale (default 75%)");
+  plan->add_option("--lot-order", o->cellar.lot_order,
+                   "which lot of a variety is weighed first: oldest (packaging date, the default) or most (on hand)");
+  plan->add_flag("--allow-stale", o->cellar.allow_stale, "use stale lots too (they are left out by default)");
+  plan->add_flag("--json", o->json, "print JSON (canonical units)");
+  add_bitterness_options(plan, o->bitterness);
+  plan->footer(
+      "Each brew takes its hops as stock use would on its day (lots aged to that day); nothing is written.\n"
+      "Examples:\n"
+      "  bine stock --stock stock.json plan schedule.json\n"
+      "  bine stock --stock stock.json plan schedule.csv --json");
+  commands.add(plan,
+               [&globals, o, stock_option](const Console& console) { run_plan(console, globals, *o, *stock_option); });
 }
 
 void setup_changes(CLI::App* stock, const GlobalOptions& globals, CommandTable& commands,
@@ -519,7 +598,7 @@ void setup_changes(CLI::App* stock, const GlobalOptions& globals, CommandTable& 
 
 void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands) {
   auto stock_option = std::make_shared<std::string>();
-  auto* stock = app.add_subcommand("stock", "keep the cold store: list, receive, use, adjust, undo, history");
+  auto* stock = app.add_subcommand("stock", "keep the cold store: list, receive, use, plan, adjust, undo, history");
   stock->add_option("--stock", *stock_option, "the stock file (default: $BINE_STOCK)");
   stock->require_subcommand(1);
   stock->fallthrough();
@@ -527,6 +606,7 @@ void setup_stock_command(CLI::App& app, const GlobalOptions& globals, CommandTab
   setup_list(stock, globals, commands, stock_option);
   setup_receive(stock, globals, commands, stock_option);
   setup_use(stock, globals, commands, stock_option);
+  setup_plan(stock, globals, commands, stock_option);
   setup_changes(stock, globals, commands, stock_option);
 }
 

@@ -167,4 +167,40 @@ nlohmann::json history_to_json(const std::vector<JournalEntry>& entries) {
   return out;
 }
 
+nlohmann::json stock_use_to_json(const JournalEntry& entry, const std::vector<RebalancedAddition>& additions,
+                                 const std::string& stock_file, const std::string& journal_file) {
+  const double batches = static_cast<double>(entry.batches);
+  nlohmann::json rows = nlohmann::json::array();
+  for (const RebalancedAddition& row : additions)
+    rows.push_back({{"addition", row.index + 1},
+                    {"part", row.part},
+                    {"parts", row.parts},
+                    {"variety", row.variety},
+                    {"use", std::string(to_string(row.use))},
+                    {"lot", row.lot},
+                    {"alpha_percent", row.alpha_after},
+                    {"grams_as_written_per_batch", ledger_grams(row.grams_before)},
+                    {"grams_per_batch", ledger_grams(row.grams_after)},
+                    {"grams", ledger_grams(row.grams_after * batches)}});
+  nlohmann::json lots = nlohmann::json::array();
+  for (const LotChange& change : entry.changes)
+    lots.push_back({{"index", change.index},
+                    {"lot", change.lot},
+                    {"variety", change.variety},
+                    {"before_g", change.before_g},
+                    {"after_g", change.after_g},
+                    {"taken_g", ledger_grams(change.before_g - change.after_g)}});
+  return {{"command", "use"},
+          {"journal_entry", entry.id},
+          {"recipe", entry.recipe},
+          {"recipe_file", entry.recipe_file},
+          {"recipe_sha256", entry.recipe_sha256},
+          {"batches", entry.batches},
+          {"on", entry.on},
+          {"additions", rows},
+          {"lots", lots},
+          {"stock_file", stock_file},
+          {"journal_file", journal_file}};
+}
+
 }  // namespace bine

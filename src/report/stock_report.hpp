@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "engine/rebalance.hpp"
 #include "engine/stock_view.hpp"
 #include "io/stock_ledger.hpp"
 #include "model/quantity.hpp"
@@ -26,5 +27,11 @@ nlohmann::json history_to_json(const std::vector<JournalEntry>& entries);
 
 /// One change as recorded: "journal entry 4 (use): TW-26-018 Tidewell 10 kg -> 9.95 kg".
 void render_change(std::ostream& out, const JournalEntry& entry, UnitSystem units);
+
+/// `bine stock use --json`: the change as journalled (entry id, recipe, batches, brew day), what each
+/// addition (part) was weighed from (grams as written and as weighed, per batch and for every batch)
+/// and each lot's grams before and after. Canonical units; grams to 0.01 g as the ledger stores them.
+nlohmann::json stock_use_to_json(const JournalEntry& entry, const std::vector<RebalancedAddition>& additions,
+                                 const std::string& stock_file, const std::string& journal_file);
 
 }  // namespace bine

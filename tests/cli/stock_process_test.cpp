@@ -12,6 +12,7 @@
 #include <chrono>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <nlohmann/json.hpp>
 #include <random>
 #include <string>
@@ -122,32 +123,35 @@ double on_hand_g(const std::filesystem::path& stock) {
   return std::stod(text.substr(0, text.find(' ')));  // "990 g"; the first write turns "1 kg" into grams
 }
 
-}  // namespace
-
-TEST_CASE(
-    "stock adjust killed with SIGKILL at random points (200 rounds): the file is whole and agrees with the journal") {
-  const bine::test::TempDir dir;
-  const auto stock = dir.path() / "stock.json";
-  write_one_lot_stock(stock);
-  std::mt19937 random(20261202);  // fixed seed: the same kill points on every run
-  // Kills spread from before exec to past the end of a full run.
-  const auto start = std::chrono::steady_clock::now();
-  REQUIRE(
-      bine::test::run_bine({"stock", "--stock", stock.string(), "adjust", "FL-1", "--to", "999 g", "--reason", "first"})
-          .status == 0);
-  const auto full_us = std::chrono::duration_cast<std::chrono::microseconds>(std::chrono::steady_clock::now() - start);
-  std::uniform_int_distribution<long> delay_us(0, std::max<long>(1000, static_cast<long>(full_us.count())));
-  int killed = 0;
+/// What a kill test saw over its rounds.
+struct KillRounds {
+  int killed = 0;   // runs SIGKILL ended (the others finished first)
   int pending = 0;  // rounds that ended between the journal line and the stock file
-  for (int round = 0; round < 200; ++round) {
+  long full_us = 0;
+};
+
+/// The kill harness: runs `first` once to the end (timing it, and turning the stock's "1 kg" into
+/// grams), then `rounds` runs of `round_args(round)` on the one-lot `stock`, each killed with SIGKILL
+/// after a random delay from 0 to that time (fixed seed: the same kill points every run). After each,
+/// the stock file must parse, hash to the last journal entry's "after" (written) or "before"
+/// (killed between journal and file), hold that entry's amount accordingly, and the entries must chain.
+KillRounds kill_rounds(const std::filesystem::path& stock, const std::vector<std::string>& first, int rounds,
+                       const std::function<std::vector<std::string>(int)>& round_args) {
+  KillRounds seen;
+  std::mt19937 random(20261202);
+  const auto start = std::chrono::steady_clock::now();
+  REQUIRE(bine::test::run_bine(first).status == 0);
+  seen.full_us = static_cast<long>(
+      std::chrono::duration_cast<std::chrono::microseconds>(std::chrono::steady_clock::now() - start).count());
+  std::uniform_int_distribution<long> delay_us(0, std::max<long>(1000, seen.full_us));
+  for (int round = 0; round < rounds; ++round) {
     INFO("round " << round);
-    const pid_t child = start_bine({"stock", "--stock", stock.string(), "adjust", "FL-1", "--to",
-                                    std::to_string(998 - round) + " g", "--reason", "round"});
+    const pid_t child = start_bine(round_args(round));
     const long wait = delay_us(random);
     const timespec pause{wait / 1000000, (wait % 1000000) * 1000};
     ::nanosleep(&pause, nullptr);
     ::kill(child, SIGKILL);
-    killed += wait_for(child) == -SIGKILL;
+    seen.killed += wait_for(child) == -SIGKILL;
     // Whole: the stock file always parses.
     const std::string text = slurp(stock);
     json parsed;
@@ -160,14 +164,64 @@ TEST_CASE(
     const std::string hash = bine::sha256_hex(text);
     REQUIRE((hash == last["stock_after"] || hash == last["stock_before"]));
     const bool written = hash == last["stock_after"];
-    pending += !written;
+    seen.pending += !written;
     // The amount is the last entry's after (written) or before (pending).
     CHECK(on_hand_g(stock) == (written ? last["changes"][0]["after_g"] : last["changes"][0]["before_g"]));
     // The entries chain: each starts from the file the one before wrote.
     for (std::size_t i = 1; i < lines.size(); ++i) REQUIRE(lines[i]["stock_before"] == lines[i - 1]["stock_after"]);
   }
+  return seen;
+}
+
+}  // namespace
+
+TEST_CASE(
+    "stock adjust killed with SIGKILL at random points (200 rounds): the file is whole and agrees with the journal") {
+  const bine::test::TempDir dir;
+  const auto stock = dir.path() / "stock.json";
+  write_one_lot_stock(stock);
+  const KillRounds seen = kill_rounds(
+      stock, {"stock", "--stock", stock.string(), "adjust", "FL-1", "--to", "999 g", "--reason", "first"}, 200,
+      [&](int round) {
+        return std::vector<std::string>{
+            "stock",    "--stock", stock.string(), "adjust", "FL-1", "--to", std::to_string(998 - round) + " g",
+            "--reason", "round"};
+      });
   // Some runs must have been cut short for the test to say anything.
-  CHECK(killed > 20);
-  MESSAGE("killed " << killed << " of 200 runs, " << pending << " between journal and stock file; one full run took "
-                    << full_us.count() << " us");
+  CHECK(seen.killed > 20);
+  MESSAGE("killed " << seen.killed << " of 200 runs, " << seen.pending
+                    << " between journal and stock file; one full run took " << seen.full_us << " us");
+}
+
+TEST_CASE(
+    "stock use killed with SIGKILL at random points (200 rounds): the file is whole and stock plus journal agree") {
+  const bine::test::TempDir dir;
+  const auto stock = dir.path() / "stock.json";
+  write_one_lot_stock(stock);
+  const auto recipe = dir.path() / "dry-hop.json";
+  std::ofstream(recipe) << R"({"name": "2 g dry hop", "batch_volume": "20 L", "original_gravity": "1.050",
+    "boil_time": "60 min", "hops": [{"variety": "Fernlight", "amount": "2 g", "use": "dry-hop", "time": "4 d"}]})";
+  const std::vector<std::string> use{
+      "--catalog",     std::string(BINE_TEST_DIR) + "/fixtures/stock-ledger-catalog.json",
+      "stock",         "--stock",
+      stock.string(),  "use",
+      recipe.string(), "--on",
+      "2026-03-02"};
+  const KillRounds seen = kill_rounds(stock, use, 200, [&](int) { return use; });
+  // Stock plus journal agree over the whole run: every use entry took 2 g (the lot gives no oil, so the
+  // dry hop holds its grams), so the lot holds 1000 g - 2 g x (use entries the file shows), where the
+  // file shows every entry but a last one still pending. Hand arithmetic: at most 201 entries x 2 g =
+  // 402 g, within the 1000 g.
+  const auto lines = journal_lines(stock);
+  const bool last_written = bine::sha256_hex(slurp(stock)) == lines.back()["stock_after"];
+  const double shown = static_cast<double>(lines.size()) - (last_written ? 0.0 : 1.0);
+  CHECK(on_hand_g(stock) == doctest::Approx(1000.0 - 2.0 * shown));
+  for (const json& line : lines) {
+    CHECK(line["command"] == "use");
+    CHECK(line["changes"][0]["before_g"].get<double>() - line["changes"][0]["after_g"].get<double>() ==
+          doctest::Approx(2.0));
+  }
+  CHECK(seen.killed > 20);
+  MESSAGE("killed " << seen.killed << " of 200 runs, " << seen.pending
+                    << " between journal and stock file; one full run took " << seen.full_us << " us");
 }

@@ -118,3 +118,32 @@ TEST_CASE("stock use refuses an addition the stock holds no lot for, and bad --b
   CHECK(zero.err.find("--batches") != std::string::npos);
   CHECK(slurp(stock.file) == before);
 }
+
+TEST_CASE("stock use --json gives the lots taken, each lot's grams before and after, and each addition's lot") {
+  const ScratchStock stock;
+  const auto run = use(stock, {"--batches", "2", "--json"});
+  INFO(run.err);
+  REQUIRE(run.status == 0);
+  const json out = json::parse(run.out);
+  CHECK(out["command"] == "use");
+  CHECK(out["journal_entry"] == 1);
+  CHECK(out["batches"] == 2);
+  CHECK(out["on"] == "2026-03-02");
+  REQUIRE(out["additions"].size() == 1);
+  const json& row = out["additions"][0];
+  CHECK(row["addition"] == 1);
+  CHECK(row["lot"] == "FL-1");  // FL-2 is older but stale (header: 62.0 % left)
+  CHECK(row["use"] == "dry-hop");
+  // Hand arithmetic: the dry hop holds its 10 g per batch (no lot oil), 2 batches = 20 g.
+  CHECK(row["grams_per_batch"].get<double>() == 10.0);
+  CHECK(row["grams"].get<double>() == 20.0);
+  REQUIRE(out["lots"].size() == 1);
+  const json& lot = out["lots"][0];
+  CHECK(lot["lot"] == "FL-1");
+  CHECK(lot["before_g"].get<double>() == 1000.0);  // the fixture's "1 kg"
+  CHECK(lot["after_g"].get<double>() == 980.0);    // hand arithmetic: 1000 g - 20 g
+  CHECK(lot["taken_g"].get<double>() == 20.0);
+  CHECK(stock.on_hand(0) == "980 g");
+  // The JSON speaks for the journal entry it wrote.
+  CHECK(stock.journal().back()["id"] == out["journal_entry"]);
+}
