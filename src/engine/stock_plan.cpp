@@ -48,13 +48,28 @@ bool asks_for(const Recipe& recipe, const std::string& variety) {
   });
 }
 
-void note_stale(const Cellar& day, const PlannedBrew& brew, std::vector<bool>& reported, StockPlan& plan) {
+void note_stale(const Cellar& day, const PlannedBrew& brew, std::vector<std::optional<std::size_t>>& reported,
+                StockPlan& plan) {
   for (const CellarLot& c : day.lots) {
-    if (!c.stale || reported[c.index] || c.lot.on_hand_g.value_or(0.0) <= 1e-9) continue;
-    reported[c.index] = true;
-    plan.stale.push_back(
-        PlanStaleLot{c.code, c.lot.variety, stale_from(c, day.settings.stale_below), brew.on, *c.lot.on_hand_g,
-                     asks_for(brew.recipe, c.lot.variety) ? brew.recipe.name : std::string(), c.stale_reason});
+    if (!c.stale || c.lot.on_hand_g.value_or(0.0) <= 1e-9) continue;
+    if (!reported[c.index]) {
+      reported[c.index] = plan.stale.size();
+      plan.stale.push_back(PlanStaleLot{c.code,
+                                        c.lot.variety,
+                                        stale_from(c, day.settings.stale_below),
+                                        brew.on,
+                                        *c.lot.on_hand_g,
+                                        {},
+                                        std::nullopt,
+                                        false,
+                                        c.stale_reason});
+    }
+    PlanStaleLot& found = plan.stale[*reported[c.index]];
+    if (found.wanted_by.empty() && asks_for(brew.recipe, c.lot.variety)) {
+      found.wanted_by = brew.recipe.name;
+      found.wanted_on = brew.on;
+      found.taken_stale = day.settings.allow_stale;
+    }
   }
 }
 
@@ -91,7 +106,7 @@ StockPlan plan_stock(const Stock& stock, const Catalog& catalog, std::vector<Pla
   std::stable_sort(brews.begin(), brews.end(), [](const PlannedBrew& a, const PlannedBrew& b) { return a.on < b.on; });
   Stock left = stock;
   StockPlan plan;
-  std::vector<bool> reported(stock.lots.size(), false);
+  std::vector<std::optional<std::size_t>> reported(stock.lots.size());  // index into plan.stale
   for (PlannedBrew& brew : brews) {
     if (brew.recipe.name.empty()) brew.recipe.name = brew.recipe_file;
     const Cellar day = age_cellar(left, catalog, brew.on, cellar);

@@ -53,7 +53,9 @@ struct PlanStaleLot {
   std::optional<Date> stale_from;  // the day its alpha falls below the stale share (aged lots)
   Date stale_on_brew{};            // the day of the first brew on which it is stale
   double grams_left = 0.0;         // what it still holds then
-  std::string wanted_by;           // the recipe of that brew when it asks for the lot's variety, else empty
+  std::string wanted_by;           // the first brew from then on that asks for its variety, else empty
+  std::optional<Date> wanted_on;   // that brew's day
+  bool taken_stale = false;        // that brew took it all the same (stale lots allowed)
   std::string reason;              // the cellar's stale reason on that day
 };
 

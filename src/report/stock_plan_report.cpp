@@ -11,28 +11,41 @@ namespace {
 
 double grams_2(double grams) { return std::round(grams * 100.0) / 100.0; }
 
-std::string draws_text(const std::vector<PlanDraw>& draws, UnitSystem units, bool by_lot) {
-  std::vector<std::string> parts;
-  for (const PlanDraw& d : draws)
-    parts.push_back(by_lot ? fmt::format("{} {} from {}", format_mass(d.grams, units), d.variety, d.lot)
-                           : fmt::format("{} {}", format_mass(d.grams, units), d.variety));
-  return parts.empty() ? "-" : fmt::format("{}", fmt::join(parts, ", "));
+void render_steps(std::ostream& out, const StockPlan& plan, UnitSystem units) {
+  TextTable table({{"Brew day"},
+                   {"Recipe"},
+                   {"Batches", Align::right},
+                   {"Lot"},
+                   {"Variety"},
+                   {"Takes", Align::right},
+                   {"Short", Align::right}});
+  for (const PlanStep& step : plan.steps) {
+    std::vector<std::string> head{format_date(step.brew.on), step.brew.recipe.name,
+                                  fmt::format("{}", step.brew.batches)};
+    const auto row = [&](std::vector<std::string> rest) {
+      std::vector<std::string> cells = head;
+      cells.insert(cells.end(), rest.begin(), rest.end());
+      table.add_row(std::move(cells));
+      head = {"", "", ""};
+    };
+    for (const PlanDraw& d : step.taken) row({d.lot, d.variety, format_mass(d.grams, units), ""});
+    for (const PlanDraw& d : step.short_of) row({"-", d.variety, "", format_mass(d.grams, units)});
+    if (step.taken.empty() && step.short_of.empty()) row({"-", "-", "", ""});
+  }
+  table.render(out, "  ");
 }
 
-void render_steps(std::ostream& out, const StockPlan& plan, UnitSystem units) {
-  TextTable table({{"Brew day"}, {"Recipe"}, {"Batches", Align::right}, {"Takes"}, {"Short"}});
-  for (const PlanStep& step : plan.steps)
-    table.add_row({format_date(step.brew.on), step.brew.recipe.name, fmt::format("{}", step.brew.batches),
-                   draws_text(step.taken, units, true), draws_text(step.short_of, units, false)});
-  table.render(out, "  ");
+std::string then_text(const PlanStaleLot& s) {
+  if (s.wanted_by.empty()) return fmt::format("no brew of the plan asks for {} from then on", s.variety);
+  return fmt::format("{} by {} on {}", s.taken_stale ? "taken stale" : "left out", s.wanted_by,
+                     format_date(*s.wanted_on));
 }
 
 void render_stale(std::ostream& out, const StockPlan& plan, UnitSystem units) {
   TextTable table({{"Lot"}, {"Variety"}, {"Stale from"}, {"Stale on brew day"}, {"Holds", Align::right}, {"Then"}});
   for (const PlanStaleLot& s : plan.stale)
     table.add_row({s.lot, s.variety, s.stale_from ? format_date(*s.stale_from) : "-", format_date(s.stale_on_brew),
-                   format_mass(s.grams_left, units),
-                   s.wanted_by.empty() ? "no brew that day asks for its variety" : "left out by " + s.wanted_by});
+                   format_mass(s.grams_left, units), then_text(s)});
   table.render(out, "  ");
 }
 
@@ -97,6 +110,8 @@ nlohmann::json stock_plan_to_json(const StockPlan& plan, const PlanSource& sourc
                      {"stale_on_brew", format_date(s.stale_on_brew)},
                      {"grams_left", grams_2(s.grams_left)},
                      {"wanted_by", s.wanted_by.empty() ? nlohmann::json() : nlohmann::json(s.wanted_by)},
+                     {"wanted_on", s.wanted_on ? nlohmann::json(format_date(*s.wanted_on)) : nlohmann::json()},
+                     {"taken_stale", s.taken_stale},
                      {"reason", s.reason}});
   return {{"schedule", source.schedule_file},
           {"stock_file", source.stock_file},
