@@ -461,6 +461,7 @@ constexpr std::string_view kStockFooter =
     "  bine stock --stock stock.json receive --lot TW-26-031 --variety Tidewell --amount \"5 kg\" --alpha 7.4 \\\n"
     "      --packaged 2026-10-02 --stored \"-2 C,vacuum\"\n"
     "  bine stock --stock stock.json use pale-ale.json --on 2026-12-01\n"
+    "  bine stock --stock stock.json plan schedule.json\n"
     "  bine stock --stock stock.json adjust TW-25-044 --to \"2.2 kg\" --reason \"counted on the shelf\"\n"
     "  bine stock --stock stock.json history TW-25-044\n"
     "  bine stock --stock stock.json undo";
@@ -564,7 +565,7 @@ void setup_plan(CLI::App* stock, const GlobalOptions& globals, CommandTable& com
       "Each brew takes its hops as stock use would on its day (lots aged to that day); nothing is written.\n"
       "Examples:\n"
       "  bine stock --stock stock.json plan schedule.json\n"
-      "  bine stock --stock stock.json plan schedule.csv --json");
+      "  bine stock --stock stock.json plan schedule.json --json");
   commands.add(plan,
                [&globals, o, stock_option](const Console& console) { run_plan(console, globals, *o, *stock_option); });
 }
