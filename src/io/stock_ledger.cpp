@@ -15,6 +15,7 @@
 #include <utility>
 
 #include "io/file_io.hpp"
+#include "io/json_fields.hpp"
 #include "io/loaders.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
@@ -221,8 +222,19 @@ std::vector<JournalEntry> parse_journal(std::string_view text, const std::string
     const std::string_view line = text.substr(start, end - start);
     start = end + 1;
     if (line.empty()) continue;
+    // Through the guard like every JSON bine reads: a line nested 100,000 levels deep would
+    // otherwise overflow the stack when its record is copied.
+    Diagnostics problems(file);
+    const auto value = parse_json_text(line, problems);
+    if (!value) {
+      std::string why = problems.lines().empty() ? "not JSON" : problems.lines().front().substr(file.size() + 2);
+      if (why.rfind("/: ", 0) == 0) why.erase(0, 3);  // a problem inside the object, not the file
+      if (const auto at = why.find(" at line 1, column "); at != std::string::npos) why.replace(at, 18, " at column");
+      throw InputError(
+          fmt::format("{}: line {}: not a journal entry: {} (was the journal edited?)", file, line_number, why));
+    }
     try {
-      entries.push_back(entry_from_json(nlohmann::json::parse(line)));
+      entries.push_back(entry_from_json(*value));
     } catch (const nlohmann::json::exception&) {
       throw InputError(
           fmt::format("{}: line {}: not a journal entry (expected one JSON object a line as bine "

@@ -47,9 +47,20 @@ fs::path make_big_file(const fs::path& folder) {
 /// The file of a case with "made", written at test time: "deep" is prefix, `open` x levels, `close`
 /// x levels, suffix (100,000 levels is 200 kB a file, too big to commit); "fifo" is a named pipe
 /// (nothing ever writes to it); "fifo-link" a symlink to one; "data-with-fifo" a data folder whose
-/// catalog folder holds a pipe named like a catalog.
+/// catalog folder holds a pipe named like a catalog. A "deep" file with "name" is written under that
+/// name in a folder of its own ({made-dir}), beside copies of the shipped files listed in "beside"
+/// (paths under descriptor-data), so a data folder's lexicon or a stock file's journal can be deep.
 fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int index) {
-  const fs::path path = folder / ("made-" + std::to_string(index) + ".json");
+  fs::path path = folder / ("made-" + std::to_string(index) + ".json");
+  if (made.contains("name")) {
+    const fs::path own = folder / ("made-" + std::to_string(index));
+    fs::create_directories(own);
+    for (const auto& shipped : made.value("beside", nlohmann::json::array())) {
+      const fs::path from = fs::path(BINE_SOURCE_DATA_DIR) / shipped.get<std::string>();
+      fs::copy_file(from, own / from.filename());
+    }
+    path = own / made.at("name").get<std::string>();
+  }
   const std::string kind = made.at("kind");
   if (kind == "fifo" || kind == "fifo-link") {
     const fs::path fifo = folder / ("pipe-" + std::to_string(index) + ".json");
@@ -105,7 +116,9 @@ TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem"
     const std::string made = item.contains("made") ? make_case_file(scratch.path(), item.at("made"), run).string() : "";
     auto expand = [&](std::string text) {
       text = replace_all(text, "{file}", file);
+      text = replace_all(text, "{made-dir}", fs::path(made).parent_path().string());
       text = replace_all(text, "{made}", made);
+      text = replace_all(text, "{q10000}", std::string(10000, 'q'));
       text = replace_all(text, "{big}", big.string());
       text = replace_all(text, "{data}", BINE_SOURCE_DATA_DIR);
       return replace_all(text, "{xff}", "\xff");

@@ -4,6 +4,7 @@
 // signal, that the binary behaves as the in-process door run_in_process.hpp does), and the SciPy
 // reference scripts.
 #include <fcntl.h>
+#include <sys/resource.h>
 #include <sys/types.h>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -24,6 +25,7 @@ struct ProcessRun {
   int status = -1;      // exit status when exited, else the signal number
   std::string out;
   std::string err;
+  long peak_memory_kb = 0;  // the child's peak resident set (getrusage ru_maxrss, kB on Linux)
 };
 
 /// Where the child's stdout goes: captured in ProcessRun::out, /dev/full (every write fails with
@@ -73,7 +75,9 @@ inline ProcessRun run_program(const std::string& path, const std::vector<std::st
   }
   ProcessRun result;
   int wait_status = 0;
-  if (pid < 0 || ::waitpid(pid, &wait_status, 0) != pid) return result;
+  struct rusage usage {};
+  if (pid < 0 || ::wait4(pid, &wait_status, 0, &usage) != pid) return result;
+  result.peak_memory_kb = usage.ru_maxrss;
   result.exited = WIFEXITED(wait_status);
   result.status = result.exited ? WEXITSTATUS(wait_status) : WTERMSIG(wait_status);
   result.out = slurp(out_path);
