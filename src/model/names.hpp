@@ -1,6 +1,9 @@
 #pragma once
 // Matching variety names as brewers type them: case- and accent-insensitive, with "did you mean"
 // suggestions by edit distance over the known names (as ninja suggests targets).
+#include <array>
+#include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -28,7 +31,28 @@ std::size_t edit_distance(std::string_view a, std::string_view b);
 /// edit_distance(a, b) when it is at most `bound`, else bound + 1; costs O(bound x length) at most.
 std::size_t edit_distance_within(std::string_view a, std::string_view b, std::size_t bound);
 
-/// Up to `limit` known names closest to `wanted` (folded comparison), best first.
+/// The longest name (bytes, after fold_name) that gets "did you mean" suggestions. A longer one is
+/// not a typo of a known name (hop varieties, lot codes, axes and keys are far shorter) and is
+/// answered without comparing it, which bounds the edit-distance work per known name.
+inline constexpr std::size_t kMaxSuggestedLength = 64;
+
+/// A name of at most kMaxSuggestedLength bytes to be compared with many others by edit distance.
+/// distance_within(text, bound) equals edit_distance_within(name, text, bound); it runs Myers'
+/// bit-vector algorithm (the table's column in one 64-bit word), a dozen word operations per byte
+/// of `text`.
+class NearName {
+ public:
+  /// Throws std::length_error for a name longer than kMaxSuggestedLength bytes.
+  explicit NearName(std::string_view name);
+  std::size_t distance_within(std::string_view text, std::size_t bound) const;
+
+ private:
+  std::array<std::uint64_t, 256> positions_{};  // per byte value: bit i set where name[i] is that byte
+  std::size_t length_ = 0;
+};
+
+/// Up to `limit` known names closest to `wanted` (folded comparison), best first; none when the
+/// folded `wanted` is longer than kMaxSuggestedLength.
 std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,
                                        std::size_t limit = 3);
 

@@ -3,6 +3,12 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
+#include <cstdint>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
 #include "model/hops.hpp"
 
 TEST_CASE("names fold case, accents and separators") {
@@ -65,6 +71,125 @@ TEST_CASE("the bounded edit distance equals the Levenshtein distance within its 
         const std::size_t full = bine::edit_distance(a, b);
         CHECK(bine::edit_distance_within(a, b, bound) == std::min(full, bound + 1));
       }
+}
+
+namespace {
+
+// Every word over {a, b} up to five letters, and the empty word.
+std::vector<std::string> two_letter_words() {
+  std::vector<std::string> words{""};
+  for (std::size_t length = 1; length <= 5; ++length)
+    for (unsigned bits = 0; bits < (1u << length); ++bits) {
+      std::string word;
+      for (std::size_t k = 0; k < length; ++k) word += (bits >> k) & 1u ? 'a' : 'b';
+      words.push_back(word);
+    }
+  return words;
+}
+
+}  // namespace
+
+TEST_CASE("the bit-vector distance equals the Levenshtein distance within its bound") {
+  // Against edit_distance, the table of the definition (Levenshtein 1966), for every pair of short
+  // words and every bound.
+  const auto words = two_letter_words();
+  for (const auto& a : words) {
+    const bine::NearName near(a);
+    for (const auto& b : words)
+      for (std::size_t bound = 0; bound <= 6; ++bound)
+        CHECK(near.distance_within(b, bound) == std::min(bine::edit_distance(a, b), bound + 1));
+  }
+  // The 64th bit (a name at the length cap), by hand arithmetic: 64 a's against 63 a's is one
+  // deletion; against 64 a's with the last one b, one substitution; against 64 b's, 64
+  // substitutions (no byte matches, and the lengths are equal, so fewer edits cannot do); against
+  // the empty text, 64 deletions.
+  const std::string a64(64, 'a');
+  const bine::NearName near(a64);
+  CHECK(near.distance_within(std::string(63, 'a'), 64) == 1);
+  CHECK(near.distance_within(std::string(63, 'a') + "b", 64) == 1);
+  CHECK(near.distance_within(std::string(64, 'b'), 64) == 64);
+  CHECK(near.distance_within(std::string(64, 'b'), 10) == 11);  // past the bound: bound + 1
+  CHECK(near.distance_within("", 64) == 64);
+  CHECK(near.distance_within("", 63) == 64);
+  // Texts of 60-68 random bytes of a four-letter alphabet against random names of 1-64 bytes,
+  // against the definition's table.
+  std::uint32_t state = 12345;
+  const auto next = [&state] { return state = state * 1664525u + 1013904223u; };  // Numerical Recipes LCG
+  for (int trial = 0; trial < 300; ++trial) {
+    std::string name(1 + next() % 64, 'a');
+    for (char& c : name) c = static_cast<char>('a' + (next() >> 16) % 4);
+    std::string text(60 + next() % 9, 'a');
+    for (char& c : text) c = static_cast<char>('a' + (next() >> 16) % 4);
+    const std::size_t bound = next() % 70;
+    CHECK(bine::NearName(name).distance_within(text, bound) == std::min(bine::edit_distance(name, text), bound + 1));
+  }
+  CHECK_THROWS_AS(bine::NearName(std::string(65, 'a')), std::length_error);
+}
+
+TEST_CASE("suggestions on small cases: Levenshtein distances by hand, best first, ties in order") {
+  // "tidwel" (6 letters) may be 3 edits off (the threshold is half its length, at least 3).
+  // Tallowen: the longest common subsequence with tidwel is 3 letters (t, w, e), and a distance is at
+  //   least the longer length less that (every letter of "tallowen" not matched is an edit): 8 - 3 = 5.
+  // Tidewell: insert e after "tid" and l at the end, 2 edits; the lengths differ by 2, so exactly 2.
+  // Idwel: delete the t, 1 edit; the lengths differ by 1, so exactly 1.
+  // Tidwells: starts with what was typed, counted as 1 (its distance is 2: append l and s).
+  // Mayfell: common subsequence "el", at least 7 - 2 = 5.
+  const std::vector<std::string> known{"Tallowen", "Tidewell", "Idwel", "Tidwells", "Mayfell"};
+  CHECK(bine::closest_names("tidwel", known) == std::vector<std::string>{"Idwel", "Tidwells", "Tidewell"});
+  CHECK(bine::did_you_mean("tidwel", known) == "did you mean Idwel, Tidwells or Tidewell?");
+  // An exact name (distance 0, compared folded: "TIDWEL" is "tidwel") goes first; Tidewell drops out.
+  std::vector<std::string> with_exact = known;
+  with_exact.push_back("TIDWEL");
+  CHECK(bine::closest_names("tidwel", with_exact) == std::vector<std::string>{"TIDWEL", "Idwel", "Tidwells"});
+  // Only within the threshold: "saz" may be 3 off; Hersbruck (9 letters) differs by 6 in length.
+  // saz -> zaas by the table of the definition, rows s, a, z against columns z, a, a, s:
+  //   row 0: 0 1 2 3 4;  s: 1 1 2 3 3;  a: 2 2 1 2 3;  z: 3 2 2 2 3  -> 3.
+  // Saaz: insert an a, 1; Sazz: starts with "saz", 1.
+  const std::vector<std::string> saaz{"Hersbruck", "Zaas", "Saaz", "Sazz"};
+  CHECK(bine::closest_names("saz", saaz) == std::vector<std::string>{"Saaz", "Sazz", "Zaas"});
+  CHECK(bine::closest_names("saz", saaz, 2) == std::vector<std::string>{"Saaz", "Sazz"});
+}
+
+TEST_CASE("a name longer than 64 bytes folded gets no suggestion, one of 64 bytes still does") {
+  // The known name starts with both wanted names (the "starts with" rule, distance 1).
+  const std::vector<std::string> known{std::string(70, 'a')};
+  CHECK(bine::closest_names(std::string(64, 'a'), known) == known);
+  CHECK(bine::closest_names(std::string(65, 'a'), known).empty());
+  // Folded length counts: 70 bytes with six zero-width spaces (3 bytes each, stripped) fold to 52.
+  std::string spaced(52, 'a');
+  for (int k = 0; k < 6; ++k) spaced += "\u200b";
+  CHECK(bine::closest_names(spaced, known) == known);
+}
+
+TEST_CASE("closest_names keeps the suggestions of the plain definition on random small catalogs") {
+  // Reference: every known name scored by the rules (0 equal, 1 starts with what was typed, else the
+  // full Levenshtein table), those within max(3, length / 2) kept, stable by score, first three.
+  std::uint32_t state = 777;
+  const auto next = [&state] { return state = state * 1664525u + 1013904223u; };  // Numerical Recipes LCG
+  const auto word = [&](std::size_t longest) {
+    std::string w(1 + next() % longest, 'a');
+    for (char& c : w) c = static_cast<char>('a' + (next() >> 16) % 3);
+    return w;
+  };
+  for (int trial = 0; trial < 400; ++trial) {
+    std::vector<std::string> known;
+    for (int k = 0; k < 12; ++k) known.push_back(word(9));
+    const std::string wanted = word(9);
+    const std::size_t threshold = std::max<std::size_t>(3, wanted.size() / 2);
+    std::vector<std::pair<std::size_t, std::size_t>> scored;
+    for (std::size_t k = 0; k < known.size(); ++k) {
+      const std::size_t d = known[k] == wanted               ? 0
+                            : known[k].rfind(wanted, 0) == 0 ? 1
+                                                             : bine::edit_distance(wanted, known[k]);
+      if (d <= threshold) scored.emplace_back(d, k);
+    }
+    std::stable_sort(scored.begin(), scored.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+    std::vector<std::string> expected;
+    for (std::size_t k = 0; k < std::min<std::size_t>(3, scored.size()); ++k)
+      expected.push_back(known[scored[k].second]);
+    INFO("wanted " << wanted);
+    CHECK(bine::closest_names(wanted, known) == expected);
+  }
 }
 
 TEST_CASE("unknown names get the closest known names") {
