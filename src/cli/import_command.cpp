@@ -90,6 +90,7 @@ HopRecords read_records(const ImportArgs& args, const std::string& text) {
 /// The document to write and what to tell the brewer about it.
 struct Imported {
   nlohmann::json document;
+  std::string text;  // the document as written: checked to load again, within the size bine reads
   std::vector<std::string> report;
   std::string summary;
 };
@@ -103,11 +104,15 @@ Imported import_hops(const ImportArgs& args, const DataSet& data) {
   const std::string label = args.out.empty() ? std::string("the imported file") : args.out;
   if (args.to == ImportTarget::catalog) {
     imported.document = hops_to_catalog(records, args.name, data.lexicon, imported.report);
-    parse_catalog(imported.document.dump(), label, data.lexicon);  // what we write must load
+    imported.text = imported.document.dump(2) + "\n";
+    check_readable_size(imported.text, label);
+    parse_catalog(imported.text, label, data.lexicon);  // what we write must load
     imported.summary = fmt::format("{} varieties from {}", imported.document["varieties"].size(), args.file);
   } else {
     imported.document = hops_to_stock(records, args.name, imported.report);
-    parse_stock(imported.document.dump(), label);
+    imported.text = imported.document.dump(2) + "\n";
+    check_readable_size(imported.text, label);
+    parse_stock(imported.text, label);
     imported.summary = fmt::format("{} lots from {}", imported.document["lots"].size(), args.file);
   }
   return imported;
@@ -120,6 +125,8 @@ Imported import_recipe(const ImportArgs& args) {
                      ": --to recipe reads a BeerXML recipe (a CSV or bine JSON file holds no BeerXML RECIPE)");
   Imported imported;
   imported.document = recipe_to_json(file.recipe);
+  imported.text = imported.document.dump(2) + "\n";
+  checked_recipe_text(file.recipe, args.out.empty() ? std::string("the imported recipe") : args.out);  // loads again
   imported.report = file.notes;
   imported.summary =
       fmt::format("recipe \"{}\" ({} hop additions) from {}", file.recipe.name, file.recipe.hops.size(), args.file);
@@ -132,11 +139,11 @@ void run_import(const Console& console, const GlobalOptions& globals, const Impo
   const Imported imported = args.to == ImportTarget::recipe ? import_recipe(args) : import_hops(args, data);
   // 2. Write the file, or print it; the report goes beside it.
   if (args.out.empty()) {
-    console.out << imported.document.dump(2) << '\n';
+    console.out << imported.text;
     for (const auto& line : imported.report) console.err << "bine: note: " << line << '\n';
     return;
   }
-  write_file_atomically(args.out, imported.document.dump(2) + "\n");
+  write_loadable_file(args.out, imported.text);
   console.out << fmt::format("imported {} into {}\n", imported.summary, args.out);
   for (const auto& line : imported.report) console.out << "  - " << line << '\n';
 }

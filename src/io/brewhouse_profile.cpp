@@ -115,7 +115,7 @@ BrewhouseProfile load_brewhouse_profile(const std::filesystem::path& path) {
 }
 
 void write_brewhouse_profile(const std::filesystem::path& path, const BrewhouseProfile& profile) {
-  write_file_atomically(path, brewhouse_profile_to_json(profile).dump(2) + "\n");
+  write_loadable_file(path, brewhouse_profile_to_json(profile).dump(2) + "\n");
 }
 
 }  // namespace bine

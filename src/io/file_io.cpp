@@ -198,4 +198,15 @@ void write_file_atomically(const std::filesystem::path& path, std::string_view c
   }
 }
 
+void check_readable_size(std::string_view content, const std::string& what) {
+  if (content.size() <= kMaxInputBytes) return;
+  throw Infeasible(fmt::format("{} would be a {:.1f} MB file, larger than the {} MB bine reads, so it is not written",
+                               what, static_cast<double>(content.size()) / 1e6, kMaxInputBytes / (1024 * 1024)));
+}
+
+void write_loadable_file(const std::filesystem::path& path, std::string_view content) {
+  check_readable_size(content, path.string());
+  write_file_atomically(path, content);
+}
+
 }  // namespace bine

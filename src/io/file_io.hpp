@@ -18,4 +18,13 @@ std::string read_text_file(const std::filesystem::path& path);
 /// not exist or cannot be written.
 void write_file_atomically(const std::filesystem::path& path, std::string_view content);
 
+/// Throws Infeasible (exit 3), "WHAT would be a 79.3 MB file, larger than the 32 MB bine reads, so
+/// it is not written", when `content` is larger than read_text_file reads.
+void check_readable_size(std::string_view content, const std::string& what);
+
+/// write_file_atomically for a file bine reads again (recipe, catalog, stock, brewhouse profile):
+/// refused first by check_readable_size ("FILE would be ..."), so nothing, not even a temporary
+/// file, is written that the loader would refuse.
+void write_loadable_file(const std::filesystem::path& path, std::string_view content);
+
 }  // namespace bine

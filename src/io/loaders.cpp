@@ -554,9 +554,7 @@ nlohmann::ordered_json recipe_to_json(const Recipe& recipe) {
 
 std::string checked_recipe_text(const Recipe& recipe, const std::string& what) {
   std::string text = recipe_to_json(recipe).dump(2) + "\n";
-  if (text.size() > kMaxInputBytes)
-    throw Infeasible(fmt::format("{} would be a {:.1f} MB file, larger than the {} MB bine reads, so it is not written",
-                                 what, static_cast<double>(text.size()) / 1e6, kMaxInputBytes / (1024 * 1024)));
+  check_readable_size(text, what);
   try {
     parse_recipe(text, what);
   } catch (const InputError& error) {

@@ -35,7 +35,8 @@ RecipeFormat output_format_for(const std::filesystem::path& path, const RecipeFi
 std::string write_recipe_file(const std::filesystem::path& path, const RecipeFile& source, const Recipe& after,
                               const Catalog* catalog) {
   if (output_format_for(path, source) == RecipeFormat::json) {
-    write_file_atomically(path, recipe_to_json(after).dump(2) + "\n");
+    // Only what loads again: within the size bine reads and every bound of a recipe.
+    write_loadable_file(path, checked_recipe_text(after, path.string()));
     return fmt::format("{} (bine JSON)", path.string());
   }
   if (!source.beerxml)
@@ -43,7 +44,7 @@ std::string write_recipe_file(const std::filesystem::path& path, const RecipeFil
         fmt::format("{}: BeerXML is written only for a recipe read from BeerXML (expected a .json "
                     "file name for a recipe read from bine JSON)",
                     path.string()));
-  write_file_atomically(path, beerxml_with_recipe(*source.beerxml, after, catalog));
+  write_loadable_file(path, beerxml_with_recipe(*source.beerxml, after, catalog));
   return fmt::format("{} (BeerXML 1.0)", path.string());
 }
 

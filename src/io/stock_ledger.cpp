@@ -150,6 +150,19 @@ void append_line(const std::filesystem::path& journal, const std::string& line) 
   if (!ok) throw InputError(fmt::format("{}: appending failed ({})", name, std::strerror(saved)));
 }
 
+/// Refuses (Infeasible) a line that would grow the journal past what bine reads, before anything is
+/// written: the next command could read neither the journal nor, through it, the stock.
+void check_journal_room(const std::filesystem::path& journal, const std::string& line) {
+  std::error_code ec;
+  const std::uintmax_t now = std::filesystem::file_size(journal, ec);
+  const std::uintmax_t grown = (ec ? 0 : now) + line.size() + 1;
+  if (grown <= kMaxInputBytes) return;
+  throw Infeasible(
+      fmt::format("{} would grow to {:.1f} MB, larger than the {} MB bine reads, so the change is not made (move "
+                  "the journal aside to start a new one)",
+                  journal.string(), static_cast<double>(grown) / 1e6, kMaxInputBytes / (1024 * 1024)));
+}
+
 /// The lot the change names, checked against the document and the amount it holds now.
 void check_lot(const ordered_json& lots, const Stock& stock, const LotChange& change, double expected_g,
                const std::string& file) {
@@ -333,7 +346,7 @@ void StockLedger::complete_pending() {
   if (hash == last.stock_after || hash != last.stock_before) return;
   const std::string after = apply_changes(text_, last.changes, stock_file_.string());
   if (sha256_hex(after) != last.stock_after) return;  // not what the entry wrote: leave the file alone
-  write_file_atomically(stock_file_, after);
+  write_loadable_file(stock_file_, after);
   completed_pending_ = true;
   reload();
 }
@@ -345,13 +358,16 @@ bool StockLedger::edited_since_last_entry() const {
 const JournalEntry& StockLedger::commit(JournalEntry entry) {
   const std::string file = stock_file_.string();
   const std::string after = apply_changes(text_, entry.changes, file);
-  parse_stock(after, file);  // the file written must load again
+  check_readable_size(after, file);  // the file written must load again: its size first, then its content
+  parse_stock(after, file);
   entry.id = entries_.empty() ? 1 : entries_.back().id + 1;
   entry.time = now_utc();
   entry.stock_before = sha256_hex(text_);
   entry.stock_after = sha256_hex(after);
-  append_line(journal_file(), entry_to_json(entry).dump());
-  write_file_atomically(stock_file_, after);
+  const std::string line = entry_to_json(entry).dump();
+  check_journal_room(journal_file(), line);
+  append_line(journal_file(), line);
+  write_loadable_file(stock_file_, after);
   text_ = after;
   stock_ = parse_stock(text_, file);
   entries_.push_back(std::move(entry));

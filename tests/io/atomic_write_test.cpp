@@ -231,3 +231,19 @@ TEST_CASE("SIGTERM, SIGINT or SIGHUP during a write removes the temporary file a
   // Each signal caught a write at least once in its three attempts.
   CHECK(each_interrupted());
 }
+
+TEST_CASE("a file bine reads again is written up to the size bine reads and refused one byte past it") {
+  // kMaxInputBytes is 32 x 1024 x 1024 = 33,554,432 bytes (hand arithmetic); the reader takes a
+  // file of exactly that size, so the writer must too, and nothing larger.
+  const Folder folder;
+  const fs::path target = folder.path / "catalog.json";
+  const std::string at_limit(33554432, ' ');
+  bine::write_loadable_file(target, at_limit);
+  CHECK(bine::read_text_file(target).size() == 33554432u);
+  { std::ofstream(target, std::ios::binary | std::ios::trunc) << "old"; }
+  CHECK_THROWS_WITH_AS(bine::write_loadable_file(target, at_limit + " "),
+                       doctest::Contains("catalog.json would be a 33.6 MB file, larger than the 32 MB bine reads"),
+                       bine::Infeasible);  // 33,554,433 / 10^6 = 33.55 MB, 33.6 to one decimal
+  CHECK(read_bytes(target) == "old");
+  CHECK(!temp_file_exists(folder.path, "catalog.json"));
+}
