@@ -194,9 +194,7 @@ Recipe recipe_with_lots(const Recipe& recipe, const std::optional<Cellar>& cella
     require_stock_for_lot_only(recipe);
     return recipe;
   }
-  std::vector<Lot> lots;
-  for (const auto& c : cellar->lots) lots.push_back(c.lot);
-  return with_lot_varieties(recipe, lots, cellar->source_file);
+  return with_lot_varieties(recipe, *cellar);
 }
 
 void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& args) {

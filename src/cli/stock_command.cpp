@@ -21,6 +21,7 @@
 #include "io/lot_receipts.hpp"
 #include "io/recipe_file.hpp"
 #include "io/stock_ledger.hpp"
+#include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
 #include "report/bitterness_report.hpp"
@@ -75,7 +76,7 @@ struct HistoryOptions {
 std::size_t find_lot(const Stock& stock, const std::string& code, const std::string& option) {
   std::vector<std::string> codes;
   for (std::size_t i = 0; i < stock.lots.size(); ++i) {
-    const std::string shown = stock.lots[i].lot.empty() ? fmt::format("lot {}", i + 1) : stock.lots[i].lot;
+    const std::string shown = bine::lot_code(stock.lots[i], i);
     if (fold_name(shown) == fold_name(code)) return i;
     codes.push_back(shown);
   }
@@ -84,9 +85,7 @@ std::size_t find_lot(const Stock& stock, const std::string& code, const std::str
                                hint.empty() ? "" : hint + "; ", fmt::join(codes, ", ")));
 }
 
-std::string lot_code(const Stock& stock, std::size_t index) {
-  return stock.lots[index].lot.empty() ? fmt::format("lot {}", index + 1) : stock.lots[index].lot;
-}
+std::string lot_code(const Stock& stock, std::size_t index) { return bine::lot_code(stock.lots[index], index); }
 
 void report_change(const Console& console, const StockLedger& ledger, const JournalEntry& entry,
                    const GlobalOptions& globals) {

@@ -100,7 +100,7 @@ CellarLot lot_on_brew_day(const Lot& lot, std::size_t index, const Variety* vari
   CellarLot c;
   c.lot = lot;
   c.index = index;
-  c.code = lot.lot.empty() ? fmt::format("lot {}", index + 1) : lot.lot;
+  c.code = lot_code(lot, index);
   take_stability(variety, settings, c);
   take_hsi(lot, settings, c);
   if (!lot.alpha_acid) {

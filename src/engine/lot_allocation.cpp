@@ -24,10 +24,6 @@
 namespace bine {
 namespace {
 
-std::string code_of(const Lot& lot, std::size_t index) {
-  return lot.lot.empty() ? fmt::format("lot {}", index + 1) : lot.lot;
-}
-
 bool usable(const CellarLot& c, const AllocationSettings& settings) {
   return c.lot.alpha_acid.has_value() && c.alpha_today.has_value() && (settings.allow_stale || !c.stale);
 }
@@ -116,7 +112,7 @@ double available_per_batch(const CellarLot& lot, double batches) {
 Recipe with_lot_varieties(const Recipe& recipe, const std::vector<Lot>& lots, const std::string& stock_file) {
   Recipe out = recipe;
   std::vector<std::string> codes;
-  for (std::size_t i = 0; i < lots.size(); ++i) codes.push_back(code_of(lots[i], i));
+  for (std::size_t i = 0; i < lots.size(); ++i) codes.push_back(lot_code(lots[i], i));
   std::vector<std::string> problems;
   for (std::size_t h = 0; h < out.hops.size(); ++h) {
     HopAddition& hop = out.hops[h];
@@ -142,10 +138,14 @@ Recipe with_lot_varieties(const Recipe& recipe, const std::vector<Lot>& lots, co
   return out;
 }
 
-Recipe with_named_lots(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes) {
+Recipe with_lot_varieties(const Recipe& recipe, const Cellar& cellar) {
   std::vector<Lot> lots;
   for (const auto& c : cellar.lots) lots.push_back(c.lot);
-  Recipe out = with_lot_varieties(recipe, lots, cellar.source_file);
+  return with_lot_varieties(recipe, lots, cellar.source_file);
+}
+
+Recipe with_named_lots(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes) {
+  Recipe out = with_lot_varieties(recipe, cellar);
   for (std::size_t h = 0; h < out.hops.size(); ++h) {
     HopAddition& hop = out.hops[h];
     if (hop.lot.empty() || hop.alpha_acid || hop.use == HopUse::dry_hop) continue;

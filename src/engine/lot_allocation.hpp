@@ -63,7 +63,10 @@ struct LotAllocation {
 /// recipe field for an unknown code (with did-you-mean over the codes) or a lot of another variety.
 Recipe with_lot_varieties(const Recipe& recipe, const std::vector<Lot>& lots, const std::string& stock_file);
 
-/// The same against the cellar, and an addition without alpha acid is given its lot's alpha on the
+/// The same against the cellar's lots.
+Recipe with_lot_varieties(const Recipe& recipe, const Cellar& cellar);
+
+/// The same, and an addition without alpha acid is given its lot's alpha on the
 /// cellar's brew day (said in `notes`).
 Recipe with_named_lots(const Recipe& recipe, const Cellar& cellar, std::vector<std::string>& notes);
 

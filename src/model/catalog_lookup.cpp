@@ -31,6 +31,10 @@ const Variety& require_variety(const Catalog& catalog, std::string_view name, st
   throw InputError(fmt::format("{}: unknown variety \"{}\" ({})", where, name, variety_hint(catalog, name)));
 }
 
+std::string lot_code(const Lot& lot, std::size_t index) {
+  return lot.lot.empty() ? fmt::format("lot {}", index + 1) : lot.lot;
+}
+
 const Lot* find_lot(const Stock& stock, std::string_view code) {
   const std::string wanted = fold_name(code);
   for (const auto& lot : stock.lots)

@@ -1,5 +1,6 @@
 #pragma once
 // Finding varieties and lots by the names brewers type.
+#include <cstddef>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -15,6 +16,10 @@ const Variety& require_variety(const Catalog& catalog, std::string_view name, st
 std::vector<std::string> variety_names(const Catalog& catalog);
 /// For a name not in the catalog: "did you mean A or B?", else "see 'bine catalog list'".
 std::string variety_hint(const Catalog& catalog, std::string_view name);
+
+/// How a lot is named to the brewer: its code, or "lot N" (1-based position in the stock file)
+/// when the file gives none.
+std::string lot_code(const Lot& lot, std::size_t index);
 
 /// The lot with this code (folded comparison), or nullptr.
 const Lot* find_lot(const Stock& stock, std::string_view code);
