@@ -13,6 +13,10 @@ namespace bine::cli {
 
 void add_cellar_options(CLI::App* command, CellarOptions& options, bool takes_lots) {
   command->add_option("--on", options.on, "brew day, YYYY-MM-DD, every stock lot is aged to (default: today)");
+  add_lot_judging_options(command, options, takes_lots);
+}
+
+void add_lot_judging_options(CLI::App* command, CellarOptions& options, bool takes_lots) {
   command->add_option("--stale-below", options.stale_below,
                       "a lot with less than this share of its certificate alpha is stale (default 75%)");
   if (!takes_lots) return;

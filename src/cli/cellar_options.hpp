@@ -27,6 +27,8 @@ struct CellarChoice {
 /// Adds --on and --stale-below to `command`, and with `takes_lots` (the command weighs additions from
 /// lots it chooses and leaves stale lots out: blend, rebalance) --lot-order and --allow-stale.
 void add_cellar_options(CLI::App* command, CellarOptions& options, bool takes_lots);
+/// The same without --on, for a command whose dates come from elsewhere (stock plan: each brew's day).
+void add_lot_judging_options(CLI::App* command, CellarOptions& options, bool takes_lots);
 
 /// The choice the options give; problems go to `reader`.
 CellarChoice read_cellar_options(OptionReader& reader, const CellarOptions& options);

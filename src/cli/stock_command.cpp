@@ -553,11 +553,7 @@ void setup_plan(CLI::App* stock, const GlobalOptions& globals, CommandTable& com
                    "JSON {\"brews\": [{\"recipe\", \"on\", \"batches\"}]} or CSV with headers recipe,on,batches; "
                    "recipe files relative to the schedule's folder")
       ->required();
-  plan->add_option("--stale-below", o->cellar.stale_below,
-                   "a lot with less than this share of its certificate alpha is stale (default 75%)");
-  plan->add_option("--lot-order", o->cellar.lot_order,
-                   "which lot of a variety is weighed first: oldest (packaging date, the default) or most (on hand)");
-  plan->add_flag("--allow-stale", o->cellar.allow_stale, "use stale lots too (they are left out by default)");
+  add_lot_judging_options(plan, o->cellar, true);
   plan->add_flag("--json", o->json, "print JSON (canonical units)");
   add_bitterness_options(plan, o->bitterness);
   plan->footer(
