@@ -22,7 +22,7 @@ std::string join_names(const std::vector<std::string>& names) {
 
 /// The names left out, by reason.
 struct LeftOut {
-  std::vector<std::string> no_aroma, no_oil, unknown, stale;
+  std::vector<std::string> no_aroma, no_oil, stale;
 };
 
 /// Sets the candidate's aroma from the variety; false (and noted) when it has no aroma data.
@@ -65,12 +65,10 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
     const Lot& lot = aged.lot;
     if (!aged.on_hand()) continue;
     if (!excluded.empty() && fold_name(lot.variety) == excluded) continue;
+    // age_cellar has refused every lot of a variety the catalog does not know.
     const Variety* variety = find_variety(catalog, lot.variety);
+    if (variety == nullptr) continue;
     const std::string label = fmt::format("{} ({})", lot.variety, aged.code);
-    if (variety == nullptr) {
-      left_out.unknown.push_back(label);
-      continue;
-    }
     if (aged.stale && !allow_stale) {
       left_out.stale.push_back(fmt::format("{}: {}", label, aged.stale_reason));
       continue;
@@ -119,9 +117,6 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   if (!left_out.no_oil.empty())
     set.notes.push_back(
         fmt::format("{} skipped: no total oil value ({})", left_out.no_oil.size(), join_names(left_out.no_oil)));
-  if (!left_out.unknown.empty())
-    set.notes.push_back(fmt::format("{} skipped: variety not in any catalog ({})",
-                                    count_of(left_out.unknown.size(), "lot", "lots"), join_names(left_out.unknown)));
   if (!left_out.stale.empty())
     set.notes.push_back(fmt::format("{} left out ({})", count_of(left_out.stale.size(), "stale lot", "stale lots"),
                                     fmt::format("{}", fmt::join(left_out.stale, "; "))));

@@ -169,8 +169,7 @@ struct Eligible {
   std::vector<std::vector<const CellarLot*>> lots_of;  // by catalog position; empty without stock
 };
 
-Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request,
-                            std::vector<std::string>& notes) {
+Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request) {
   const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
   Eligible eligible;
   if (!request.cellar) {
@@ -182,12 +181,9 @@ Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, cons
   }
   eligible.lots_of.resize(catalog.varieties.size());
   for (const auto& lot : request.cellar->lots) {
+    // age_cellar has refused every lot of a variety the catalog does not know.
     const Variety* variety = find_variety(catalog, lot.lot.variety);
-    if (!variety) {
-      notes.push_back(fmt::format("lot {}: variety \"{}\" is not in the catalog; skipped", lot.code, lot.lot.variety));
-      continue;
-    }
-    if (!lot.on_hand() || is_missing(*variety)) continue;
+    if (variety == nullptr || !lot.on_hand() || is_missing(*variety)) continue;
     eligible.lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
   }
   for (std::size_t i = 0; i < eligible.lots_of.size(); ++i)
@@ -317,7 +313,7 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
   const IndexedCatalog indexed = index_catalog(catalog, vectorizer, settings);
   result.index_kind = indexed.index.kind();
   // 2. Which varieties may answer: all but the missing one, or those with lots on hand.
-  const Eligible eligible = eligible_varieties(catalog, missing, request, result.notes);
+  const Eligible eligible = eligible_varieties(catalog, missing, request);
   // 3. Ask the index for candidates, then re-score exactly (missing blocks handled per pair) and rank.
   const std::vector<Candidate> candidates =
       candidates_near(catalog, lexicon, indexed, eligible, wanted, vectorizer, request, settings, result.notes);
