@@ -157,9 +157,9 @@ Recipe recipe_as_brewed(const Recipe& recipe, const Cellar& cellar, std::vector<
   AllocationSettings settings = allocation_of(cellar);
   settings.allow_stale = true;
   // What was weighed is the grams as written: each lot gives one gram per gram.
-  const std::vector<LotDemand> demands(written.hops.size(), LotDemand{0.0, [](const CellarLot&) { return 1.0; }});
-  std::vector<LotDemand> by_grams = demands;
-  for (std::size_t i = 0; i < written.hops.size(); ++i) by_grams[i].effect = written.hops[i].grams;
+  std::vector<LotDemand> by_grams;
+  for (const HopAddition& hop : written.hops)
+    by_grams.push_back(LotDemand{hop.grams, [](const CellarLot&) { return 1.0; }});
   const LotAllocation allocation = allocate_lots(written, cellar, by_grams, settings);
   notes.insert(notes.end(), allocation.notes.begin(), allocation.notes.end());
   Recipe brewed = written;

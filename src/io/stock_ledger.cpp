@@ -359,7 +359,7 @@ const JournalEntry& StockLedger::commit(JournalEntry entry) {
   const std::string file = stock_file_.string();
   const std::string after = apply_changes(text_, entry.changes, file);
   check_readable_size(after, file);  // the file written must load again: its size first, then its content
-  parse_stock(after, file);
+  Stock loaded = parse_stock(after, file);
   entry.id = entries_.empty() ? 1 : entries_.back().id + 1;
   entry.time = now_utc();
   entry.stock_before = sha256_hex(text_);
@@ -369,7 +369,7 @@ const JournalEntry& StockLedger::commit(JournalEntry entry) {
   append_line(journal_file(), line);
   write_loadable_file(stock_file_, after);
   text_ = after;
-  stock_ = parse_stock(text_, file);
+  stock_ = std::move(loaded);  // what was checked above is what was written
   entries_.push_back(std::move(entry));
   return entries_.back();
 }
