@@ -3,6 +3,7 @@
 #include "cli/app.hpp"
 
 #include <fmt/format.h>
+#include <unistd.h>
 
 #include <CLI/CLI.hpp>
 #include <algorithm>
@@ -10,6 +11,7 @@
 #include <cstdlib>
 #include <cstring>
 #include <exception>
+#include <iostream>
 #include <new>
 
 #include "cli/commands.hpp"
@@ -92,7 +94,9 @@ bool CommandTable::run_chosen(const Console& console) const {
 
 DataSet load_data(const GlobalOptions& globals, const Console& console) {
   const auto timer = console.time("load data");
-  return load_data(globals.data, globals.catalogs);
+  DataSet data = load_data(globals.data, globals.catalogs);
+  for (const auto& note : data.notes) console.err << "bine: note: " << note << '\n';
+  return data;
 }
 
 namespace {
@@ -129,7 +133,7 @@ int run_command_line(int argc, char** argv, std::ostream& out, std::ostream& err
       return kExitBadInput;
     }
     choose_data_folder(globals);
-    const Console console{out, err, globals.timings};
+    const Console console{out, err, globals.timings, &err == &std::cerr && isatty(STDERR_FILENO) == 1};
     commands.run_chosen(console);
   } catch (const InputError& e) {
     for (const auto& line : e.lines()) err << "bine: error: " << with_remedies(line, e.remedies()) << '\n';

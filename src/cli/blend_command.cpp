@@ -6,6 +6,7 @@
 #include <memory>
 
 #include "cli/bitterness_options.hpp"
+#include "cli/catalog_choice.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
@@ -197,10 +198,43 @@ Recipe recipe_with_lots(const Recipe& recipe, const std::optional<Cellar>& cella
   return with_lot_varieties(recipe, *cellar);
 }
 
+/// The varieties a blend looks up by name: --like, the bittering choice, the recipe's and the stock's.
+std::vector<std::string> names_blend_needs(const BlendArgs& args) {
+  std::vector<std::string> names{args.like, args.choices.bittering.name};
+  if (!args.recipe.empty())
+    for (const auto& hop : read_recipe_file(args.recipe, args.recipe_file).recipe.hops) names.push_back(hop.variety);
+  if (!args.stock.empty())
+    for (const auto& lot : load_stock(args.stock).lots) names.push_back(lot.variety);
+  return names;
+}
+
+/// The rows of the blend's varieties join `data.catalog` (which from a compiled catalog holds only
+/// the rows named), so the written recipe and the pages find them.
+void add_rows_of_parts(const CompiledCatalog& compiled, const BlendResult& result, DataSet& data) {
+  for (const auto& part : result.parts)
+    if (find_variety(data.catalog, part.variety) == nullptr)
+      if (const auto position = compiled.position_of(part.variety))
+        data.catalog.varieties.push_back(compiled.row(*position, data.lexicon));
+  index_variety_names(data.catalog);
+}
+
+/// The candidates: from a compiled catalog (catalog mode) its rows stream through once, so a large
+/// catalog is never held whole; else from the catalogs or the cellar loaded.
+CandidateSet candidates_for(const CatalogSubset& catalogs, const Cellar* cellar, const BlendArgs& args) {
+  const Lexicon& lexicon = catalogs.data.lexicon;
+  if (catalogs.compiled && cellar == nullptr) {
+    const CompiledCatalog& compiled = *catalogs.compiled;
+    return blend_candidates_streamed([&](const auto& each) { compiled.for_each_row(lexicon, each); }, lexicon,
+                                     args.like);
+  }
+  return blend_candidates(catalogs.data.catalog, lexicon, cellar, args.like, args.cellar.allow_stale);
+}
+
 void run_blend(const Console& console, const GlobalOptions& globals, const BlendArgs& args) {
   const UnitSystem units = globals.unit_system();
-  // 1. Load the catalogs, the stock and the recipe.
-  const DataSet data = load_data(globals, console);
+  // 1. Load the catalogs (from a compiled catalog only the rows named), the stock and the recipe.
+  CatalogSubset catalogs = load_data_for_names(globals, console, [&] { return names_blend_needs(args); });
+  DataSet& data = catalogs.data;
   const std::optional<Cellar> cellar =
       args.stock.empty() ? std::nullopt : std::optional(load_cellar(args.stock, data.catalog, args.cellar));
   const std::optional<RecipeFile> file =
@@ -210,8 +244,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
   BlendRequest request;
   std::vector<std::string> target_notes;
   request.target = target_from(args, data, target_notes);
-  CandidateSet candidates =
-      blend_candidates(data.catalog, data.lexicon, cellar ? &*cellar : nullptr, args.like, args.cellar.allow_stale);
+  CandidateSet candidates = candidates_for(catalogs, cellar ? &*cellar : nullptr, args);
   if (candidates.candidates.empty() && candidates.without_aroma > 0)
     throw Infeasible("every candidate lacks aroma data (add aroma intensities or tags to their catalog entries)");
   request.plan =
@@ -224,6 +257,7 @@ void run_blend(const Console& console, const GlobalOptions& globals, const Blend
     const auto timer = console.time("blend search");
     return design_blend(request);
   }();
+  if (catalogs.compiled) add_rows_of_parts(*catalogs.compiled, result, data);
   // 4. Render and write.
   std::vector<std::string> notes = blend_notes(args, request, candidates.notes, result);
   if (file) notes.insert(notes.begin(), file->notes.begin(), file->notes.end());

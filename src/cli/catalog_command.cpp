@@ -5,6 +5,7 @@
 
 #include "cli/commands.hpp"
 #include "engine/lot_allocation.hpp"
+#include "io/compiled_catalog.hpp"
 #include "io/loaders.hpp"
 #include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
@@ -66,13 +67,25 @@ void check_named_lots(const std::vector<std::string>& recipes, const std::vector
 
 void run_check(const Console& console, const GlobalOptions& globals, const CatalogOptions& options) {
   // The lexicon is needed to check aroma axes; the catalogs themselves are not loaded.
-  const Lexicon lexicon = load_lexicon(resolve_data_dir(globals.data) / "lexicon.json");
+  const std::filesystem::path data_dir = resolve_data_dir(globals.data);
+  const Lexicon lexicon = load_lexicon(data_dir / "lexicon.json");
   std::vector<std::string> problems;
   std::vector<std::string> recipes;
   std::vector<std::string> stocks;
   if (!options.stock.empty()) stocks.push_back(options.stock);
   for (const auto& file : options.files) {
     try {
+      if (is_compiled_catalog(file)) {
+        std::vector<std::string> unchecked;
+        const CompiledCatalog compiled(file);
+        const std::string why = compiled.staleness(data_dir, unchecked);
+        if (why.empty())
+          console.out << fmt::format("{}: ok (compiled catalog, {} varieties, {})\n", file, compiled.size(),
+                                     unchecked.empty() ? "matches its sources" : "sources not found to check");
+        else
+          problems.push_back(fmt::format("{}: stale compiled catalog ({}; compile it again)", file, why));
+        continue;
+      }
       const FileKind kind = check_file(file, lexicon);
       if (kind == FileKind::recipe) recipes.push_back(file);
       if (kind == FileKind::stock && file != options.stock) stocks.push_back(file);
@@ -96,7 +109,8 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
       "  bine catalog list\n"
       "  bine catalog list --csv\n"
       "  bine catalog show \"clairiere douce\"\n"
-      "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json");
+      "  bine --catalog my-hops.json catalog check my-hops.json stock.json recipe.json\n"
+      "  bine catalog compile merchant-1.json merchant-2.json --out merchant.bine");
 
   auto* list = catalog->add_subcommand("list", "list every variety (shipped and --catalog files)");
   list->add_flag("--json", options->json, "print JSON: {\"varieties\": [...]}");
@@ -116,6 +130,8 @@ void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandT
   check->add_option("--stock", options->stock,
                     "look up the lots recipes name in this stock file (stock files among FILE count too)");
   commands.add(check, [&globals, options](const Console& console) { run_check(console, globals, *options); });
+
+  setup_catalog_compile_command(*catalog, globals, commands);
 }
 
 }  // namespace bine::cli

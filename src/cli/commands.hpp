@@ -51,6 +51,8 @@ inline CLI::Validator output_file_name() {
 }
 
 void setup_catalog_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
+/// `bine catalog compile`, a subcommand of `catalog`.
+void setup_catalog_compile_command(CLI::App& catalog, const GlobalOptions& globals, CommandTable& commands);
 void setup_ibu_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_age_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);
 void setup_rebalance_command(CLI::App& app, const GlobalOptions& globals, CommandTable& commands);

@@ -16,7 +16,8 @@ namespace bine::cli {
 struct Console {
   std::ostream& out;
   std::ostream& err;
-  bool timings = false;  // --timings: phase timers on err
+  bool timings = false;          // --timings: phase timers on err
+  bool err_is_terminal = false;  // err is the process's stderr and a terminal (progress bars)
 
   /// A timer for one phase of the command; prints to err when it ends, if timings are on.
   PhaseTimer time(std::string phase) const { return PhaseTimer(timings ? &err : nullptr, std::move(phase)); }

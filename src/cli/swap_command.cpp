@@ -7,6 +7,7 @@
 #include <optional>
 
 #include "cli/bitterness_options.hpp"
+#include "cli/catalog_choice.hpp"
 #include "cli/cellar_options.hpp"
 #include "cli/commands.hpp"
 #include "cli/html_output.hpp"
@@ -14,10 +15,13 @@
 #include "engine/hop_index.hpp"
 #include "engine/recipe_swap.hpp"
 #include "engine/substitutes.hpp"
+#include "io/compiled_catalog.hpp"
+#include "io/data_dir.hpp"
 #include "io/file_io.hpp"
 #include "io/limits.hpp"
 #include "io/loaders.hpp"
 #include "io/recipe_file.hpp"
+#include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "report/html_reports.hpp"
 #include "report/recipe_swap_report.hpp"
@@ -207,20 +211,47 @@ RecipeSwapReport swap_recipe(const SwapArgs& args, const DataSet& data, const Sw
   return report;
 }
 
+/// The varieties a swap looks up by name: the missing one, the stock's lots' and the recipe's.
+std::vector<std::string> names_swap_needs(const SwapArgs& args) {
+  std::vector<std::string> names{args.request.missing};
+  if (!args.stock.empty())
+    for (const auto& lot : load_stock(args.stock).lots) names.push_back(lot.variety);
+  if (!args.recipe.empty())
+    for (const auto& hop : read_recipe_file(args.recipe, BeerXmlReadOptions{}).recipe.hops)
+      names.push_back(hop.variety);
+  return names;
+}
+
+/// Vectorise, index, search, re-score, amount factors, pairs. From a compiled catalog the stored
+/// index answers and only the rows the search returns are read; they join `data.catalog` (which
+/// then holds only the rows named), so the recipe swap and the pages find them.
+SwapResult substitutes(const Console& console, CatalogSubset& catalogs, const SwapRequest& request) {
+  DataSet& data = catalogs.data;
+  if (!catalogs.compiled) {
+    const auto timer = console.time("vectorise, index and rank");
+    return find_substitutes(data.catalog, data.lexicon, request);
+  }
+  const auto timer = console.time("read index and rank");
+  SwapResult result = find_substitutes(CompiledSubstituteCatalog(*catalogs.compiled, data.lexicon, request.purpose),
+                                       data.lexicon, request);
+  for (const auto& s : result.substitutes)
+    if (find_variety(data.catalog, s.variety.name) == nullptr) data.catalog.varieties.push_back(s.variety);
+  index_variety_names(data.catalog);
+  return result;
+}
+
 void run_swap(const Console& console, const GlobalOptions& globals, SwapArgs args) {
   use_single_thread();  // one query: threads would only add start-up time
-  // 1. Load: lexicon and catalogs, and the stock file when given.
-  const DataSet data = load_data(globals, console);
+  // 1. Load: lexicon and catalogs (from a compiled catalog only the rows named), and the stock file when given.
+  CatalogSubset catalogs = load_data_for_names(globals, console, [&] { return names_swap_needs(args); });
+  const DataSet& data = catalogs.data;
   Cellar cellar;
   if (!args.stock.empty()) {
     cellar = load_cellar(args.stock, data.catalog, args.cellar);
     args.request.cellar = &cellar;
   }
   // 2. Compute: vectorise, index, search, re-score, amount factors, pairs.
-  SwapResult result = [&] {
-    const auto timer = console.time("vectorise, index and rank");
-    return find_substitutes(data.catalog, data.lexicon, args.request);
-  }();
+  SwapResult result = substitutes(console, catalogs, args.request);
   if (result.from_stock) result.notes.push_back(brew_day_line(args.cellar));
   // 3. Into the recipe, when asked; then list only the substitutes the brewer asked to see.
   std::optional<RecipeSwapReport> swapped;

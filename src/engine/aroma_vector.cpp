@@ -62,11 +62,10 @@ std::optional<SwapPurpose> swap_purpose_from(std::string_view text) {
   return std::nullopt;
 }
 
-Vectorizer::Vectorizer(const Catalog& catalog, const Lexicon& lexicon, SwapPurpose purpose, VectorSettings settings)
-    : lexicon_(&lexicon), purpose_(purpose), settings_(settings) {
+CatalogSpread catalog_spread(const Catalog& catalog) {
   // Mean and population standard deviation of each feature over the varieties that have it.
   auto spread_of = [](const std::vector<double>& values) {
-    Spread spread;
+    FeatureSpread spread;
     if (values.empty()) return spread;
     spread.mean = std::accumulate(values.begin(), values.end(), 0.0) / static_cast<double>(values.size());
     double squares = 0.0;
@@ -75,12 +74,12 @@ Vectorizer::Vectorizer(const Catalog& catalog, const Lexicon& lexicon, SwapPurpo
     spread.sd = sd > 1e-9 ? sd : 1.0;  // a feature every variety shares carries no contrast
     return spread;
   };
-  const auto& compounds = oil_compounds();
-  for (const auto& compound : compounds) {
+  CatalogSpread result;
+  for (const auto& compound : oil_compounds()) {
     std::vector<double> values;
     for (const auto& variety : catalog.varieties)
       if (auto it = variety.oils.find(compound); it != variety.oils.end()) values.push_back(it->second.mid());
-    oil_spread_.push_back(spread_of(values));
+    result.oils.push_back(spread_of(values));
   }
   std::array<std::vector<double>, kChemistryFeatures> chemistry;
   for (const auto& variety : catalog.varieties) {
@@ -89,10 +88,19 @@ Vectorizer::Vectorizer(const Catalog& catalog, const Lexicon& lexicon, SwapPurpo
     for (std::size_t f = 0; f < kChemistryFeatures; ++f)
       if (values[f]) chemistry[f].push_back(*values[f]);
   }
-  for (std::size_t f = 0; f < kChemistryFeatures; ++f) chemistry_spread_[f] = spread_of(chemistry[f]);
+  for (std::size_t f = 0; f < kChemistryFeatures; ++f) result.chemistry[f] = spread_of(chemistry[f]);
+  return result;
 }
 
-std::optional<double> Vectorizer::standardise(std::optional<double> value, const Spread& spread) const {
+Vectorizer::Vectorizer(const Catalog& catalog, const Lexicon& lexicon, SwapPurpose purpose, VectorSettings settings)
+    : Vectorizer(catalog_spread(catalog), lexicon, purpose, settings) {}
+
+Vectorizer::Vectorizer(CatalogSpread spread, const Lexicon& lexicon, SwapPurpose purpose, VectorSettings settings)
+    : lexicon_(&lexicon), purpose_(purpose), settings_(settings), spread_(std::move(spread)) {
+  if (spread_.oils.size() != oil_compounds().size()) spread_.oils.resize(oil_compounds().size());
+}
+
+std::optional<double> Vectorizer::standardise(std::optional<double> value, const FeatureSpread& spread) const {
   if (!value || !std::isfinite(*value)) return std::nullopt;
   return (*value - spread.mean) / spread.sd;
 }
@@ -107,9 +115,9 @@ Descriptors Vectorizer::describe_with(const Variety& variety, std::optional<doub
   d.oils.resize(compounds.size());
   for (std::size_t c = 0; c < compounds.size(); ++c)
     if (auto it = variety.oils.find(compounds[c]); it != variety.oils.end())
-      d.oils[c] = standardise(it->second.mid(), oil_spread_[c]);
+      d.oils[c] = standardise(it->second.mid(), spread_.oils[c]);
   const std::array<std::optional<double>, kChemistryFeatures> raw{alpha, beta, mid_of(variety.cohumulone), oil};
-  for (std::size_t f = 0; f < kChemistryFeatures; ++f) d.chemistry[f] = standardise(raw[f], chemistry_spread_[f]);
+  for (std::size_t f = 0; f < kChemistryFeatures; ++f) d.chemistry[f] = standardise(raw[f], spread_.chemistry[f]);
   return d;
 }
 

@@ -66,11 +66,29 @@ struct PairSimilarity {
   double percent() const { return 100.0 * std::max(0.0, score); }
 };
 
+/// Mean and population standard deviation of one feature over a catalog.
+struct FeatureSpread {
+  double mean = 0.0;
+  double sd = 1.0;
+};
+
+/// A catalog's spread of each oil compound (in oil_compounds() order) and chemistry feature: what
+/// standardises them. A compiled catalog stores it so its rows embed as at compile time.
+struct CatalogSpread {
+  std::vector<FeatureSpread> oils;
+  std::array<FeatureSpread, kChemistryFeatures> chemistry;
+};
+
+/// The spread of every oil compound and chemistry feature over the varieties that have it.
+CatalogSpread catalog_spread(const Catalog& catalog);
+
 /// Turns varieties, lots and target profiles into descriptors and float vectors for one catalog
 /// (whose spread standardises oils and chemistry) and one question.
 class Vectorizer {
  public:
   Vectorizer(const Catalog& catalog, const Lexicon& lexicon, SwapPurpose purpose, VectorSettings settings = {});
+  /// From a spread computed before (a compiled catalog's), without the catalog.
+  Vectorizer(CatalogSpread spread, const Lexicon& lexicon, SwapPurpose purpose, VectorSettings settings = {});
 
   Descriptors describe(const Variety& variety) const;
   /// A lot: its variety's descriptors with the lot's measured alpha, beta and oil (alpha as given,
@@ -90,21 +108,17 @@ class Vectorizer {
   int dimensions() const;
   SwapPurpose purpose() const { return purpose_; }
   const VectorSettings& settings() const { return settings_; }
+  const CatalogSpread& spread() const { return spread_; }
 
  private:
-  struct Spread {
-    double mean = 0.0;
-    double sd = 1.0;
-  };
-  std::optional<double> standardise(std::optional<double> value, const Spread& spread) const;
+  std::optional<double> standardise(std::optional<double> value, const FeatureSpread& spread) const;
   Descriptors describe_with(const Variety& variety, std::optional<double> alpha, std::optional<double> beta,
                             std::optional<double> oil, const AromaProfile* own_aroma = nullptr) const;
 
   const Lexicon* lexicon_;
   SwapPurpose purpose_;
   VectorSettings settings_;
-  std::vector<Spread> oil_spread_;
-  std::array<Spread, kChemistryFeatures> chemistry_spread_;
+  CatalogSpread spread_;
 };
 
 }  // namespace bine

@@ -4,6 +4,7 @@
 // (docs/methods.md#blend).
 #include <Eigen/Dense>
 #include <cstddef>
+#include <functional>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -44,6 +45,13 @@ struct CandidateSet {
 /// skipped and noted.
 CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
                               std::string_view exclude, bool allow_stale = false);
+
+/// Calls its argument once per variety of a catalog, in catalog order (a compiled catalog's rows read
+/// one at a time, so a large catalog is never held whole).
+using VarietyStream = std::function<void(const std::function<void(const Variety&)>&)>;
+/// Catalog mode of blend_candidates over a stream of varieties: the same candidates and notes.
+CandidateSet blend_candidates_streamed(const VarietyStream& each_variety, const Lexicon& lexicon,
+                                       std::string_view exclude);
 
 /// The aroma to aim at and the weight of each axis in the objective.
 struct BlendTarget {

@@ -37,26 +37,24 @@ bool take_aroma(const Variety& variety, const Lexicon& lexicon, const std::strin
   return true;
 }
 
-void add_catalog_candidates(const Catalog& catalog, const Lexicon& lexicon, const std::string& excluded,
-                            CandidateSet& set, LeftOut& left_out) {
-  for (const auto& variety : catalog.varieties) {
-    if (!excluded.empty() && fold_name(variety.name) == excluded) continue;
-    if (variety.purpose == Purpose::bittering) continue;
-    BlendCandidate candidate;
-    candidate.variety = variety.name;
-    if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) continue;
-    if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
-      left_out.no_oil.push_back(variety.name);
-      continue;
-    }
-    candidate.oil_ml_per_100g = variety.total_oil->mid();
-    const CatalogAlpha alpha = catalog_alpha(variety);
-    candidate.alpha_percent = alpha.alpha_percent.value_or(0.0);
-    candidate.alpha_note = alpha.note;
-    if (variety.alpha_acid)
-      candidate.alpha_origin.catalog_range = std::make_pair(variety.alpha_acid->min, variety.alpha_acid->max);
-    set.candidates.push_back(std::move(candidate));
+void add_catalog_candidate(const Variety& variety, const Lexicon& lexicon, const std::string& excluded,
+                           CandidateSet& set, LeftOut& left_out) {
+  if (!excluded.empty() && fold_name(variety.name) == excluded) return;
+  if (variety.purpose == Purpose::bittering) return;
+  BlendCandidate candidate;
+  candidate.variety = variety.name;
+  if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) return;
+  if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
+    left_out.no_oil.push_back(variety.name);
+    return;
   }
+  candidate.oil_ml_per_100g = variety.total_oil->mid();
+  const CatalogAlpha alpha = catalog_alpha(variety);
+  candidate.alpha_percent = alpha.alpha_percent.value_or(0.0);
+  candidate.alpha_note = alpha.note;
+  if (variety.alpha_acid)
+    candidate.alpha_origin.catalog_range = std::make_pair(variety.alpha_acid->min, variety.alpha_acid->max);
+  set.candidates.push_back(std::move(candidate));
 }
 
 void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar& cellar,
@@ -99,17 +97,8 @@ void add_stock_candidates(const Catalog& catalog, const Lexicon& lexicon, const 
   }
 }
 
-}  // namespace
-
-CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
-                              std::string_view exclude, bool allow_stale) {
-  CandidateSet set;
-  LeftOut left_out;
-  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
-  if (cellar == nullptr)
-    add_catalog_candidates(catalog, lexicon, excluded, set, left_out);
-  else
-    add_stock_candidates(catalog, lexicon, *cellar, excluded, allow_stale, set, left_out);
+/// One note per reason a variety or lot was left out.
+void note_left_out(const LeftOut& left_out, CandidateSet& set) {
   set.without_aroma = left_out.no_aroma.size();
   if (!left_out.no_aroma.empty())
     set.notes.push_back(
@@ -120,6 +109,30 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   if (!left_out.stale.empty())
     set.notes.push_back(fmt::format("{} left out ({})", count_of(left_out.stale.size(), "stale lot", "stale lots"),
                                     fmt::format("{}", fmt::join(left_out.stale, "; "))));
+}
+
+}  // namespace
+
+CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
+                              std::string_view exclude, bool allow_stale) {
+  CandidateSet set;
+  LeftOut left_out;
+  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
+  if (cellar == nullptr)
+    for (const auto& variety : catalog.varieties) add_catalog_candidate(variety, lexicon, excluded, set, left_out);
+  else
+    add_stock_candidates(catalog, lexicon, *cellar, excluded, allow_stale, set, left_out);
+  note_left_out(left_out, set);
+  return set;
+}
+
+CandidateSet blend_candidates_streamed(const VarietyStream& each_variety, const Lexicon& lexicon,
+                                       std::string_view exclude) {
+  CandidateSet set;
+  LeftOut left_out;
+  const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
+  each_variety([&](const Variety& variety) { add_catalog_candidate(variety, lexicon, excluded, set, left_out); });
+  note_left_out(left_out, set);
   return set;
 }
 

@@ -1,8 +1,9 @@
 // Which candidates the subset search sees (docs/methods.md#blend-search): the target's nearest
-// neighbours in the objective's own metric, found with the faiss inner-product index of
-// hop_index.hpp, plus the strongest candidates on each axis the target names; and, when the limits
-// exclude every subset of that pool, a wider pool with the least and most bitter candidates per gram
-// and the largest lots.
+// neighbours in the objective's own metric, found by an exact inner-product scan (a flat faiss index
+// of hop_index.hpp: the rows depend on the target's weights, so a graph index would be built for one
+// query and cost far more than the scan, 10^5 rows of a dozen floats), plus the strongest candidates on each axis the
+// target names; and, when the limits exclude every subset of that pool, a wider pool with the least and most bitter
+// candidates per gram and the largest lots.
 #include <algorithm>
 #include <cmath>
 #include <numeric>
@@ -30,7 +31,8 @@ void mark_nearest(const BlendRequest& request, const Prepared& prepared, std::ve
   std::vector<float> query(static_cast<std::size_t>(dimensions), 1.0f);
   for (Index a = 0; a < axes; ++a)
     query[static_cast<std::size_t>(a)] = static_cast<float>(root_w[a] * request.target.intensity[a]);
-  const HopIndex index(dimensions, rows);
+  const IndexKind exact = IndexKind::exact;  // one query over target-weighted rows: scan, never a graph
+  const HopIndex index(dimensions, rows, {}, &exact);
   for (const IndexHit& hit : index.search(query.data(), std::min(n, request.pool.nearest)))
     chosen[static_cast<std::size_t>(hit.id)] = true;
 }

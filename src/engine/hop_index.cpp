@@ -17,7 +17,10 @@
 // both exact and cheap at that size.
 //
 // Threads. faiss parallelises over queries with OpenMP; a single query gains nothing from threads
-// and pays their start-up, so callers answering one query at a time call use_single_thread().
+// and pays their start-up, so callers answering one query at a time call use_single_thread(). An
+// HNSW build parallelises over the rows it inserts; IndexSettings::build_threads gives it every core
+// for the build alone (compiling a catalog, the benchmark), at the price of a graph that depends on
+// thread timing. With a progress callback the rows go in about a hundred batches, one call each.
 //
 // Limits. faiss reports errors by throwing faiss::FaissException; inputs here are built by our own
 // code, so such an exception is a bug and is left to the CLI's internal-error handler.
@@ -52,6 +55,41 @@ std::string_view to_string(IndexKind kind) {
 
 void use_single_thread() { omp_set_num_threads(1); }
 
+int all_cores() { return omp_get_num_procs(); }
+
+namespace {
+
+/// Sets OpenMP's thread count for one scope (a build) and restores it after.
+class ScopedThreads {
+ public:
+  explicit ScopedThreads(int threads) : before_(omp_get_max_threads()) {
+    if (threads > 0) omp_set_num_threads(threads);
+  }
+  ~ScopedThreads() { omp_set_num_threads(before_); }
+  ScopedThreads(const ScopedThreads&) = delete;
+  ScopedThreads& operator=(const ScopedThreads&) = delete;
+
+ private:
+  int before_;
+};
+
+void add_rows(faiss::IndexHNSWFlat& hnsw, faiss_id count, const float* rows, int dimensions,
+              const IndexSettings& settings) {
+  const ScopedThreads threads(settings.build_threads);
+  if (!settings.progress) {
+    hnsw.add(count, rows);
+    return;
+  }
+  const faiss_id step = std::max<faiss_id>(1000, count / 100);
+  for (faiss_id done = 0; done < count; done += step) {
+    const faiss_id batch = std::min(step, count - done);
+    hnsw.add(batch, rows + static_cast<std::size_t>(done) * static_cast<std::size_t>(dimensions));
+    settings.progress(static_cast<std::size_t>(done + batch), static_cast<std::size_t>(count));
+  }
+}
+
+}  // namespace
+
 HopIndex::HopIndex(int dimensions, const std::vector<float>& rows, const IndexSettings& settings,
                    const IndexKind* force)
     : dimensions_(dimensions), settings_(settings) {
@@ -70,10 +108,27 @@ HopIndex::HopIndex(int dimensions, const std::vector<float>& rows, const IndexSe
         std::make_unique<faiss::IndexHNSWFlat>(dimensions, settings.hnsw_neighbors, faiss::METRIC_INNER_PRODUCT);
     hnsw->hnsw.efConstruction = settings.hnsw_ef_construction;
     hnsw->hnsw.efSearch = settings.hnsw_ef_search;
-    hnsw->add(count, rows.data());
+    add_rows(*hnsw, count, rows.data(), dimensions, settings);
     rows_ = static_cast<const faiss::IndexFlat*>(hnsw->storage)->get_xb();
     index_ = std::move(hnsw);
   }
+}
+
+HopIndex::HopIndex(std::unique_ptr<faiss::Index> index, const IndexSettings& settings) : settings_(settings) {
+  if (!index || index->metric_type != faiss::METRIC_INNER_PRODUCT)
+    throw std::invalid_argument("HopIndex: not an inner-product index");
+  dimensions_ = index->d;
+  if (auto* hnsw = dynamic_cast<faiss::IndexHNSWFlat*>(index.get())) {
+    kind_ = IndexKind::hnsw;
+    hnsw->hnsw.efSearch = settings.hnsw_ef_search;
+    rows_ = static_cast<const faiss::IndexFlat*>(hnsw->storage)->get_xb();
+  } else if (auto* flat = dynamic_cast<faiss::IndexFlatIP*>(index.get())) {
+    kind_ = IndexKind::exact;
+    rows_ = flat->get_xb();
+  } else {
+    throw std::invalid_argument("HopIndex: neither a flat nor an HNSW index");
+  }
+  index_ = std::move(index);
 }
 
 HopIndex::~HopIndex() = default;

@@ -3,6 +3,7 @@
 // See hop_index.cpp for the essay (exact vs HNSW, subset search, threads).
 #include <cstddef>
 #include <cstdint>
+#include <functional>
 #include <memory>
 #include <string_view>
 #include <vector>
@@ -26,6 +27,13 @@ struct IndexSettings {
   /// Subsets up to this size are scored exactly (one pass over the subset's rows) even in an
   /// HNSW index: a graph walk that may only visit a few allowed nodes loses recall.
   std::size_t exact_subset_up_to = 20'000;
+  /// OpenMP threads for an HNSW build: 0 builds as OpenMP is set (one thread after
+  /// use_single_thread(), which keeps a build deterministic); n > 0 uses n threads for the build
+  /// only (faster, but the graph, and so an approximate answer, may differ between builds).
+  int build_threads = 0;
+  /// Called during an HNSW build with rows added and rows in all (for a progress bar); the build
+  /// then adds its rows in about a hundred steps.
+  std::function<void(std::size_t done, std::size_t total)> progress;
 };
 
 /// One search result: the row id given at build time and its inner product with the query.
@@ -41,6 +49,9 @@ class HopIndex {
   /// The kind is exact up to settings.exact_up_to rows, HNSW above, unless `force` names one.
   HopIndex(int dimensions, const std::vector<float>& rows, const IndexSettings& settings = {},
            const IndexKind* force = nullptr);
+  /// Takes over an index read back from a file (a faiss::IndexFlatIP or faiss::IndexHNSWFlat over
+  /// inner product, as this class builds them). Throws std::invalid_argument for any other kind.
+  HopIndex(std::unique_ptr<faiss::Index> index, const IndexSettings& settings = {});
   ~HopIndex();
   HopIndex(HopIndex&&) noexcept;
   HopIndex& operator=(HopIndex&&) noexcept;
@@ -58,6 +69,12 @@ class HopIndex {
   std::size_t size() const;
   /// Approximate bytes held: vectors plus, for HNSW, the graph links.
   std::size_t memory_bytes() const;
+  /// The faiss index, for faiss::write_index.
+  const faiss::Index& faiss_index() const { return *index_; }
+  /// The stored vector of row `id` (dimensions() floats).
+  const float* row(std::int64_t id) const {
+    return rows_ + static_cast<std::size_t>(id) * static_cast<std::size_t>(dimensions_);
+  }
 
  private:
   std::vector<IndexHit> exact_over(const float* query, std::size_t k, const std::vector<std::int64_t>& subset) const;
@@ -72,5 +89,8 @@ class HopIndex {
 /// Limits OpenMP (and so faiss) to one thread: single queries are faster without thread start-up,
 /// and OpenBLAS and OpenMP threads otherwise fight over the cores.
 void use_single_thread();
+
+/// The number of cores OpenMP sees (for IndexSettings::build_threads).
+int all_cores();
 
 }  // namespace bine

@@ -24,6 +24,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <deque>
+#include <map>
+#include <set>
 
 #include "engine/blend_solver.hpp"
 #include "model/catalog_lookup.hpp"
@@ -145,49 +148,71 @@ std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::
 
 namespace {
 
-/// Every catalog variety described and embedded, and the index over them.
-struct IndexedCatalog {
-  std::vector<Descriptors> described;  // by catalog position
-  HopIndex index;
+/// A Catalog in memory as a substitute source: every variety embedded and indexed for the question.
+class CatalogInMemory final : public SubstituteCatalog {
+ public:
+  CatalogInMemory(const Catalog& catalog, const Lexicon& lexicon, SwapPurpose purpose,
+                  const SubstituteSettings& settings)
+      : catalog_(catalog),
+        vectorizer_(catalog, lexicon, purpose, settings.vectors),
+        index_(vectorizer_.dimensions(), embed_all(), settings.index) {}
+  std::size_t size() const override { return catalog_.varieties.size(); }
+  std::optional<std::size_t> position_of(std::string_view name) const override {
+    const Variety* variety = find_variety(catalog_, name);
+    if (!variety) return std::nullopt;
+    return static_cast<std::size_t>(variety - catalog_.varieties.data());
+  }
+  Variety row(std::size_t position) const override { return catalog_.varieties.at(position); }
+  std::vector<std::string> names() const override { return variety_names(catalog_); }
+  const Vectorizer& vectorizer() const override { return vectorizer_; }
+  const HopIndex& index() const override { return index_; }
+
+ private:
+  std::vector<float> embed_all() const {
+    std::vector<float> rows;
+    rows.reserve(catalog_.varieties.size() * static_cast<std::size_t>(vectorizer_.dimensions()));
+    for (const auto& variety : catalog_.varieties) {
+      const auto v = vectorizer_.embed(vectorizer_.describe(variety));
+      rows.insert(rows.end(), v.begin(), v.end());
+    }
+    return rows;
+  }
+  const Catalog& catalog_;
+  Vectorizer vectorizer_;
+  HopIndex index_;
 };
 
-IndexedCatalog index_catalog(const Catalog& catalog, const Vectorizer& vectorizer, const SubstituteSettings& settings) {
-  std::vector<float> rows;
-  rows.reserve(catalog.varieties.size() * static_cast<std::size_t>(vectorizer.dimensions()));
-  std::vector<Descriptors> described;
-  for (const auto& variety : catalog.varieties) {
-    described.push_back(vectorizer.describe(variety));
-    const auto v = vectorizer.embed(described.back());
-    rows.insert(rows.end(), v.begin(), v.end());
-  }
-  return IndexedCatalog{std::move(described), HopIndex(vectorizer.dimensions(), rows, settings.index)};
+/// The position of the variety to replace; InputError with suggestions when the name is unknown.
+std::size_t require_position(const SubstituteCatalog& catalog, std::string_view name) {
+  if (const auto position = catalog.position_of(name)) return *position;
+  std::string hint = did_you_mean(name, catalog.names());
+  if (hint.empty()) hint = "see 'bine catalog list'";
+  throw InputError(fmt::format("swap: unknown variety \"{}\" ({})", name, hint));
 }
 
 /// The catalog positions that may answer, and, with stock, the lots on hand of each.
 struct Eligible {
   std::vector<std::int64_t> ids;
-  std::vector<std::vector<const CellarLot*>> lots_of;  // by catalog position; empty without stock
+  std::map<std::size_t, std::vector<const CellarLot*>> lots_of;  // by catalog position; empty without stock
 };
 
-Eligible eligible_varieties(const Catalog& catalog, const Variety& missing, const SwapRequest& request) {
-  const auto is_missing = [&](const Variety& v) { return fold_name(v.name) == fold_name(missing.name); };
+Eligible eligible_varieties(const SubstituteCatalog& catalog, std::size_t missing_at, const Variety& missing,
+                            const SwapRequest& request) {
   Eligible eligible;
   if (!request.cellar) {
-    for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
-      if (!is_missing(catalog.varieties[i])) eligible.ids.push_back(static_cast<std::int64_t>(i));
+    for (std::size_t i = 0; i < catalog.size(); ++i)
+      if (i != missing_at) eligible.ids.push_back(static_cast<std::int64_t>(i));
     if (eligible.ids.empty())
       throw Infeasible(fmt::format("the catalog has no variety besides {}", missing.name), {Remedy::add_catalog});
     return eligible;
   }
-  eligible.lots_of.resize(catalog.varieties.size());
   for (const auto& lot : request.cellar->lots) {
     // age_cellar has refused every lot of a variety the catalog does not know.
-    const Variety* variety = find_variety(catalog, lot.lot.variety);
-    if (variety == nullptr || !lot.on_hand() || is_missing(*variety)) continue;
-    eligible.lots_of[static_cast<std::size_t>(variety - catalog.varieties.data())].push_back(&lot);
+    const auto position = catalog.position_of(lot.lot.variety);
+    if (!position || !lot.on_hand() || *position == missing_at) continue;
+    eligible.lots_of[*position].push_back(&lot);
   }
-  for (std::size_t i = 0; i < eligible.lots_of.size(); ++i)
-    if (!eligible.lots_of[i].empty()) eligible.ids.push_back(static_cast<std::int64_t>(i));
+  for (const auto& [position, lots] : eligible.lots_of) eligible.ids.push_back(static_cast<std::int64_t>(position));
   if (eligible.ids.empty())
     throw Infeasible(fmt::format("no lot on hand in {} is a catalog variety other than {}", request.cellar->source_file,
                                  missing.name),
@@ -205,34 +230,38 @@ Candidate lot_candidate(const Variety& variety, const CellarLot& lot, const Cell
 
 /// The index's nearest varieties (or their lots on hand), each to be re-scored exactly. A lot with
 /// its own rub test is always a candidate: its variety's catalog profile, which the index holds,
-/// says little about how near the lot itself is.
-std::vector<Candidate> candidates_near(const Catalog& catalog, const Lexicon& lexicon, const IndexedCatalog& indexed,
-                                       const Eligible& eligible, const Descriptors& wanted,
-                                       const Vectorizer& vectorizer, const SwapRequest& request,
-                                       const SubstituteSettings& settings, std::vector<std::string>& notes) {
+/// says little about how near the lot itself is. The rows the candidates need are fetched into
+/// `rows` (a deque, so the candidates' pointers stay valid as it grows).
+std::vector<Candidate> candidates_near(const SubstituteCatalog& catalog, const Lexicon& lexicon,
+                                       const Eligible& eligible, const Descriptors& wanted, const SwapRequest& request,
+                                       const SubstituteSettings& settings, std::deque<Variety>& rows,
+                                       std::vector<std::string>& notes) {
+  const Vectorizer& vectorizer = catalog.vectorizer();
   const std::vector<float> query = vectorizer.embed(wanted);
   const std::size_t k = std::max(settings.min_candidates, settings.candidate_multiplier * request.top);
-  const auto hits = indexed.index.search_subset(query.data(), request.cellar ? k : k + 1, eligible.ids);
+  const auto hits = catalog.index().search_subset(query.data(), request.cellar ? k : k + 1, eligible.ids);
   std::vector<Candidate> candidates;
-  std::vector<bool> hit(catalog.varieties.size(), false);
+  std::set<std::size_t> hit;
   for (const auto& h : hits) {
     const auto i = static_cast<std::size_t>(h.id);
-    hit[i] = true;
-    const Variety& variety = catalog.varieties[i];
+    hit.insert(i);
+    const Variety& variety = rows.emplace_back(catalog.row(i));
     if (!request.cellar) {
-      candidates.push_back({&variety, nullptr, indexed.described[i]});
+      candidates.push_back({&variety, nullptr, vectorizer.describe(variety)});
       continue;
     }
-    for (const CellarLot* lot : eligible.lots_of[i])
+    for (const CellarLot* lot : eligible.lots_of.at(i))
       candidates.push_back(lot_candidate(variety, *lot, *request.cellar, lexicon, vectorizer, notes));
   }
   if (!request.cellar) return candidates;
-  for (const std::int64_t id : eligible.ids) {
-    const auto i = static_cast<std::size_t>(id);
-    if (hit[i]) continue;
-    for (const CellarLot* lot : eligible.lots_of[i])
-      if (lot->lot.rub_test)
-        candidates.push_back(lot_candidate(catalog.varieties[i], *lot, *request.cellar, lexicon, vectorizer, notes));
+  for (const auto& [i, lots] : eligible.lots_of) {
+    if (hit.count(i) != 0) continue;
+    const Variety* variety = nullptr;
+    for (const CellarLot* lot : lots) {
+      if (!lot->lot.rub_test) continue;
+      if (variety == nullptr) variety = &rows.emplace_back(catalog.row(i));
+      candidates.push_back(lot_candidate(*variety, *lot, *request.cellar, lexicon, vectorizer, notes));
+    }
   }
   return candidates;
 }
@@ -295,7 +324,15 @@ void add_grams_per_gram(std::vector<SubstitutePair>& pairs, const std::vector<Su
 
 SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
                             const SubstituteSettings& settings) {
-  const Variety& missing = require_variety(catalog, request.missing, "swap");
+  require_variety(catalog, request.missing, "swap");  // before the index is built
+  const CatalogInMemory source(catalog, lexicon, request.purpose, settings);
+  return find_substitutes(source, lexicon, request, settings);
+}
+
+SwapResult find_substitutes(const SubstituteCatalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings) {
+  const std::size_t missing_at = require_position(catalog, request.missing);
+  const Variety missing = catalog.row(missing_at);
   SwapResult result;
   result.missing = missing;
   result.purpose = request.purpose;
@@ -305,18 +342,18 @@ SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, cons
     result.stock_name = request.cellar->name;
     result.on = request.cellar->on;
   }
-  // 1. Vectorise the catalog and index it.
-  const Vectorizer vectorizer(catalog, lexicon, request.purpose, settings.vectors);
+  // 1. The catalog's vectors and index (built in memory, or read from a compiled catalog).
+  const Vectorizer& vectorizer = catalog.vectorizer();
   const Descriptors wanted = vectorizer.describe(missing);
   result.missing_aroma = wanted.aroma;
   result.missing_source = wanted.aroma_source;
-  const IndexedCatalog indexed = index_catalog(catalog, vectorizer, settings);
-  result.index_kind = indexed.index.kind();
+  result.index_kind = catalog.index().kind();
   // 2. Which varieties may answer: all but the missing one, or those with lots on hand.
-  const Eligible eligible = eligible_varieties(catalog, missing, request);
+  const Eligible eligible = eligible_varieties(catalog, missing_at, missing, request);
   // 3. Ask the index for candidates, then re-score exactly (missing blocks handled per pair) and rank.
+  std::deque<Variety> rows;
   const std::vector<Candidate> candidates =
-      candidates_near(catalog, lexicon, indexed, eligible, wanted, vectorizer, request, settings, result.notes);
+      candidates_near(catalog, lexicon, eligible, wanted, request, settings, rows, result.notes);
   result.candidates = candidates.size();
   std::vector<Substitute> ranked;
   for (const auto& c : candidates)

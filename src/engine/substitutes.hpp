@@ -6,6 +6,7 @@
 #include <array>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "engine/aroma_vector.hpp"
@@ -87,9 +88,32 @@ struct SwapResult {
   std::vector<std::string> notes;  // skipped lots, missing data, assumptions
 };
 
-/// Ranks substitutes for request.missing (stale lots below every fresh one). Throws InputError for an unknown variety
-/// and Infeasible when nothing can be ranked (no other variety, or no stocked lot of a catalog variety).
+/// A catalog as the substitute search reads it, for one question: rows by position, names through
+/// a folded-name index, and the neighbour index over the rows with the vectorizer that embedded
+/// them. A Catalog in memory gets one built per search; a compiled catalog (io/compiled_catalog.hpp)
+/// reads its index from disk and fetches only the rows the search asks for.
+class SubstituteCatalog {
+ public:
+  virtual ~SubstituteCatalog() = default;
+  virtual std::size_t size() const = 0;
+  /// The position of the variety with this name (folded comparison), or nullopt.
+  virtual std::optional<std::size_t> position_of(std::string_view name) const = 0;
+  virtual Variety row(std::size_t position) const = 0;
+  /// Every variety name (for "did you mean" when a name is unknown).
+  virtual std::vector<std::string> names() const = 0;
+  virtual const Vectorizer& vectorizer() const = 0;
+  /// Row ids of the index are catalog positions.
+  virtual const HopIndex& index() const = 0;
+};
+
+/// Ranks substitutes for request.missing (stale lots below every fresh one). Throws InputError for an
+/// unknown variety and Infeasible when nothing can be ranked (no other variety, or no stocked lot of a catalog
+/// variety).
 SwapResult find_substitutes(const Catalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
+                            const SubstituteSettings& settings = {});
+/// As above over any catalog source; the source's vectorizer must be for request.purpose. A
+/// Catalog and its compiled form give the same result when their indexes are exact.
+SwapResult find_substitutes(const SubstituteCatalog& catalog, const Lexicon& lexicon, const SwapRequest& request,
                             const SubstituteSettings& settings = {});
 
 /// Grams of substitute per gram of the missing hop that hold the job: for aroma the ratio of total

@@ -5,6 +5,8 @@
 #include <algorithm>
 #include <random>
 
+#include "model/catalog_lookup.hpp"
+
 namespace bine {
 namespace {
 
@@ -57,6 +59,7 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
     v.beta_acid = range(jitter(family.beta, 0.6, 2.0, 10.0), 0.4);
     v.cohumulone = range(jitter(family.cohumulone, 2.0, 15.0, 45.0), 1.5);
     v.total_oil = range(jitter(family.oil, 0.2, 0.3, 3.5), 0.2);
+    v.total_oil->min = std::max(v.total_oil->min, 0.1);  // the loaders' lower bound, despite rounding
     const double kind = unit(random);
     if (kind >= 0.05) {
       for (std::size_t c = 0; c < compounds.size(); ++c) {
@@ -64,6 +67,11 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
                                   oil_ranges[c].first, oil_ranges[c].second);
         v.oils[compounds[c]] = range(mid, 0.05 * mid);
       }
+      // Shares of total oil: scaled down when their midpoints pass 100 %, as a real analysis cannot.
+      double sum = 0.0;
+      for (const auto& [compound, share] : v.oils) sum += share.mid();
+      if (sum > 100.0)
+        for (auto& [compound, share] : v.oils) share = Range{share.min * 100.0 / sum, share.max * 100.0 / sum};
     }
     if (kind >= 0.10) {
       std::map<std::string, double> aroma;
@@ -79,6 +87,7 @@ Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64
     }
     catalog.varieties.push_back(std::move(v));
   }
+  index_variety_names(catalog);
   return catalog;
 }
 

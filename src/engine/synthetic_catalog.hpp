@@ -12,6 +12,7 @@ namespace bine {
 /// one of ~count/50 families (a base aroma on 2-5 axes, oil shares and chemistry inside the typical
 /// ranges of docs/methods.md#hop-chemistry-bounds) plus per-variety noise, so neighbourhoods exist as in real catalogs;
 /// about 5 % lack oil data and 5 % have tags instead of intensities, so missing-data paths are exercised.
+/// Every value is inside the loaders' bounds, so the catalog can be written as a catalog file and read back.
 Catalog synthetic_catalog(std::size_t count, const Lexicon& lexicon, std::uint64_t seed = 42);
 
 }  // namespace bine

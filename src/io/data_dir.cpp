@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "io/compiled_catalog.hpp"
 #include "io/loaders.hpp"
 #include "model/errors.hpp"
 
@@ -28,17 +29,21 @@ std::filesystem::path resolve_data_dir(const DataFolderChoice& choice) {
   throw InputError("no descriptor data found (use --data DIR or set BINE_DATA)");
 }
 
-DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs) {
-  namespace fs = std::filesystem;
-  DataSet data;
-  data.data_dir = resolve_data_dir(choice);
-  data.lexicon = load_lexicon(data.data_dir / "lexicon.json");
-  std::vector<fs::path> shipped;
+std::vector<std::filesystem::path> shipped_catalog_files(const std::filesystem::path& data_dir) {
+  std::vector<std::filesystem::path> files;
   std::error_code ec;
-  for (const auto& entry : fs::directory_iterator(data.data_dir / "catalog", ec))
-    if (entry.path().extension() == ".json") shipped.push_back(entry.path());
-  std::sort(shipped.begin(), shipped.end());
-  std::vector<fs::path> files = user_catalogs.empty() ? shipped : std::vector<fs::path>{};
+  for (const auto& entry : std::filesystem::directory_iterator(data_dir / "catalog", ec))
+    if (entry.path().extension() == ".json") files.push_back(entry.path());
+  std::sort(files.begin(), files.end());
+  return files;
+}
+
+std::vector<std::filesystem::path> chosen_catalog_files(const std::filesystem::path& data_dir,
+                                                        const std::vector<std::string>& user_catalogs) {
+  namespace fs = std::filesystem;
+  const std::vector<fs::path> shipped = shipped_catalog_files(data_dir);
+  if (user_catalogs.empty()) return shipped;
+  std::vector<fs::path> files;
   for (const auto& given : user_catalogs) {
     const fs::path path(given);
     const auto named = std::find_if(shipped.begin(), shipped.end(), [&](const fs::path& file) {
@@ -46,15 +51,34 @@ DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>
     });
     files.push_back(named != shipped.end() ? *named : path);
   }
-  const auto is_shipped = [&](const fs::path& file) {
-    return std::find(shipped.begin(), shipped.end(), file) != shipped.end();
-  };
+  return files;
+}
+
+bool is_shipped_catalog(const std::filesystem::path& data_dir, const std::filesystem::path& file) {
+  const auto shipped = shipped_catalog_files(data_dir);
+  return std::find(shipped.begin(), shipped.end(), file) != shipped.end();
+}
+
+CatalogSource catalog_source(const std::filesystem::path& data_dir, const std::filesystem::path& file,
+                             const Catalog& loaded) {
+  return {loaded.names.empty() ? file.stem().string() : loaded.names.front(),
+          is_shipped_catalog(data_dir, file) ? "shipped " + file.filename().string() : file.string(), loaded.demo};
+}
+
+DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs) {
+  namespace fs = std::filesystem;
+  DataSet data;
+  data.data_dir = resolve_data_dir(choice);
+  data.lexicon = load_lexicon(data.data_dir / "lexicon.json");
+  const std::vector<fs::path> files = chosen_catalog_files(data.data_dir, user_catalogs);
+  if (std::any_of(files.begin(), files.end(), [](const fs::path& file) { return is_compiled_catalog(file); })) {
+    data.catalog = load_catalogs_with_compiled(data.data_dir, data.lexicon, files, data.notes, data.sources);
+    return data;
+  }
   std::vector<Catalog> catalogs;
   for (const auto& file : files) {
     catalogs.push_back(load_catalog(file, data.lexicon));
-    const Catalog& loaded = catalogs.back();
-    data.sources.push_back({loaded.names.empty() ? file.stem().string() : loaded.names.front(),
-                            is_shipped(file) ? "shipped " + file.filename().string() : file.string(), loaded.demo});
+    data.sources.push_back(catalog_source(data.data_dir, file, catalogs.back()));
   }
   data.catalog = merge_catalogs(catalogs);
   return data;

@@ -63,6 +63,24 @@ std::string read_text_file(const std::filesystem::path& path) {
   return content;
 }
 
+std::string read_file_head(const std::filesystem::path& path, std::size_t bytes) {
+  const int fd = ::open(path.c_str(), O_RDONLY | O_NONBLOCK | O_CLOEXEC | O_NOCTTY);
+  if (fd < 0) return {};
+  const FdCloser closer{fd};
+  struct stat info {};
+  if (::fstat(fd, &info) != 0 || !S_ISREG(info.st_mode)) return {};
+  std::string head(bytes, '\0');
+  std::size_t got = 0;
+  while (got < bytes) {
+    const ssize_t n = ::read(fd, head.data() + got, bytes - got);
+    if (n < 0 && errno == EINTR) continue;
+    if (n <= 0) break;
+    got += static_cast<std::size_t>(n);
+  }
+  head.resize(got);
+  return head;
+}
+
 namespace {
 
 // The temporary file being written, for the signal handler to remove. A fixed buffer and a flag,

@@ -14,6 +14,10 @@ inline constexpr std::uintmax_t kMaxInputBytes = 32u * 1024u * 1024u;
 /// directory, cannot be read, or is larger than kMaxInputBytes.
 std::string read_text_file(const std::filesystem::path& path);
 
+/// The first `bytes` bytes of a regular file (fewer if it is shorter), read without blocking; empty
+/// when the file is missing or not a regular file (a pipe or device is never waited on).
+std::string read_file_head(const std::filesystem::path& path, std::size_t bytes);
+
 /// Writes `content` to `path` atomically. Throws InputError naming the file when the folder does
 /// not exist or cannot be written.
 void write_file_atomically(const std::filesystem::path& path, std::string_view content);

@@ -3,12 +3,14 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <fstream>
 #include <map>
 #include <set>
 
 #include "io/file_io.hpp"
 #include "io/json_fields.hpp"
 #include "io/limits.hpp"
+#include "model/catalog_lookup.hpp"
 #include "model/errors.hpp"
 #include "model/names.hpp"
 
@@ -176,10 +178,9 @@ Variety variety_from(const json& element, const std::string& pointer, const Lexi
   return variety;
 }
 
-Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon, Diagnostics& diagnostics) {
-  FieldReader top(document, "", diagnostics);
+/// The top level of a catalog file but its varieties: allowed keys, the "catalog" block.
+void catalog_meta(FieldReader& top, const std::string& file, Diagnostics& diagnostics, Catalog& catalog) {
   top.allow_only({"catalog", "varieties"});
-  Catalog catalog;
   std::string name = file;
   if (const json* meta = top.raw("catalog"); meta != nullptr) {
     FieldReader meta_reader(*meta, "/catalog", diagnostics);
@@ -189,21 +190,34 @@ Catalog catalog_from(const json& document, const std::string& file, const Lexico
     meta_reader.text("source", false);
   }
   catalog.names.push_back(name);
+}
+
+/// One element of "varieties": checked, and added unless its name is empty or already defined.
+void add_variety(const json& element, const std::string& pointer, const std::string& file, const Lexicon& lexicon,
+                 Diagnostics& diagnostics, Catalog& catalog, std::map<std::string, std::string>& seen) {
+  Variety variety = variety_from(element, pointer, lexicon, diagnostics);
+  if (variety.name.empty()) return;
+  auto [it, inserted] = seen.emplace(fold_name(variety.name), pointer);
+  if (!inserted) {
+    diagnostics.add(pointer + "/name",
+                    fmt::format("variety \"{}\" is already defined at {}", variety.name, it->second));
+    return;
+  }
+  variety.source_file = file;
+  catalog.varieties.push_back(std::move(variety));
+}
+
+Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon, Diagnostics& diagnostics) {
+  Catalog catalog;
+  FieldReader top(document, "", diagnostics);
+  catalog_meta(top, file, diagnostics, catalog);
   std::map<std::string, std::string> seen;  // folded name -> pointer
   for_each_in_array(top, "varieties", true, [&](const json& element, const std::string& pointer) {
-    Variety variety = variety_from(element, pointer, lexicon, diagnostics);
-    if (variety.name.empty()) return;
-    auto [it, inserted] = seen.emplace(fold_name(variety.name), pointer);
-    if (!inserted) {
-      diagnostics.add(pointer + "/name",
-                      fmt::format("variety \"{}\" is already defined at {}", variety.name, it->second));
-      return;
-    }
-    variety.source_file = file;
-    catalog.varieties.push_back(std::move(variety));
+    add_variety(element, pointer, file, lexicon, diagnostics, catalog, seen);
   });
   if (catalog.varieties.empty() && diagnostics.empty())
     diagnostics.add("/varieties", "is empty (expected at least one variety)");
+  index_variety_names(catalog);
   return catalog;
 }
 
@@ -414,7 +428,118 @@ auto parse_with(std::string_view text, const std::string& file, Parse parse) {
   return result;
 }
 
+// ---------------------------------------------------------------------------------------------
+// Streaming a large catalog
+//
+// A catalog file over kMaxInputBytes is read as a stream: nlohmann's parser with a callback hands
+// over each element of "varieties" once it is complete; it is checked and kept as a Variety and its
+// JSON is discarded (the callback returns false), so memory holds one record's JSON at a time and the
+// input limit applies per record (kMaxRecordBytes), the file up to kMaxStreamedCatalogBytes.
+
+/// A record past kMaxRecordBytes, thrown out of the parser callback.
+struct RecordTooLarge {
+  std::string pointer;
+};
+
+bool all_finite(const json& value) {
+  std::vector<const json*> todo{&value};
+  while (!todo.empty()) {
+    const json* node = todo.back();
+    todo.pop_back();
+    if (node->is_number_float() && !std::isfinite(node->get<double>())) return false;
+    if (node->is_structured())
+      for (const auto& child : *node) todo.push_back(&child);
+  }
+  return true;
+}
+
+/// Line and column (1-based) of byte `offset` of the file.
+std::pair<std::size_t, std::size_t> locate(const std::filesystem::path& path, std::size_t offset) {
+  std::ifstream in(path, std::ios::binary);
+  std::size_t line = 1, column = 1;
+  char c = 0;
+  for (std::size_t i = 0; i < offset && in.get(c); ++i) {
+    if (c == '\n') {
+      ++line;
+      column = 1;
+    } else {
+      ++column;
+    }
+  }
+  return {line, column};
+}
+
+/// The residual document (varieties discarded): its "catalog" block, and "varieties" present as an array.
+void finish_streamed(const json& document, const std::string& file, bool had_array, Diagnostics& diagnostics,
+                     Catalog& catalog) {
+  FieldReader top(document, "", diagnostics);
+  catalog_meta(top, file, diagnostics, catalog);
+  const json* varieties = top.raw("varieties");
+  if (top.ok() && (varieties == nullptr || varieties->is_null()))
+    diagnostics.add("/varieties", "is missing (required)");
+  else if (varieties != nullptr && !had_array)
+    diagnostics.add("/varieties", fmt::format("{} is not an array (expected [ ... ])", brief(*varieties)));
+  if (catalog.varieties.empty() && diagnostics.empty())
+    diagnostics.add("/varieties", "is empty (expected at least one variety)");
+}
+
 }  // namespace
+
+Catalog load_catalog_streamed(const std::filesystem::path& path, const Lexicon& lexicon) {
+  const std::string file = path.string();
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(file + ": cannot read this file");
+  Diagnostics diagnostics(file);
+  Catalog catalog;
+  std::map<std::string, std::string> seen;  // folded name -> pointer
+  std::string top_key;                      // key of the top-level value being read
+  bool in_array = false, had_array = false;
+  std::size_t element = 0;
+  std::streamoff record_start = 0;
+  std::size_t events = 0;
+  const auto too_large = [&] { return static_cast<std::uintmax_t>(in.tellg() - record_start) > kMaxRecordBytes; };
+  using event_t = json::parse_event_t;
+  const json::parser_callback_t callback = [&](int depth, event_t event, json& parsed) -> bool {
+    if (depth == 1 && event == event_t::key) top_key = parsed.get<std::string>();
+    if (depth == 1 && top_key == "varieties" && event == event_t::array_start) in_array = had_array = true;
+    if (depth == 1 && event == event_t::array_end) in_array = false;
+    if (!in_array || depth < 2) return true;
+    if (depth > 2 || event == event_t::key) {
+      if (++events % 4096 == 0 && too_large()) throw RecordTooLarge{"/varieties/" + std::to_string(element)};
+      return true;
+    }
+    if (event == event_t::object_start || event == event_t::array_start) {
+      record_start = in.tellg();
+      events = 0;
+      return true;
+    }
+    const std::string pointer = "/varieties/" + std::to_string(element++);
+    if (event != event_t::value && too_large()) throw RecordTooLarge{pointer};
+    if (!all_finite(parsed))
+      diagnostics.add(pointer, "a number is too large to represent (keep values in their usual ranges)");
+    else
+      add_variety(parsed, pointer, file, lexicon, diagnostics, catalog, seen);
+    return false;  // discard the record's JSON
+  };
+  try {
+    const json document = json::parse(in, callback, true, false);
+    finish_streamed(document, file, had_array, diagnostics, catalog);
+  } catch (const RecordTooLarge& error) {
+    diagnostics.add(error.pointer, fmt::format("one variety is larger than {} MiB (check the file for a broken record)",
+                                               kMaxRecordBytes >> 20));
+  } catch (const json::out_of_range&) {
+    diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");
+  } catch (const json::parse_error& error) {
+    const auto [line, column] = locate(path, error.byte == 0 ? 0 : error.byte - 1);
+    diagnostics.add_file(
+        fmt::format("not valid JSON at line {}, column {} (check for a missing comma, quote or "
+                    "bracket, or whether the file ends too early)",
+                    line, column));
+  }
+  diagnostics.throw_if_any();
+  index_variety_names(catalog);
+  return catalog;
+}
 
 Lexicon parse_lexicon(std::string_view text, const std::string& file) {
   return parse_with(text, file, [&](const json& d, Diagnostics& diag) { return lexicon_from(d, diag); });
@@ -431,6 +556,14 @@ Recipe parse_recipe(std::string_view text, const std::string& file) {
 
 Lexicon load_lexicon(const std::filesystem::path& path) { return parse_lexicon(read_text_file(path), path.string()); }
 Catalog load_catalog(const std::filesystem::path& path, const Lexicon& lexicon) {
+  std::error_code ec;
+  const std::uintmax_t bytes = std::filesystem::file_size(path, ec);
+  if (!ec && bytes > kMaxInputBytes && std::filesystem::is_regular_file(path, ec)) {
+    if (bytes > kMaxStreamedCatalogBytes)
+      throw InputError(fmt::format("{}: the file is {} MiB (catalogs are read up to {} MiB)", path.string(),
+                                   bytes >> 20, kMaxStreamedCatalogBytes >> 20));
+    return load_catalog_streamed(path, lexicon);
+  }
   return parse_catalog(read_text_file(path), path.string(), lexicon);
 }
 Stock load_stock(const std::filesystem::path& path) { return parse_stock(read_text_file(path), path.string()); }
@@ -455,6 +588,7 @@ Catalog merge_catalogs(const std::vector<Catalog>& catalogs) {
   if (!problems.empty()) throw InputError(problems);
   for (const auto& catalog : catalogs)
     merged.varieties.insert(merged.varieties.end(), catalog.varieties.begin(), catalog.varieties.end());
+  index_variety_names(merged);
   return merged;
 }
 
@@ -562,6 +696,38 @@ std::string checked_recipe_text(const Recipe& recipe, const std::string& what) {
                                  error.lines().front()));
   }
   return text;
+}
+
+namespace {
+
+json range_json(const Range& range) { return json::array({range.min, range.max}); }
+
+json variety_file_json(const Variety& v) {
+  json out;
+  out["name"] = v.name;
+  if (!v.origin.empty()) out["origin"] = v.origin;
+  if (v.purpose) out["purpose"] = std::string(to_string(*v.purpose));
+  if (v.alpha_acid) out["alpha_acid"] = range_json(*v.alpha_acid);
+  if (v.beta_acid) out["beta_acid"] = range_json(*v.beta_acid);
+  if (v.cohumulone) out["cohumulone"] = range_json(*v.cohumulone);
+  if (v.total_oil) out["total_oil"] = range_json(*v.total_oil);
+  if (!v.oils.empty()) {
+    json oils;
+    for (const auto& [compound, range] : v.oils) oils[compound] = range_json(range);
+    out["oils"] = std::move(oils);
+  }
+  if (v.stability) out["stability"] = *v.stability;
+  if (v.aroma) out["aroma"] = *v.aroma;
+  if (!v.tags.empty()) out["tags"] = v.tags;
+  return out;
+}
+
+}  // namespace
+
+json catalog_file_json(const Catalog& catalog, const std::string& name) {
+  json varieties = json::array();
+  for (const auto& variety : catalog.varieties) varieties.push_back(variety_file_json(variety));
+  return json{{"catalog", {{"name", name}, {"demo", catalog.demo}}}, {"varieties", std::move(varieties)}};
 }
 
 }  // namespace bine

@@ -1,6 +1,7 @@
 #pragma once
 // Loaders for our file types. Each reads from a string (the file name is only for messages),
 // collects every problem, and throws one InputError listing them all; otherwise returns the model.
+#include <cstdint>
 #include <filesystem>
 #include <nlohmann/json.hpp>
 #include <string>
@@ -18,8 +19,16 @@ Catalog parse_catalog(std::string_view text, const std::string& file, const Lexi
 Stock parse_stock(std::string_view text, const std::string& file);
 Recipe parse_recipe(std::string_view text, const std::string& file);
 
+/// A catalog file over the input limit (kMaxInputBytes) is streamed one variety at a time: each
+/// variety's JSON may be up to kMaxRecordBytes, the file up to kMaxStreamedCatalogBytes.
+inline constexpr std::uintmax_t kMaxRecordBytes = 1u << 20;
+inline constexpr std::uintmax_t kMaxStreamedCatalogBytes = std::uintmax_t{4} << 30;
+
 Lexicon load_lexicon(const std::filesystem::path& path);
+/// Reads a catalog file; one larger than the input limit is streamed (same checks, same result).
 Catalog load_catalog(const std::filesystem::path& path, const Lexicon& lexicon);
+/// The streamed reading load_catalog uses for large files, for any size.
+Catalog load_catalog_streamed(const std::filesystem::path& path, const Lexicon& lexicon);
 Stock load_stock(const std::filesystem::path& path);
 Recipe load_recipe(const std::filesystem::path& path);
 
@@ -42,5 +51,9 @@ nlohmann::ordered_json recipe_to_json(const Recipe& recipe);
 /// refuse to read (a NaN amount, an alpha below the bounds, a file over 32 MB). `what` names it in
 /// messages ("the rebalanced recipe"). Throws Infeasible with the loader's reason.
 std::string checked_recipe_text(const Recipe& recipe, const std::string& what);
+
+/// A catalog as JSON in our catalog format (numbers canonical, doubles printed to read back exactly),
+/// named `name`; parse_catalog reads it back to the same varieties.
+nlohmann::json catalog_file_json(const Catalog& catalog, const std::string& name);
 
 }  // namespace bine

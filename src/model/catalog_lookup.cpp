@@ -7,8 +7,25 @@
 
 namespace bine {
 
+void index_variety_names(Catalog& catalog) {
+  catalog.by_folded_name.clear();
+  catalog.by_folded_name.reserve(catalog.varieties.size());
+  for (std::size_t i = 0; i < catalog.varieties.size(); ++i)
+    catalog.by_folded_name.emplace(fold_name(catalog.varieties[i].name), i);  // the first of a name wins, as a scan
+}
+
 const Variety* find_variety(const Catalog& catalog, std::string_view name) {
   const std::string wanted = fold_name(name);
+  // The index answers when it covers every variety and the position it gives still holds that name
+  // (a hand-built or edited catalog without a fresh index falls back to the scan).
+  if (!catalog.by_folded_name.empty() && catalog.by_folded_name.size() == catalog.varieties.size()) {
+    const auto it = catalog.by_folded_name.find(wanted);
+    if (it == catalog.by_folded_name.end()) return nullptr;
+    if (it->second < catalog.varieties.size()) {
+      const Variety& variety = catalog.varieties[it->second];
+      if (fold_name(variety.name) == wanted) return &variety;
+    }
+  }
   for (const auto& variety : catalog.varieties)
     if (fold_name(variety.name) == wanted) return &variety;
   return nullptr;

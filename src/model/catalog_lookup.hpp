@@ -9,6 +9,9 @@
 
 namespace bine {
 
+/// Fills catalog.by_folded_name, so find_variety is one hash look-up instead of a scan that folds
+/// every name. Loaders call it; call it again after changing `varieties`.
+void index_variety_names(Catalog& catalog);
 /// The variety with this name (case- and accent-insensitive), or nullptr.
 const Variety* find_variety(const Catalog& catalog, std::string_view name);
 /// As find_variety, but throws InputError "`where`: unknown variety "X" (did you mean ...?)".

@@ -5,6 +5,7 @@
 #include <map>
 #include <optional>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 namespace bine {
@@ -48,6 +49,9 @@ struct Catalog {
   std::vector<Variety> varieties;
   std::vector<std::string> names;  // catalog names merged in, in load order
   bool demo = false;
+  /// Positions in `varieties` by folded name (fold_name), filled by index_variety_names
+  /// (model/catalog_lookup.hpp); find_variety scans only when it does not cover every variety.
+  std::unordered_map<std::string, std::size_t> by_folded_name;
 };
 
 using Date = std::chrono::sys_days;

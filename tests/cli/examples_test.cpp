@@ -160,9 +160,13 @@ void write_text(const fs::path& path, const std::string& text) {
 
 /// A scratch folder with the shipped examples as ./NAME and ./descriptor-data/examples/NAME, and the
 /// brewer's own files the examples name: BeerXML exports (their-recipe.xml, their-recipes.xml), a
-/// catalog of their own (my-hops.json, a test fixture) and a recipe (recipe.json, the pale ale).
+/// catalog of their own (my-hops.json, a test fixture), a merchant's catalog in two files and a recipe (recipe.json,
+/// the pale ale).
 void copy_examples(const fs::path& folder) {
   fs::copy_file(bine::test::fixture("h3-catalog.json"), folder / "my-hops.json");
+  // A merchant's catalog in two files (to compile): the shipped demo varieties and two fixtures.
+  fs::copy_file(fs::path(BINE_SOURCE_DATA_DIR) / "catalog" / "demo.json", folder / "merchant-1.json");
+  fs::copy_file(bine::test::fixture("h3-catalog.json"), folder / "merchant-2.json");
   fs::copy_file(bine::test::fixture("iv-brewhouse.json"), folder / "brewhouse.json");
   // A supplier's spec sheet (the CSV fixture, its varieties named as a supplier would).
   write_text(folder / "supplier-specs.csv",

@@ -57,7 +57,9 @@ int main(int argc, char** argv) {
     for (const bine::IndexKind kind : {bine::IndexKind::exact, bine::IndexKind::hnsw}) {
       std::fprintf(stderr, "[%zu] building %s index...\n", n, kind == bine::IndexKind::exact ? "exact" : "HNSW");
       const auto start = Clock::now();
-      const bine::HopIndex index(vectorizer.dimensions(), rows, {}, &kind);
+      bine::IndexSettings settings;
+      settings.build_threads = bine::all_cores();  // builds on every core, queries on one
+      const bine::HopIndex index(vectorizer.dimensions(), rows, settings, &kind);
       const double build_s = ms_since(start) / 1000.0;
       bine::use_single_thread();  // queries on one core
       std::vector<double> latency;
