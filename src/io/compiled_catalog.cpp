@@ -410,7 +410,7 @@ CompiledCatalog::CompiledCatalog(const fs::path& path) : path_(path), db_(nullpt
   if (!is_compiled_catalog(path))
     throw InputError(fmt::format("{}: not a compiled catalog (expected a file from 'bine catalog compile')", file));
   sqlite3* raw = nullptr;
-  const int rc = sqlite3_open_v2(file.c_str(), &raw, SQLITE_OPEN_READONLY, nullptr);
+  const int rc = sqlite3_open_v2(file.c_str(), &raw, SQLITE_OPEN_READONLY | SQLITE_OPEN_NOMUTEX, nullptr);
   db_.reset(raw);
   if (rc != SQLITE_OK) throw InputError(fmt::format("{}: cannot open the compiled catalog", file));
   std::map<std::string, std::string> meta;
@@ -563,14 +563,24 @@ std::vector<std::string> CompiledSubstituteCatalog::names() const { return compi
 // ---------------------------------------------------------------------------------------------
 // Choosing between the compiled catalog and its sources
 
+namespace {
+
+/// The note for a compiled catalog whose sources are gone.
+std::string unchecked_note(const CompiledCatalog& compiled, const std::vector<std::string>& unchecked) {
+  return fmt::format("{}: not checked against its sources, which are gone ({})", compiled.path().string(),
+                     fmt::join(unchecked, ", "));
+}
+
+}  // namespace
+
 std::optional<CompiledCatalog> sole_fresh_compiled_catalog(const fs::path& data_dir,
                                                            const std::vector<std::string>& user_catalogs,
-                                                           std::vector<std::string>* unchecked) {
+                                                           std::vector<std::string>& notes) {
   if (user_catalogs.size() != 1 || !is_compiled_catalog(user_catalogs.front())) return std::nullopt;
   CompiledCatalog compiled(user_catalogs.front());
-  std::vector<std::string> gone;
-  if (!compiled.staleness(data_dir, gone).empty()) return std::nullopt;
-  if (unchecked != nullptr) *unchecked = std::move(gone);
+  std::vector<std::string> unchecked;
+  if (!compiled.staleness(data_dir, unchecked).empty()) return std::nullopt;
+  if (!unchecked.empty()) notes.push_back(unchecked_note(compiled, unchecked));
   return compiled;
 }
 
@@ -620,9 +630,7 @@ Catalog load_catalogs_with_compiled(const fs::path& data_dir, const Lexicon& lex
   const std::string why = compiled.staleness(data_dir, unchecked);
   std::vector<Catalog> catalogs;
   if (why.empty()) {
-    if (!unchecked.empty())
-      notes.push_back(fmt::format("{}: not checked against its sources, which are gone ({})", compiled.path().string(),
-                                  fmt::join(unchecked, ", ")));
+    if (!unchecked.empty()) notes.push_back(unchecked_note(compiled, unchecked));
     catalogs.push_back(compiled.load_all(lexicon));
     sources.push_back(compiled_catalog_source(compiled));
   } else {
@@ -646,17 +654,15 @@ CatalogSubset load_data_for_names(const DataFolderChoice& choice, const std::vec
                                   const std::vector<std::string>& names) {
   CatalogSubset subset;
   const fs::path data_dir = resolve_data_dir(choice);
-  std::vector<std::string> unchecked;
-  subset.compiled = sole_fresh_compiled_catalog(data_dir, user_catalogs, &unchecked);
+  std::vector<std::string> notes;
+  subset.compiled = sole_fresh_compiled_catalog(data_dir, user_catalogs, notes);
   const auto known = [&](const std::string& name) { return name.empty() || subset.compiled->position_of(name); };
   if (!subset.compiled || !std::all_of(names.begin(), names.end(), known)) {
     subset.compiled.reset();
     subset.data = load_data(choice, user_catalogs);
     return subset;
   }
-  if (!unchecked.empty())
-    subset.data.notes.push_back(fmt::format("{}: not checked against its sources, which are gone ({})",
-                                            subset.compiled->path().string(), fmt::join(unchecked, ", ")));
+  subset.data.notes = std::move(notes);
   subset.data.data_dir = data_dir;
   subset.data.lexicon = load_lexicon(data_dir / "lexicon.json");
   subset.data.catalog = subset.compiled->only(names, subset.data.lexicon);

@@ -136,11 +136,11 @@ class CompiledSubstituteCatalog final : public SubstituteCatalog {
 };
 
 /// The compiled catalog among `user_catalogs` when it is the only catalog file given and matches
-/// its sources and `data_dir` (so a command may read it row by row), else nullopt. `unchecked`, when
-/// given, gets the sources that are gone and could not be checked.
+/// its sources and `data_dir` (so a command may read it row by row), else nullopt. Sources that are
+/// gone (so not checked) are named in `notes`.
 std::optional<CompiledCatalog> sole_fresh_compiled_catalog(const std::filesystem::path& data_dir,
                                                            const std::vector<std::string>& user_catalogs,
-                                                           std::vector<std::string>* unchecked = nullptr);
+                                                           std::vector<std::string>& notes);
 
 /// The "Catalogs used" entry of a compiled catalog: its catalogs' names and its file.
 CatalogSource compiled_catalog_source(const CompiledCatalog& compiled);

@@ -32,8 +32,9 @@ nlohmann::json load_cases() {
   return nlohmann::json::parse(in).at("cases");
 }
 
-/// A 100 MB file that starts like a catalog: far beyond any real catalog, so it must be refused
-/// before it is read into memory.
+/// A 100 MB file that starts like a catalog: far beyond the 32 MB input limit, so `catalog check`
+/// refuses it before reading it, and as --catalog it is streamed one variety at a time (never held
+/// whole) and found empty.
 fs::path make_big_file(const fs::path& folder) {
   const fs::path path = folder / "huge-catalog.json";
   std::ofstream out(path, std::ios::binary);

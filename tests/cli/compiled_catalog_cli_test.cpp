@@ -134,8 +134,17 @@ TEST_CASE("a stale compiled catalog is named and its JSON source read instead, a
   CHECK(stale.out ==
         run_cli({"--catalog", json.string(), "swap", changed.back(), "--json"}).out);  // read from the JSON
 
-  // Recompiled, then an index file removed: exit 2 with one line naming the file.
+  // Recompiled, then its source moved away: used as it stands, with a note.
   REQUIRE(run_cli({"catalog", "compile", json.string(), "--out", compiled.string()}).status == 0);
+  const fs::path moved = dir.path() / "moved.json";
+  fs::rename(json, moved);
+  const auto unchecked = run_cli({"--catalog", compiled.string(), "swap", changed.back(), "--json"});
+  CHECK(unchecked.status == 0);
+  CHECK(unchecked.err.find("not checked against its sources, which are gone (" + json.string() + ")") !=
+        std::string::npos);
+  fs::rename(moved, json);
+
+  // An index file removed: exit 2 with one line naming the file.
   std::size_t indexes = 0;
   for (const auto& entry : fs::directory_iterator(dir.path()))
     if (entry.path().extension() == ".faiss") {
