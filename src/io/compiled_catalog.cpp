@@ -22,7 +22,7 @@
 // 1099511628211) over the content hashes of the files and the settings fingerprint. Opening checks
 // each file as git checks its work tree: same size and modification time means unchanged; else the
 // content hash decides. A source that is gone cannot be checked and is noted; the lexicon and the
-// data folder's catalogs must match the ones in use.
+// shipped catalogs compiled in ("demo") must match the ones in the data folder in use.
 #include "io/compiled_catalog.hpp"
 
 #include <faiss/impl/io.h>

@@ -86,7 +86,7 @@ class CompiledCatalog {
   /// The catalog files compiled in (role "shipped" or "source"), in order.
   std::vector<std::string> source_paths() const;
 
-  /// Why the catalog no longer matches: a source, the lexicon or the data folder's catalogs changed,
+  /// Why the catalog no longer matches: a source (a shipped one in `data_dir`) or the lexicon changed,
   /// or the settings differ. Empty when it matches. Files that are gone are listed in `unchecked`.
   std::string staleness(const std::filesystem::path& data_dir, std::vector<std::string>& unchecked) const;
 
