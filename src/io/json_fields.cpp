@@ -65,6 +65,13 @@ void report_guard_stop(std::string_view text, const JsonGuardStop& stop, Diagnos
       diagnostics.add(stop.pointer, fmt::format("the key {} appears twice in this object (keep one)",
                                                 brief(nlohmann::json(stop.key))));
       break;
+    case JsonGuardStop::Kind::too_many:
+      diagnostics.add(stop.pointer, stop.noun.empty()
+                                        ? fmt::format("more than {} elements (an array here holds at most {})",
+                                                      grouped(stop.max), grouped(stop.max))
+                                        : fmt::format("more than {} {} (one file holds at most {})", grouped(stop.max),
+                                                      stop.noun, grouped(stop.max)));
+      break;
     case JsonGuardStop::Kind::not_finite:
     case JsonGuardStop::Kind::none:
       diagnostics.add_file("a number is too large to represent (keep values in their usual ranges)");

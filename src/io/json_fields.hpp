@@ -26,7 +26,8 @@ struct Bounds {
 
 /// Parses JSON text through JsonGuard; on failure reports "not valid JSON at line L, column C (...)"
 /// and returns nullopt. Rejects NaN/Infinity (not JSON), numbers too large for a double, nesting
-/// deeper than kMaxJsonDepth and a key given twice in one object.
+/// deeper than kMaxJsonDepth, a key given twice in one object and an array longer than its limit
+/// (kJsonArrayLimits, kMaxJsonArrayElements), each while parsing.
 std::optional<nlohmann::json> parse_json_text(std::string_view text, Diagnostics& diagnostics);
 
 /// A short printable form of a JSON value for messages (strings quoted, long values cut).

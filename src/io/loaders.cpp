@@ -204,7 +204,7 @@ void add_variety(const json& element, const std::string& pointer, const std::str
     return;
   }
   variety.source_file = file;
-  catalog.varieties.push_back(std::move(variety));
+  if (diagnostics.empty()) catalog.varieties.push_back(std::move(variety));  // else the file is refused
 }
 
 Catalog catalog_from(const json& document, const std::string& file, const Lexicon& lexicon, Diagnostics& diagnostics) {
@@ -298,7 +298,7 @@ Stock stock_from(const json& document, const std::string& file, Diagnostics& dia
       auto package = read_enum<Package>(storage_reader, "package", true, package_from, "vacuum, sealed or open");
       if (temperature && package) lot.storage = Storage{*temperature, *package};
     }
-    stock.lots.push_back(std::move(lot));
+    if (diagnostics.empty()) stock.lots.push_back(std::move(lot));  // else the file is refused: keep none
   });
   return stock;
 }
@@ -413,7 +413,7 @@ Recipe recipe_from(const json& document, const std::string& file, Diagnostics& d
     if (use == HopUse::boil && hop.minutes && recipe.boil_minutes > 0.0 && *hop.minutes > recipe.boil_minutes + 1e-9)
       diagnostics.add(reader.at("time"), fmt::format("{:g} min is longer than the boil time of {:g} min", *hop.minutes,
                                                      recipe.boil_minutes));
-    recipe.hops.push_back(std::move(hop));
+    if (diagnostics.empty()) recipe.hops.push_back(std::move(hop));  // else the file is refused: keep none
   });
   read_notation(top, recipe);
   return recipe;
@@ -620,9 +620,10 @@ std::string_view to_string(FileKind kind) {
 FileKind check_file(const std::filesystem::path& path, const Lexicon& lexicon) {
   const std::string text = read_text_file(path);
   const std::string file = path.string();
-  Diagnostics diagnostics(file);
-  const json document = parse_or_throw(text, diagnostics);
-  const FileKind kind = detect_file_kind(document);
+  const FileKind kind = [&] {  // the document goes before the file is parsed again as its kind
+    Diagnostics diagnostics(file);
+    return detect_file_kind(parse_or_throw(text, diagnostics));
+  }();
   switch (kind) {
     case FileKind::catalog:
       parse_catalog(text, file, lexicon);

@@ -248,6 +248,16 @@ std::string did_you_mean(std::string_view wanted, const std::vector<std::string>
   return out + "?";
 }
 
+std::string grouped(std::size_t number) {
+  const std::string digits = std::to_string(number);
+  std::string out;
+  for (std::size_t i = 0; i < digits.size(); ++i) {
+    if (i > 0 && (digits.size() - i) % 3 == 0) out += ',';
+    out += digits[i];
+  }
+  return out;
+}
+
 std::string count_of(std::size_t count, std::string_view singular, std::string_view plural) {
   return std::to_string(count) + " " + std::string(count == 1 ? singular : plural);
 }

@@ -56,6 +56,9 @@ class NearName {
 std::vector<std::string> closest_names(std::string_view wanted, const std::vector<std::string>& known,
                                        std::size_t limit = 3);
 
+/// A whole number with its digits in groups of three for messages: 250000 -> "250,000".
+std::string grouped(std::size_t number);
+
 /// "1 lot", "2 lots": the count with the noun in the number it needs.
 std::string count_of(std::size_t count, std::string_view singular, std::string_view plural);
 
