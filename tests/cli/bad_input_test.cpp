@@ -51,6 +51,7 @@ fs::path make_big_file(const fs::path& folder) {
 /// catalog folder holds a pipe named like a catalog. A "deep" file with "name" is written under that
 /// name in a folder of its own ({made-dir}), beside copies of the shipped files listed in "beside"
 /// (paths under descriptor-data), so a data folder's lexicon or a stock file's journal can be deep.
+/// "repeat" is prefix, `element` `count` times with commas between, suffix (a million records).
 fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int index) {
   fs::path path = folder / ("made-" + std::to_string(index) + ".json");
   if (made.contains("name")) {
@@ -77,8 +78,16 @@ fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int 
     REQUIRE(::mkfifo((data / "catalog" / "pipe.json").c_str(), 0600) == 0);
     return data;
   }
-  REQUIRE(kind == "deep");
   std::ofstream out(path, std::ios::binary);
+  if (kind == "repeat") {
+    out << made.at("prefix").get<std::string>();
+    const std::string element = made.at("element");
+    const auto count = made.at("count").get<int>();
+    for (int i = 0; i < count; ++i) out << (i ? "," : "") << element;
+    out << made.at("suffix").get<std::string>();
+    return path;
+  }
+  REQUIRE(kind == "deep");
   const auto levels = made.at("levels").get<int>();
   out << made.at("prefix").get<std::string>();
   for (int i = 0; i < levels; ++i) out << made.at("open").get<std::string>();
@@ -144,6 +153,7 @@ TEST_CASE("every bad input ends with exit 2 or 3 and one clear line per problem"
       ++count;
     }
     CHECK(count >= 1);
+    if (item.contains("lines")) CHECK(count == item.at("lines").get<int>());
   }
   CHECK(run >= 40);
 }

@@ -1,5 +1,6 @@
 // The JSON guard (io/json_guard.hpp) every parse goes through: nesting depth, keys given twice,
-// numbers beyond double range; and that a streaming reader can use it with its own SAX handler.
+// numbers beyond double range, elements per array; and that a streaming reader can use it with its
+// own SAX handler.
 #include "io/json_guard.hpp"
 
 #include <doctest/doctest.h>
@@ -12,6 +13,13 @@
 namespace {
 
 std::string nested(std::size_t levels) { return std::string(levels, '[') + std::string(levels, ']'); }
+
+/// `count` copies of `element`, comma-separated, in brackets.
+std::string array_of(std::size_t count, const std::string& element) {
+  std::string out = "[";
+  for (std::size_t i = 0; i < count; ++i) out += (i ? "," : "") + element;
+  return out + "]";
+}
 
 /// The lines parse_json_text reports for `text` ("" when it parses).
 std::string problems(const std::string& text) {
@@ -96,4 +104,54 @@ TEST_CASE("a streaming reader wraps its own SAX handler in the guard") {
   bine::JsonGuard third_guard(third);
   CHECK_FALSE(nlohmann::json::sax_parse(nested(1000), &third_guard));
   CHECK(third_guard.stop().kind == bine::JsonGuardStop::Kind::too_deep);
+}
+
+TEST_CASE("an array holds at most its limit, by where it is: the first element past it is refused") {
+  // The limits are the table's own (io/json_guard.hpp); the element refused is the first past the
+  // limit, whose index (from 0) is the limit itself: hand arithmetic, 1,000 elements are 0-999.
+  CHECK(problems("{\"hops\": " + array_of(1000, "{}") + "}").empty());
+  CHECK(problems("{\"hops\": " + array_of(1001, "{}") + "}") ==
+        "f.json: /hops/1000: more than 1,000 hop additions (one file holds at most 1,000)\n");
+  // Any other array, at any depth: the default, named by its place.
+  CHECK(problems("{\"varieties\": [{\"tags\": " + array_of(1000, "\"t\"") + "}]}").empty());
+  CHECK(problems("{\"varieties\": [{\"tags\": " + array_of(1001, "\"t\"") + "}]}") ==
+        "f.json: /varieties/0/tags/1000: more than 1,000 elements (an array here holds at most 1,000)\n");
+  // "hops" below the top level is not a recipe's list of additions: the default holds there too.
+  CHECK(problems("{\"x\": {\"hops\": " + array_of(1001, "0") + "}}").find("/x/hops/1000: more than 1,000 elements") !=
+        std::string::npos);
+  // A whole document that is one long array.
+  CHECK(problems(array_of(1001, "0")) == "f.json: /1000: more than 1,000 elements (an array here holds at most 1,000)\n");
+  // 250,000 lots pass the guard (the loader then reads them); one more does not.
+  CHECK(problems("{\"lots\": " + array_of(250000, "0") + "}").empty());
+  CHECK(problems("{\"lots\": " + array_of(250001, "0") + "}") ==
+        "f.json: /lots/250000: more than 250,000 lots (one file holds at most 250,000)\n");
+}
+
+TEST_CASE("array limits match pointers with * for any index, and a streaming reader gets them too") {
+  // A table of our own, small enough to count by hand.
+  static constexpr bine::JsonArrayLimit kLimits[] = {{"/a", 2, "as"}, {"/b/*/c", 1, "cs"}};
+  const auto stop_of = [](const std::string& text) {
+    CountingHandler counter;
+    bine::JsonGuard guard(counter, kLimits, 3);
+    const bool parsed = nlohmann::json::sax_parse(text, &guard);
+    CHECK(parsed == (guard.stop().kind == bine::JsonGuardStop::Kind::none));
+    return guard.stop();
+  };
+  CHECK(stop_of(R"({"a": [1, 2], "b": [{"c": [1]}, {"c": [2]}], "d": [1, 2, 3]})").kind ==
+        bine::JsonGuardStop::Kind::none);
+  const auto a = stop_of(R"({"a": [1, 2, 3]})");
+  CHECK(a.kind == bine::JsonGuardStop::Kind::too_many);
+  CHECK(a.pointer == "/a/2");
+  CHECK(a.max == 2);
+  CHECK(a.noun == "as");
+  const auto c = stop_of(R"({"b": [{"c": [1]}, {"c": [1, 2]}]})");
+  CHECK(c.pointer == "/b/1/c/1");
+  CHECK(c.noun == "cs");
+  // Not in the table: the default of 3, and no noun.
+  const auto d = stop_of(R"({"b": [{"e": [1, 2, 3, 4]}]})");
+  CHECK(d.pointer == "/b/0/e/3");
+  CHECK(d.max == 3);
+  CHECK(d.noun.empty());
+  // The count is per array: /a holds two arrays (its limit), each of three (the default at /a/*).
+  CHECK(stop_of(R"({"a": [[1, 2, 3], [1, 2, 3]]})").kind == bine::JsonGuardStop::Kind::none);
 }

@@ -74,3 +74,30 @@ TEST_CASE("the recipe schema's number bounds are the loader's bounds") {
   check_bounds(schema, cooling["constant"], limits::cooling_constant);
   check_bounds(schema, cooling["ambient"], limits::ambient_temperature);
 }
+
+namespace {
+
+/// The guard's limit for the array at `pointer` (kJsonArrayLimits), else its default.
+std::size_t guard_limit(std::string_view pointer) {
+  for (const auto& limit : bine::kJsonArrayLimits)
+    if (limit.pointer == pointer) return limit.max;
+  return bine::kMaxJsonArrayElements;
+}
+
+json schema_named(const std::string& name) {
+  return json::parse(bine::test::slurp(std::filesystem::path(BINE_SOURCE_DATA_DIR) / "schema" / name));
+}
+
+}  // namespace
+
+TEST_CASE("the schemas' maxItems are the JSON guard's array limits") {
+  CHECK(recipe_schema()["properties"]["hops"]["maxItems"].get<std::size_t>() == guard_limit("/hops"));
+  CHECK(schema_named("stock.schema.json")["properties"]["lots"]["maxItems"].get<std::size_t>() ==
+        guard_limit("/lots"));
+  const json catalog = schema_named("catalog.schema.json");
+  CHECK(catalog["properties"]["varieties"]["maxItems"].get<std::size_t>() == guard_limit("/varieties"));
+  CHECK(catalog["$defs"]["variety"]["properties"]["tags"]["maxItems"].get<std::size_t>() ==
+        guard_limit("/varieties/*/tags"));
+  CHECK(schema_named("lexicon.schema.json")["properties"]["compounds"]["maxItems"].get<std::size_t>() ==
+        guard_limit("/compounds"));
+}
