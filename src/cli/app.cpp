@@ -129,7 +129,8 @@ int run_command_line(int argc, char** argv, std::ostream& out, std::ostream& err
     } catch (const CLI::CallForVersion& e) {
       return app.exit(e, out, err);
     } catch (const CLI::ParseError& e) {
-      err << "bine: error: " << parse_problem(app, e, argc, argv) << " (run 'bine --help' or 'bine COMMAND --help')\n";
+      err << "bine: error: " << message_line(parse_problem(app, e, argc, argv))
+          << " (run 'bine --help' or 'bine COMMAND --help')\n";
       return kExitBadInput;
     }
     choose_data_folder(globals);

@@ -130,14 +130,14 @@ std::vector<ReplacementLot> lots_for_recipe(const std::vector<LotOption>& option
   for (const auto& [text, lot] : options) {
     if (!recipe_uses_variety(recipe, lot.variety)) {
       const std::string hint = did_you_mean(lot.variety, used);
-      reader.add(fmt::format("--lot: \"{}\": the recipe does not use {} ({}the recipe uses {})", text, lot.variety,
+      reader.add(fmt::format("--lot: \"{}\": the recipe does not use \"{}\" ({}the recipe uses {})", text, lot.variety,
                              hint.empty() ? "" : hint + "; ", fmt::join(used, ", ")));
       continue;
     }
     // Said once per variety however often it is repeated.
     if (++times_given[fold_name(lot.variety)] == 2)
-      reader.add(
-          fmt::format("--lot: \"{}\": {} is given more than once (expected one --lot per variety)", text, lot.variety));
+      reader.add(fmt::format("--lot: \"{}\": \"{}\" is given more than once (expected one --lot per variety)", text,
+                             lot.variety));
     lots.push_back(lot);
   }
   reader.throw_if_any();

@@ -17,7 +17,7 @@ namespace bine {
 RecipeSwap swap_into_recipe(const Recipe& recipe, std::string_view missing, const std::vector<SwapIn>& swap_in,
                             const Catalog& catalog, const BitternessSettings& settings, Weighing weighing) {
   if (!recipe_uses_variety(recipe, missing))
-    throw InputError(fmt::format("{}: /hops: the recipe does not use {} (nothing to swap)", recipe.source_file,
+    throw InputError(fmt::format("{}: /hops: the recipe does not use \"{}\" (nothing to swap)", recipe.source_file,
                                  std::string(missing)));
   RecipeSwap swap;
   swap.split = recipe;

@@ -5,6 +5,8 @@
 #include <cstdio>
 #include <string_view>
 
+#include "model/names.hpp"
+
 namespace bine {
 namespace {
 std::string join_lines(const std::vector<std::string>& lines) {
@@ -85,18 +87,92 @@ std::string printable(std::string_view text) {
   return out;
 }
 
-std::vector<std::string> printable(std::vector<std::string> lines) {
-  for (auto& line : lines) line = printable(line);
+std::vector<std::string> message_lines(std::vector<std::string> lines) {
+  for (auto& line : lines) line = message_line(line);
   return lines;
+}
+
+// The index after the character at text[i]: a UTF-8 sequence, or one byte that is not part of one.
+std::size_t next_character(std::string_view text, std::size_t i) {
+  const std::size_t length = static_cast<unsigned char>(text[i]) >= 0x80 ? utf8_length(text, i) : 0;
+  return i + (length > 0 ? length : 1);
+}
+
+std::size_t character_count(std::string_view text) {
+  std::size_t count = 0;
+  for (std::size_t i = 0; i < text.size(); i = next_character(text, i)) ++count;
+  return count;
+}
+
+// The bytes of the first `count` characters of `text` (all of it when it is not longer).
+std::size_t prefix_bytes(std::string_view text, std::size_t count) {
+  std::size_t i = 0;
+  for (std::size_t seen = 0; i < text.size() && seen < count; ++seen) i = next_character(text, i);
+  return i;
+}
+
+// The next double quote at or after `from` that no backslash escapes (brief() writes JSON strings,
+// whose quotes inside are \"), or npos.
+std::size_t next_quote(std::string_view line, std::size_t from) {
+  for (std::size_t at = line.find('"', from); at != std::string_view::npos; at = line.find('"', at + 1))
+    if (at == 0 || line[at - 1] != '\\') return at;
+  return std::string_view::npos;
+}
+
+// `line` with each quoted text of more than kMaxQuotedCharacters characters cut by quoted_name.
+std::string cut_quoted(std::string_view line) {
+  std::string out;
+  std::size_t done = 0;
+  for (std::size_t open = next_quote(line, 0); open != std::string_view::npos;) {
+    const std::size_t close = next_quote(line, open + 1);
+    if (close == std::string_view::npos) break;
+    const std::string_view inside = line.substr(open + 1, close - open - 1);
+    if (prefix_bytes(inside, kMaxQuotedCharacters) < inside.size()) {
+      out.append(line.substr(done, open - done));
+      out += quoted_name(inside);
+      done = close + 1;
+    }
+    open = next_quote(line, close + 1);
+  }
+  out.append(line.substr(done));
+  return out;
+}
+
+// A JSON pointer with each part longer than kMaxQuotedCharacters characters cut ("/hops/0/qqq...").
+std::string shown_pointer(const std::string& pointer) {
+  std::string out;
+  for (std::size_t start = 0; start < pointer.size();) {
+    const std::size_t slash = pointer.find('/', start + 1);
+    const std::size_t end = slash == std::string::npos ? pointer.size() : slash;
+    const std::string_view part = std::string_view(pointer).substr(start, end - start);
+    const std::size_t cut = prefix_bytes(part, kMaxQuotedCharacters + 1);  // the slash and 60 characters
+    out.append(part.substr(0, cut));
+    if (cut < part.size()) out += "...";
+    start = end;
+  }
+  return out;
 }
 
 }  // namespace
 
+std::string quoted_name(std::string_view text) {
+  const std::size_t cut = prefix_bytes(text, kMaxQuotedCharacters);
+  if (cut == text.size()) return "\"" + std::string(text) + "\"";
+  return "\"" + std::string(text.substr(0, cut)) + "...\" (" + grouped(character_count(text)) + " characters)";
+}
+
+std::string message_line(std::string_view line) {
+  std::string out = printable(cut_quoted(line));
+  const std::size_t cut = prefix_bytes(out, kMaxLineCharacters);
+  if (cut < out.size()) out = out.substr(0, cut) + "... (" + grouped(character_count(out)) + " characters in all)";
+  return out;
+}
+
 InputError::InputError(std::string line, std::vector<Remedy> remedies)
     : InputError(std::vector<std::string>{std::move(line)}, std::move(remedies)) {}
 InputError::InputError(std::vector<std::string> lines, std::vector<Remedy> remedies)
-    : std::runtime_error(join_lines(printable(lines))),
-      lines_(printable(std::move(lines))),
+    : std::runtime_error(join_lines(message_lines(lines))),
+      lines_(message_lines(std::move(lines))),
       remedies_(std::move(remedies)) {}
 
 void Diagnostics::push(std::string line) {
@@ -111,7 +187,7 @@ void Diagnostics::add(const std::string& pointer, const std::string& message) {
     ++more_;
     return;
   }
-  push(file_ + ": " + (pointer.empty() ? std::string("/") : pointer) + ": " + message);
+  push(file_ + ": " + (pointer.empty() ? std::string("/") : shown_pointer(pointer)) + ": " + message);
 }
 
 void Diagnostics::add_file(const std::string& message) { push(file_ + ": " + message); }

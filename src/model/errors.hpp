@@ -3,6 +3,7 @@
 // (src/cli/app.cpp) and printed one line each with the prefix "bine: error: ".
 #include <stdexcept>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace bine {
@@ -38,6 +39,26 @@ enum class Remedy {
   give_stock_file,         // say which stock file the lots are in
 };
 
+/// The most characters a message quotes of one name or value ("unknown variety "...""): a longer one
+/// shows its first 60 and its length, so a 10,000-character name makes a line of about a hundred.
+inline constexpr std::size_t kMaxQuotedCharacters = 60;
+
+/// The most characters of one message line; the rest is cut and counted. A backstop for what is not
+/// quoted (a list of every lot code of a large stock, a long word in a command-line parse error).
+inline constexpr std::size_t kMaxLineCharacters = 1000;
+
+/// `text` in double quotes as a message shows it: whole when it has at most kMaxQuotedCharacters
+/// characters, else its first 60 (cut between UTF-8 characters, never inside one), "..." and its
+/// length: "qqqq...q..." (10,000 characters).
+std::string quoted_name(std::string_view text);
+
+/// A message line as bine prints it (every InputError and Infeasible line, command-line parse errors):
+/// each quoted text ("...") of more than kMaxQuotedCharacters characters cut as quoted_name cuts it,
+/// control characters and bytes that are not UTF-8 escaped (\n, \xFF), invisible characters named
+/// (\u200B), and the line cut after kMaxLineCharacters characters, saying how long it was. Call sites
+/// only quote names; this is the one place that shortens them.
+std::string message_line(std::string_view line);
+
 /// Bad input: a file, field or option that cannot be used. Holds one line per problem.
 class InputError : public std::runtime_error {
  public:
@@ -56,8 +77,8 @@ class InputError : public std::runtime_error {
 /// words and lists what would make it feasible.
 class Infeasible : public std::runtime_error {
  public:
-  explicit Infeasible(std::string why, std::vector<Remedy> remedies = {})
-      : std::runtime_error(std::move(why)), remedies_(std::move(remedies)) {}
+  explicit Infeasible(const std::string& why, std::vector<Remedy> remedies = {})
+      : std::runtime_error(message_line(why)), remedies_(std::move(remedies)) {}
   const std::vector<Remedy>& remedies() const { return remedies_; }
 
  private:

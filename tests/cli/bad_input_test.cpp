@@ -51,7 +51,8 @@ fs::path make_big_file(const fs::path& folder) {
 /// catalog folder holds a pipe named like a catalog. A "deep" file with "name" is written under that
 /// name in a folder of its own ({made-dir}), beside copies of the shipped files listed in "beside"
 /// (paths under descriptor-data), so a data folder's lexicon or a stock file's journal can be deep.
-/// "repeat" is prefix, `element` `count` times with commas between, suffix (a million records).
+/// "repeat" is prefix, `element` `count` times with commas (or "separator") between, suffix (a
+/// million records, a name of 10,000 letters).
 fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int index) {
   fs::path path = folder / ("made-" + std::to_string(index) + ".json");
   if (made.contains("name")) {
@@ -82,8 +83,9 @@ fs::path make_case_file(const fs::path& folder, const nlohmann::json& made, int 
   if (kind == "repeat") {
     out << made.at("prefix").get<std::string>();
     const std::string element = made.at("element");
+    const std::string separator = made.value("separator", ",");
     const auto count = made.at("count").get<int>();
-    for (int i = 0; i < count; ++i) out << (i ? "," : "") << element;
+    for (int i = 0; i < count; ++i) out << (i ? separator : "") << element;
     out << made.at("suffix").get<std::string>();
     return path;
   }

@@ -81,7 +81,7 @@ TEST_CASE("rebalance --write saves a recipe that ibu reads back at the same tota
 TEST_CASE("rebalance rejects a lot the recipe does not use, a lot packaged after --on, and no lots, exit 2") {
   const auto unused = with_catalog({"rebalance", fixture("h3-rebalance.json"), "--lot", "Keelstone=9%"});
   CHECK(unused.status == 2);
-  CHECK(unused.err.find("--lot: \"Keelstone=9%\": the recipe does not use Keelstone") != std::string::npos);
+  CHECK(unused.err.find("--lot: \"Keelstone=9%\": the recipe does not use \"Keelstone\"") != std::string::npos);
   const auto future = with_catalog(
       {"rebalance", fixture("h3-rebalance.json"), "--stock", fixture("h3-stock.json"), "--on", "2025-11-30"});
   CHECK(future.status == 2);

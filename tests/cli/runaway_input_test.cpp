@@ -32,7 +32,7 @@ TEST_CASE("3,000 identical --lot options are reported once") {
   INFO(result.err.substr(0, 2000));
   CHECK(result.status == 2);
   CHECK(count_lines(result.err) == 1);
-  CHECK(result.err.find("Keelstone is given more than once") != std::string::npos);
+  CHECK(result.err.find("\"Keelstone\" is given more than once") != std::string::npos);
 }
 
 TEST_CASE("a million empty hop objects are refused at the first past the limit, in one line") {

@@ -106,7 +106,7 @@ TEST_CASE("swap --pick, --pair and --write need --recipe, and --pick and --pair 
   const auto other = run_cli({"--catalog", fixture("r10-swap-catalog.json"), "swap", "Fixture Far", "--recipe",
                               fixture("r10-swap-recipe.json")});
   CHECK(other.status == 2);
-  CHECK(other.err.find("r10-swap-recipe.json: /hops: the recipe does not use Fixture Far") != std::string::npos);
+  CHECK(other.err.find("r10-swap-recipe.json: /hops: the recipe does not use \"Fixture Far\"") != std::string::npos);
 }
 
 TEST_CASE("swap --recipe --brewhouse: the profile's factor 0.9 on every IBU, and the output names it") {

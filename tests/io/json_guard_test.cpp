@@ -120,7 +120,8 @@ TEST_CASE("an array holds at most its limit, by where it is: the first element p
   CHECK(problems("{\"x\": {\"hops\": " + array_of(1001, "0") + "}}").find("/x/hops/1000: more than 1,000 elements") !=
         std::string::npos);
   // A whole document that is one long array.
-  CHECK(problems(array_of(1001, "0")) == "f.json: /1000: more than 1,000 elements (an array here holds at most 1,000)\n");
+  CHECK(problems(array_of(1001, "0")) ==
+        "f.json: /1000: more than 1,000 elements (an array here holds at most 1,000)\n");
   // 250,000 lots pass the guard (the loader then reads them); one more does not.
   CHECK(problems("{\"lots\": " + array_of(250000, "0") + "}").empty());
   CHECK(problems("{\"lots\": " + array_of(250001, "0") + "}") ==

@@ -92,8 +92,7 @@ json schema_named(const std::string& name) {
 
 TEST_CASE("the schemas' maxItems are the JSON guard's array limits") {
   CHECK(recipe_schema()["properties"]["hops"]["maxItems"].get<std::size_t>() == guard_limit("/hops"));
-  CHECK(schema_named("stock.schema.json")["properties"]["lots"]["maxItems"].get<std::size_t>() ==
-        guard_limit("/lots"));
+  CHECK(schema_named("stock.schema.json")["properties"]["lots"]["maxItems"].get<std::size_t>() == guard_limit("/lots"));
   const json catalog = schema_named("catalog.schema.json");
   CHECK(catalog["properties"]["varieties"]["maxItems"].get<std::size_t>() == guard_limit("/varieties"));
   CHECK(catalog["$defs"]["variety"]["properties"]["tags"]["maxItems"].get<std::size_t>() ==
