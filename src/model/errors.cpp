@@ -119,6 +119,14 @@ std::size_t next_quote(std::string_view line, std::size_t from) {
   return std::string_view::npos;
 }
 
+// Whether `rest` starts with the length quoted_name writes after a cut quote, " (10,000 characters)":
+// that text is cut already (a message that quotes another message's line goes through twice).
+bool starts_with_length(std::string_view rest) {
+  if (rest.substr(0, 2) != " (") return false;
+  const std::size_t digits = rest.find_first_not_of("0123456789,", 2);
+  return digits > 2 && digits != std::string_view::npos && rest.substr(digits, 12) == " characters)";
+}
+
 // `line` with each quoted text of more than kMaxQuotedCharacters characters cut by quoted_name.
 std::string cut_quoted(std::string_view line) {
   std::string out;
@@ -127,7 +135,7 @@ std::string cut_quoted(std::string_view line) {
     const std::size_t close = next_quote(line, open + 1);
     if (close == std::string_view::npos) break;
     const std::string_view inside = line.substr(open + 1, close - open - 1);
-    if (prefix_bytes(inside, kMaxQuotedCharacters) < inside.size()) {
+    if (prefix_bytes(inside, kMaxQuotedCharacters) < inside.size() && !starts_with_length(line.substr(close + 1))) {
       out.append(line.substr(done, open - done));
       out += quoted_name(inside);
       done = close + 1;
@@ -164,8 +172,10 @@ std::string quoted_name(std::string_view text) {
 std::string message_line(std::string_view line) {
   std::string out = printable(cut_quoted(line));
   const std::size_t cut = prefix_bytes(out, kMaxLineCharacters);
-  if (cut < out.size()) out = out.substr(0, cut) + "... (" + grouped(character_count(out)) + " characters in all)";
-  return out;
+  if (cut == out.size()) return out;
+  const std::string_view rest = std::string_view(out).substr(cut);
+  if (rest.substr(0, 5) == "... (" && rest.ends_with(" characters in all)")) return out;  // capped already
+  return out.substr(0, cut) + "... (" + grouped(character_count(out)) + " characters in all)";
 }
 
 InputError::InputError(std::string line, std::vector<Remedy> remedies)

@@ -84,3 +84,15 @@ TEST_CASE("a long key in a JSON pointer is cut in the problem line, and its quot
                                      "...\" (10,000 characters) (expected one of variety, lot, amount)");
   }
 }
+
+TEST_CASE("a line cut once is not cut again when another message quotes it") {
+  // checked_recipe_text puts a loader's line inside an Infeasible message: the cut name keeps its
+  // length, not the length of the cut text (60 letters and "...", 63 characters).
+  const std::string once = bine::message_line("unknown variety \"" + std::string(10000, 'q') + "\"");
+  CHECK(bine::message_line(once) == once);
+  CHECK(bine::message_line("the result: " + once) == "the result: " + once);
+  std::string list;
+  for (int i = 0; i < 2000; ++i) list += (i ? ", L" : "L") + std::to_string(1000 + i);
+  const std::string capped = bine::message_line(list);
+  CHECK(bine::message_line(capped) == capped);
+}
