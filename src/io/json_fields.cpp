@@ -164,9 +164,9 @@ std::string pointer_join(const std::string& pointer, std::string_view key) {
 }
 
 std::string brief(const nlohmann::json& value) {
-  std::string text = value.dump(-1, ' ', false, nlohmann::json::error_handler_t::replace);
-  if (text.size() > 40) text = text.substr(0, 37) + "...";
-  return text;
+  const std::string text = value.dump(-1, ' ', false, nlohmann::json::error_handler_t::replace);
+  const std::string_view kept = first_characters(text, 40);
+  return kept.size() == text.size() ? text : std::string(first_characters(text, 37)) + "...";
 }
 
 FieldReader::FieldReader(const nlohmann::json& value, std::string pointer, Diagnostics& diagnostics)

@@ -163,6 +163,10 @@ std::string shown_pointer(const std::string& pointer) {
 
 }  // namespace
 
+std::string_view first_characters(std::string_view text, std::size_t count) {
+  return text.substr(0, prefix_bytes(text, count));
+}
+
 std::string quoted_name(std::string_view text) {
   const std::size_t cut = prefix_bytes(text, kMaxQuotedCharacters);
   if (cut == text.size()) return "\"" + std::string(text) + "\"";

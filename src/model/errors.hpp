@@ -47,6 +47,10 @@ inline constexpr std::size_t kMaxQuotedCharacters = 60;
 /// quoted (a list of every lot code of a large stock, a long word in a command-line parse error).
 inline constexpr std::size_t kMaxLineCharacters = 1000;
 
+/// The first `count` characters of `text` (UTF-8 sequences; a byte that is not part of one counts as
+/// one), never cut inside a character; all of `text` when it is not longer.
+std::string_view first_characters(std::string_view text, std::size_t count);
+
 /// `text` in double quotes as a message shows it: whole when it has at most kMaxQuotedCharacters
 /// characters, else its first 60 (cut between UTF-8 characters, never inside one), "..." and its
 /// length: "qqqq...q..." (10,000 characters).
