@@ -224,8 +224,7 @@ CandidateSet candidates_for(const CatalogSubset& catalogs, const Cellar* cellar,
   const Lexicon& lexicon = catalogs.data.lexicon;
   if (catalogs.compiled && cellar == nullptr) {
     const CompiledCatalog& compiled = *catalogs.compiled;
-    return blend_candidates_streamed([&](const auto& each) { compiled.for_each_row(lexicon, each); }, lexicon,
-                                     args.like);
+    return blend_candidates_streamed([&](const auto& each) { compiled.for_each_blend_row(each); }, args.like);
   }
   return blend_candidates(catalogs.data.catalog, lexicon, cellar, args.like, args.cellar.allow_stale);
 }

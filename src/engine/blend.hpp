@@ -46,12 +46,25 @@ struct CandidateSet {
 CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, const Cellar* cellar,
                               std::string_view exclude, bool allow_stale = false);
 
-/// Calls its argument once per variety of a catalog, in catalog order (a compiled catalog's rows read
+/// What catalog mode takes from a variety: a compiled catalog stores it per row (the aroma profile
+/// computed at compile time with the stamped lexicon), so a blend reads no whole varieties.
+struct CatalogBlendRow {
+  std::string_view name;
+  bool bittering_only = false;
+  const Eigen::VectorXd* aroma = nullptr;  // the aroma profile's intensities; null when it has none
+  std::optional<Range> total_oil;
+  std::optional<Range> alpha_acid;
+};
+
+/// The blend row of `variety`: its aroma profile is computed into `aroma`, which the row points to
+/// when the profile is usable (some source, some intensity above 0).
+CatalogBlendRow catalog_blend_row(const Variety& variety, const Lexicon& lexicon, Eigen::VectorXd& aroma);
+
+/// Calls its argument once per row of a catalog, in catalog order (a compiled catalog's rows read
 /// one at a time, so a large catalog is never held whole).
-using VarietyStream = std::function<void(const std::function<void(const Variety&)>&)>;
-/// Catalog mode of blend_candidates over a stream of varieties: the same candidates and notes.
-CandidateSet blend_candidates_streamed(const VarietyStream& each_variety, const Lexicon& lexicon,
-                                       std::string_view exclude);
+using BlendRowStream = std::function<void(const std::function<void(const CatalogBlendRow&)>&)>;
+/// Catalog mode of blend_candidates over a stream of rows: the same candidates and notes.
+CandidateSet blend_candidates_streamed(const BlendRowStream& each_row, std::string_view exclude);
 
 /// The aroma to aim at and the weight of each axis in the objective.
 struct BlendTarget {

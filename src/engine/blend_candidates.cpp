@@ -28,32 +28,36 @@ struct LeftOut {
 /// Sets the candidate's aroma from the variety; false (and noted) when it has no aroma data.
 bool take_aroma(const Variety& variety, const Lexicon& lexicon, const std::string& label, BlendCandidate& candidate,
                 LeftOut& left_out) {
-  const AromaProfile profile = aroma_profile(variety, lexicon);
-  if (profile.source == AromaSource::none || profile.intensity.maxCoeff() <= 0.0) {
+  Eigen::VectorXd aroma;
+  if (catalog_blend_row(variety, lexicon, aroma).aroma == nullptr) {
     left_out.no_aroma.push_back(label);
     return false;
   }
-  candidate.aroma = profile.intensity;
+  candidate.aroma = std::move(aroma);
   return true;
 }
 
-void add_catalog_candidate(const Variety& variety, const Lexicon& lexicon, const std::string& excluded,
-                           CandidateSet& set, LeftOut& left_out) {
-  if (!excluded.empty() && fold_name(variety.name) == excluded) return;
-  if (variety.purpose == Purpose::bittering) return;
-  BlendCandidate candidate;
-  candidate.variety = variety.name;
-  if (!take_aroma(variety, lexicon, variety.name, candidate, left_out)) return;
-  if (!variety.total_oil || variety.total_oil->mid() <= 0.0) {
-    left_out.no_oil.push_back(variety.name);
+void add_catalog_candidate(const CatalogBlendRow& row, const std::string& excluded, CandidateSet& set,
+                           LeftOut& left_out) {
+  if (!excluded.empty() && fold_name(row.name) == excluded) return;
+  if (row.bittering_only) return;
+  const std::string name(row.name);
+  if (row.aroma == nullptr) {
+    left_out.no_aroma.push_back(name);
     return;
   }
-  candidate.oil_ml_per_100g = variety.total_oil->mid();
-  const CatalogAlpha alpha = catalog_alpha(variety);
+  if (!row.total_oil || row.total_oil->mid() <= 0.0) {
+    left_out.no_oil.push_back(name);
+    return;
+  }
+  BlendCandidate candidate;
+  candidate.variety = name;
+  candidate.aroma = *row.aroma;
+  candidate.oil_ml_per_100g = row.total_oil->mid();
+  const CatalogAlpha alpha = catalog_alpha(row.name, row.alpha_acid);
   candidate.alpha_percent = alpha.alpha_percent.value_or(0.0);
   candidate.alpha_note = alpha.note;
-  if (variety.alpha_acid)
-    candidate.alpha_origin.catalog_range = std::make_pair(variety.alpha_acid->min, variety.alpha_acid->max);
+  if (row.alpha_acid) candidate.alpha_origin.catalog_range = std::make_pair(row.alpha_acid->min, row.alpha_acid->max);
   set.candidates.push_back(std::move(candidate));
 }
 
@@ -118,20 +122,36 @@ CandidateSet blend_candidates(const Catalog& catalog, const Lexicon& lexicon, co
   CandidateSet set;
   LeftOut left_out;
   const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
-  if (cellar == nullptr)
-    for (const auto& variety : catalog.varieties) add_catalog_candidate(variety, lexicon, excluded, set, left_out);
-  else
+  if (cellar == nullptr) {
+    Eigen::VectorXd aroma;
+    for (const auto& variety : catalog.varieties)
+      add_catalog_candidate(catalog_blend_row(variety, lexicon, aroma), excluded, set, left_out);
+  } else {
     add_stock_candidates(catalog, lexicon, *cellar, excluded, allow_stale, set, left_out);
+  }
   note_left_out(left_out, set);
   return set;
 }
 
-CandidateSet blend_candidates_streamed(const VarietyStream& each_variety, const Lexicon& lexicon,
-                                       std::string_view exclude) {
+CatalogBlendRow catalog_blend_row(const Variety& variety, const Lexicon& lexicon, Eigen::VectorXd& aroma) {
+  CatalogBlendRow row;
+  row.name = variety.name;
+  row.bittering_only = variety.purpose == Purpose::bittering;
+  row.total_oil = variety.total_oil;
+  row.alpha_acid = variety.alpha_acid;
+  AromaProfile profile = aroma_profile(variety, lexicon);
+  if (profile.source != AromaSource::none && profile.intensity.size() > 0 && profile.intensity.maxCoeff() > 0.0) {
+    aroma = std::move(profile.intensity);
+    row.aroma = &aroma;
+  }
+  return row;
+}
+
+CandidateSet blend_candidates_streamed(const BlendRowStream& each_row, std::string_view exclude) {
   CandidateSet set;
   LeftOut left_out;
   const std::string excluded = exclude.empty() ? std::string() : fold_name(exclude);
-  each_variety([&](const Variety& variety) { add_catalog_candidate(variety, lexicon, excluded, set, left_out); });
+  each_row([&](const CatalogBlendRow& row) { add_catalog_candidate(row, excluded, set, left_out); });
   note_left_out(left_out, set);
   return set;
 }

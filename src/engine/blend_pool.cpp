@@ -52,9 +52,13 @@ void mark_strongest(const BlendRequest& request, Index a, std::vector<bool>& cho
   for (std::size_t i = 0; i < n; ++i) scores[i] = score(i);
   std::vector<std::size_t> strongest(n);
   std::iota(strongest.begin(), strongest.end(), 0);
-  std::stable_sort(strongest.begin(), strongest.end(),
-                   [&](std::size_t l, std::size_t r) { return scores[l] > scores[r]; });
-  for (std::size_t k = 0; k < std::min(n, request.pool.per_axis); ++k) chosen[strongest[k]] = true;
+  // Only the first per_axis are needed: a partial sort, ties broken by position (as a stable sort
+  // of positions in order would), so the same candidates are marked as by sorting them all.
+  const std::size_t take = std::min(n, request.pool.per_axis);
+  std::partial_sort(
+      strongest.begin(), strongest.begin() + static_cast<std::ptrdiff_t>(take), strongest.end(),
+      [&](std::size_t l, std::size_t r) { return scores[l] > scores[r] || (scores[l] == scores[r] && l < r); });
+  for (std::size_t k = 0; k < take; ++k) chosen[strongest[k]] = true;
 }
 
 std::vector<std::size_t> indices_of(const std::vector<bool>& chosen) {

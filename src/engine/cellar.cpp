@@ -88,11 +88,12 @@ std::string_view to_string(HsiState state) {
   return "";
 }
 
-CatalogAlpha catalog_alpha(const Variety& variety) {
-  if (!variety.alpha_acid) return {std::nullopt, fmt::format("no alpha known for {}", variety.name)};
-  return {variety.alpha_acid->mid(),
-          fmt::format("catalog midpoint {:.2f} % ({:g}-{:g} %), not a lot", variety.alpha_acid->mid(),
-                      variety.alpha_acid->min, variety.alpha_acid->max)};
+CatalogAlpha catalog_alpha(const Variety& variety) { return catalog_alpha(variety.name, variety.alpha_acid); }
+
+CatalogAlpha catalog_alpha(std::string_view name, const std::optional<Range>& alpha_acid) {
+  if (!alpha_acid) return {std::nullopt, fmt::format("no alpha known for {}", name)};
+  return {alpha_acid->mid(), fmt::format("catalog midpoint {:.2f} % ({:g}-{:g} %), not a lot", alpha_acid->mid(),
+                                         alpha_acid->min, alpha_acid->max)};
 }
 
 CellarLot lot_on_brew_day(const Lot& lot, std::size_t index, const Variety* variety, Date on,

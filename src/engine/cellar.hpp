@@ -95,5 +95,7 @@ struct CatalogAlpha {
   std::string note;
 };
 CatalogAlpha catalog_alpha(const Variety& variety);
+/// As above from a variety's name and alpha range alone.
+CatalogAlpha catalog_alpha(std::string_view name, const std::optional<Range>& alpha_acid);
 
 }  // namespace bine

@@ -9,7 +9,10 @@
 //   varieties(id, ...)     one row per variety in merged order (id = position = index row id):
 //                          name, folded name (unique index: look-ups never scan), the numbers as
 //                          REAL (8-byte IEEE, so values come back bit for bit), oils and aroma as
-//                          blobs of (index, value...) doubles in native byte order, tags as JSON
+//                          blobs of (index, value...) doubles in native byte order, tags as JSON,
+//                          and the aroma profile blend reads (one double per lexicon axis, NULL
+//                          when the variety has none), so a blend builds its candidates from a few
+//                          columns instead of whole varieties
 // Beside it, NAME.bine-STAMP.aroma.faiss and NAME.bine-STAMP.bittering.faiss: faiss::write_index of
 // the flat or HNSW index over each question's vectors (HopIndex decides the kind by size). The
 // stamp in the file names ties each index to its database.
@@ -39,6 +42,7 @@
 #include <nlohmann/json.hpp>
 #include <set>
 
+#include "engine/blend.hpp"
 #include "io/data_dir.hpp"
 #include "io/file_io.hpp"
 #include "io/loaders.hpp"
@@ -51,7 +55,7 @@ namespace {
 
 namespace fs = std::filesystem;
 
-constexpr std::string_view kFormat = "bine compiled catalog 1";
+constexpr std::string_view kFormat = "bine compiled catalog 2";
 constexpr std::uint64_t kFnvOffset = 14695981039346656037ull;
 constexpr std::uint64_t kFnvPrime = 1099511628211ull;
 
@@ -137,7 +141,8 @@ constexpr const char* kSchema =
     " modified_ns INTEGER, hash TEXT);"
     "CREATE TABLE varieties(id INTEGER PRIMARY KEY, name TEXT, folded TEXT, source TEXT, origin TEXT,"
     " purpose INTEGER, alpha_min REAL, alpha_max REAL, beta_min REAL, beta_max REAL, cohumulone_min REAL,"
-    " cohumulone_max REAL, oil_min REAL, oil_max REAL, stability REAL, oils BLOB, aroma BLOB, tags TEXT);";
+    " cohumulone_max REAL, oil_min REAL, oil_max REAL, stability REAL, oils BLOB, aroma BLOB, tags TEXT,"
+    " profile BLOB);";
 
 void bind_range(Statement& insert, int at, const std::optional<Range>& range) {
   if (range) {
@@ -192,6 +197,11 @@ void insert_variety(Statement& insert, std::int64_t id, const Variety& v, const 
     insert.bind_null(18);
   else
     insert.bind(18, nlohmann::json(v.tags).dump());
+  Eigen::VectorXd profile;
+  if (catalog_blend_row(v, lexicon, profile).aroma != nullptr)
+    insert.bind_blob(19, std::vector<double>(profile.data(), profile.data() + profile.size()));
+  else
+    insert.bind_null(19);
   insert.step();
 }
 
@@ -294,7 +304,7 @@ void fill_database(sqlite3* db, const CompileInput& input, const std::string& st
     file.bind(6, hex(f.hash));
     file.step();
   }
-  Statement insert(db, "INSERT INTO varieties VALUES(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+  Statement insert(db, "INSERT INTO varieties VALUES(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
                    "compiled catalog");
   std::int64_t id = 0;
   for (const auto& variety : input.catalog->varieties) insert_variety(insert, id++, variety, *input.lexicon);
@@ -502,6 +512,27 @@ Catalog CompiledCatalog::load_all(const Lexicon& lexicon) const {
 void CompiledCatalog::for_each_row(const Lexicon& lexicon, const std::function<void(const Variety&)>& each) const {
   Statement select(db_.get(), std::string(kSelectVariety) + " ORDER BY id", path_.string());
   while (select.step()) each(variety_from_row(select, lexicon));
+}
+
+void CompiledCatalog::for_each_blend_row(const std::function<void(const CatalogBlendRow&)>& each) const {
+  Statement select(db_.get(),
+                   "SELECT name, purpose, oil_min, oil_max, alpha_min, alpha_max, profile FROM varieties ORDER BY id",
+                   path_.string());
+  Eigen::VectorXd profile;
+  while (select.step()) {
+    const std::string name = select.text(0);
+    CatalogBlendRow row;
+    row.name = name;
+    row.bittering_only = !select.is_null(1) && static_cast<Purpose>(select.integer(1)) == Purpose::bittering;
+    row.total_oil = read_range(select, 2);
+    row.alpha_acid = read_range(select, 4);
+    if (!select.is_null(6)) {
+      const std::vector<double> values = select.doubles(6);
+      profile = Eigen::Map<const Eigen::VectorXd>(values.data(), static_cast<Eigen::Index>(values.size()));
+      row.aroma = &profile;
+    }
+    each(row);
+  }
 }
 
 Catalog CompiledCatalog::only(const std::vector<std::string>& names, const Lexicon& lexicon) const {

@@ -16,6 +16,7 @@
 #include <vector>
 
 #include "engine/aroma_vector.hpp"
+#include "engine/blend.hpp"
 #include "engine/hop_index.hpp"
 #include "engine/substitutes.hpp"
 #include "io/data_dir.hpp"
@@ -97,6 +98,9 @@ class CompiledCatalog {
   Catalog load_all(const Lexicon& lexicon) const;
   /// Calls `each` with every row in order, one at a time (nothing else is held).
   void for_each_row(const Lexicon& lexicon, const std::function<void(const Variety&)>& each) const;
+  /// Calls `each` with every row as blend's catalog mode reads it (name, purpose, oil, alpha and the
+  /// aroma profile stored at compile time), in order, without building varieties.
+  void for_each_blend_row(const std::function<void(const CatalogBlendRow&)>& each) const;
   /// A catalog of only the rows with these names (folded comparison, in catalog order; unknown names
   /// are left out), with the compiled catalog's catalog names and demo flag.
   Catalog only(const std::vector<std::string>& names, const Lexicon& lexicon) const;
