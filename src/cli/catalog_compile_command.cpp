@@ -9,6 +9,7 @@
 #include "cli/commands.hpp"
 #include "engine/aroma_vector.hpp"
 #include "engine/hop_index.hpp"
+#include "engine/substitutes.hpp"
 #include "io/compiled_catalog.hpp"
 #include "io/data_dir.hpp"
 #include "model/errors.hpp"
@@ -55,7 +56,7 @@ HopIndex build_index(const Console& console, bool json, const DataSet& data, Swa
     const auto v = vectorizer.embed(vectorizer.describe(variety));
     rows.insert(rows.end(), v.begin(), v.end());
   }
-  IndexSettings settings;
+  IndexSettings settings = index_settings_for(purpose, {});
   settings.build_threads = all_cores();
   settings.progress = progress_bar(console, json, fmt::format("{} index", to_string(purpose)));
   return HopIndex(vectorizer.dimensions(), rows, settings);

@@ -25,6 +25,7 @@
 #include <algorithm>
 #include <cmath>
 #include <deque>
+#include <limits>
 #include <map>
 #include <set>
 
@@ -146,6 +147,11 @@ std::array<double, 2> two_hop_shares(const Eigen::VectorXd& first, const Eigen::
   return {solution.shares[0], solution.shares[1]};
 }
 
+IndexSettings index_settings_for(SwapPurpose purpose, IndexSettings settings) {
+  if (purpose == SwapPurpose::bittering) settings.exact_up_to = std::numeric_limits<std::size_t>::max();
+  return settings;
+}
+
 namespace {
 
 /// A Catalog in memory as a substitute source: every variety embedded and indexed for the question.
@@ -155,7 +161,7 @@ class CatalogInMemory final : public SubstituteCatalog {
                   const SubstituteSettings& settings)
       : catalog_(catalog),
         vectorizer_(catalog, lexicon, purpose, settings.vectors),
-        index_(vectorizer_.dimensions(), embed_all(), settings.index) {}
+        index_(vectorizer_.dimensions(), embed_all(), index_settings_for(purpose, settings.index)) {}
   std::size_t size() const override { return catalog_.varieties.size(); }
   std::optional<std::size_t> position_of(std::string_view name) const override {
     const Variety* variety = find_variety(catalog_, name);

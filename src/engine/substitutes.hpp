@@ -88,6 +88,12 @@ struct SwapResult {
   std::vector<std::string> notes;  // skipped lots, missing data, assumptions
 };
 
+/// The index settings for one question. Bittering questions are always answered by an exact scan:
+/// a bittering swap ranks on a few chemistry figures whose small differences matter, and an exact
+/// index needs no graph build (at 10^6 varieties that is about half of a compile) and is answered
+/// in milliseconds. Aroma questions use `settings` as given (HNSW above exact_up_to rows).
+IndexSettings index_settings_for(SwapPurpose purpose, IndexSettings settings);
+
 /// A catalog as the substitute search reads it, for one question: rows by position, names through
 /// a folded-name index, and the neighbour index over the rows with the vectorizer that embedded
 /// them. A Catalog in memory gets one built per search; a compiled catalog (io/compiled_catalog.hpp)

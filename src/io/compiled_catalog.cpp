@@ -383,8 +383,8 @@ std::string vector_settings_fingerprint(const VectorSettings& vectors, const Ind
     text += fmt::format(" {:a} {:a} {:a}", w->aroma, w->oils, w->chemistry);
     for (const double e : w->chemistry_emphasis) text += fmt::format(" {:a}", e);
   }
-  text += fmt::format(" {:a} {:a}; index {} {} {}", vectors.angle_per_sd, vectors.max_sd, index.exact_up_to,
-                      index.hnsw_neighbors, index.hnsw_ef_construction);
+  text += fmt::format(" {:a} {:a}; index {} {} {}; bittering exact", vectors.angle_per_sd, vectors.max_sd,
+                      index.exact_up_to, index.hnsw_neighbors, index.hnsw_ef_construction);
   return text;
 }
 

@@ -10,6 +10,7 @@
 #include <set>
 
 #include "engine/aroma_vector.hpp"
+#include "engine/substitutes.hpp"
 #include "engine/synthetic_catalog.hpp"
 #include "io/data_dir.hpp"
 
@@ -146,6 +147,18 @@ TEST_CASE("the index kind follows the size threshold") {
   CHECK(graph.memory_bytes() > 200u * 8u * 4u);
   // Asking for more than there are returns all of them.
   CHECK(HopIndex(8, rows).search(rows.data(), 500).size() == 200);
+}
+
+TEST_CASE("bittering questions use an exact index at any size, aroma questions the size threshold") {
+  // A design rule of substitutes.hpp (index_settings_for), checked on a catalog over the threshold.
+  const auto rows = random_rows(300, 8, 5);
+  bine::IndexSettings small;
+  small.exact_up_to = 100;
+  const auto bittering = bine::index_settings_for(bine::SwapPurpose::bittering, small);
+  const auto aroma = bine::index_settings_for(bine::SwapPurpose::aroma, small);
+  CHECK(HopIndex(8, rows, bittering).kind() == IndexKind::exact);
+  CHECK(HopIndex(8, rows, aroma).kind() == IndexKind::hnsw);
+  CHECK(aroma.exact_up_to == 100);
 }
 
 TEST_CASE("HNSW recall@10 is at least 0.95 on a synthetic catalog of 20,000") {
