@@ -3,6 +3,9 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <atomic>
+#include <exception>
+#include <thread>
 
 #include "io/compiled_catalog.hpp"
 #include "io/loaders.hpp"
@@ -65,6 +68,35 @@ CatalogSource catalog_source(const std::filesystem::path& data_dir, const std::f
           is_shipped_catalog(data_dir, file) ? "shipped " + file.filename().string() : file.string(), loaded.demo};
 }
 
+namespace {
+
+/// Loads the files in parallel (one thread per core at most, files taken in turn), each catalog in
+/// its place; the first file in order that fails throws its error, as a load one by one would.
+std::vector<Catalog> load_catalogs(const std::vector<std::filesystem::path>& files, const Lexicon& lexicon) {
+  std::vector<Catalog> catalogs(files.size());
+  std::vector<std::exception_ptr> errors(files.size());
+  std::atomic<std::size_t> next{0};
+  const auto work = [&] {
+    for (std::size_t i = next++; i < files.size(); i = next++) {
+      try {
+        catalogs[i] = load_catalog(files[i], lexicon);
+      } catch (...) {
+        errors[i] = std::current_exception();
+      }
+    }
+  };
+  const std::size_t cores = std::max(1u, std::thread::hardware_concurrency());
+  std::vector<std::thread> helpers;
+  for (std::size_t t = 1; t < std::min(cores, files.size()); ++t) helpers.emplace_back(work);
+  work();
+  for (auto& helper : helpers) helper.join();
+  for (const auto& error : errors)
+    if (error) std::rethrow_exception(error);
+  return catalogs;
+}
+
+}  // namespace
+
 DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>& user_catalogs) {
   namespace fs = std::filesystem;
   DataSet data;
@@ -75,11 +107,9 @@ DataSet load_data(const DataFolderChoice& choice, const std::vector<std::string>
     data.catalog = load_catalogs_with_compiled(data.data_dir, data.lexicon, files, data.notes, data.sources);
     return data;
   }
-  std::vector<Catalog> catalogs;
-  for (const auto& file : files) {
-    catalogs.push_back(load_catalog(file, data.lexicon));
-    data.sources.push_back(catalog_source(data.data_dir, file, catalogs.back()));
-  }
+  const std::vector<Catalog> catalogs = load_catalogs(files, data.lexicon);
+  for (std::size_t i = 0; i < files.size(); ++i)
+    data.sources.push_back(catalog_source(data.data_dir, files[i], catalogs[i]));
   data.catalog = merge_catalogs(catalogs);
   return data;
 }

@@ -148,3 +148,24 @@ TEST_CASE("a stock lot of a variety no catalog knows stops every stock-reading c
     CHECK(run.err.find("did you mean " + real) != std::string::npos);
   }
 }
+
+TEST_CASE("several catalog files load in the order given, and the first bad one in that order is the error") {
+  // The files are loaded on several threads; the merged catalog and the error must not depend on it.
+  const bine::test::TempDir dir;
+  const std::string mine = own_catalog(dir.path()).string();
+  const auto both = run_cli({"--catalog", "demo", "--catalog", mine, "catalog", "list", "--json"});
+  REQUIRE(both.status == 0);
+  const auto doc = nlohmann::json::parse(both.out);
+  REQUIRE(doc.at("catalogs_used").size() == 2);
+  CHECK(doc.at("catalogs_used")[1].at("name") == "our cellar");
+  CHECK(doc.at("varieties").size() == demo_variety_count() + 2);
+  const fs::path bad_first = dir.path() / "bad-first.json";
+  const fs::path bad_second = dir.path() / "bad-second.json";
+  std::ofstream(bad_first) << "{\"varieties\": 7}";
+  std::ofstream(bad_second) << "{\"varieties\": [";
+  const auto bad = run_cli(
+      {"--catalog", mine, "--catalog", bad_first.string(), "--catalog", bad_second.string(), "catalog", "list"});
+  CHECK(bad.status == 2);
+  CHECK(bad.err.find(bad_first.string()) != std::string::npos);
+  CHECK(bad.err.find(bad_second.string()) == std::string::npos);
+}
